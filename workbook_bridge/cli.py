@@ -1,2 +1,88 @@
-def main():
-    print("ok")
+"""The ``twistshare`` command: rate, check, share, demo, functions.
+
+Exit codes: 0 every part rated; 1 some parts had errors (the output is still written);
+2 the input is unusable (nothing written), with a one-line reason.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from . import __version__
+
+__all__ = ["main"]
+
+EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="twistshare",
+        description="Rate compound shafts in torsion from a workbook of parts and materials. "
+        "A preliminary design aid: verify against the applicable codes and standards and have a "
+        "qualified engineer review the results.",
+    )
+    p.add_argument("--version", action="version", version=f"twistshare {__version__}")
+    sub = p.add_subparsers(dest="command", required=True, metavar="COMMAND")
+
+    def book_command(name: str, help_: str, suffix: str) -> argparse.ArgumentParser:
+        c = sub.add_parser(name, help=help_, description=help_)
+        c.add_argument("book", type=Path, help="the workbook (.xlsx or .xlsm); it is never modified")
+        c.add_argument("-o", "--output", type=Path, default=None,
+                       help=f"where to write the new workbook (default: BOOK{suffix}.xlsx beside the input)")
+        c.add_argument("--in-place", action="store_true",
+                       help="write into the input file itself, after keeping a timestamped backup copy")
+        c.add_argument("-q", "--quiet", action="store_true", help="print only the one-line result")
+        return c
+
+    r = book_command("rate", "rate every part: results, summary and warnings sheets, comments on input cells",
+                     "-rated")
+    r.add_argument("--units", choices=["book", "SI", "US"], default="book",
+                   help="unit system of the results (default: that of the book's parts table)")
+    r.add_argument("--profile-part", default=None,
+                   help="part whose shear stress across the radius is charted (default: the lowest margin)")
+    book_command("check", "validate the tables only: warnings as comments in a copy, a report here",
+                 "-checked")
+    book_command("share", "a copy for people without the add-in: cell-function formulas replaced by values",
+                 "-shared")
+    d = sub.add_parser("demo", help="write the sample books", description="write the sample books")
+    d.add_argument("directory", nargs="?", type=Path, default=Path("twistshare-samples"))
+    sub.add_parser("functions", help="list every cell function with its arguments, units and description")
+    return p
+
+
+def _default_output(book: Path, suffix: str) -> Path:
+    ext = book.suffix if book.suffix.lower() in (".xlsx", ".xlsm") else ".xlsx"
+    return book.with_name(f"{book.stem}{suffix}{ext}")
+
+
+def main(argv: list[str] | None = None) -> int:
+    args = _parser().parse_args(argv)
+    try:
+        return _run(args)
+    except KeyboardInterrupt:
+        print("twistshare: interrupted; nothing was written under the output name", file=sys.stderr)
+        return EXIT_UNUSABLE
+
+
+def _run(args: argparse.Namespace) -> int:
+    from ._commands import run_check, run_demo, run_functions, run_rate, run_share
+
+    if args.command == "functions":
+        return run_functions()
+    if args.command == "demo":
+        return run_demo(args.directory)
+    suffix = {"rate": "-rated", "check": "-checked", "share": "-shared"}[args.command]
+    out = args.book if args.in_place else (args.output or _default_output(args.book, suffix))
+    if args.command == "rate":
+        return run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
+                        profile_part=args.profile_part)
+    if args.command == "check":
+        return run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
+    return run_share(args.book, out, in_place=args.in_place, quiet=args.quiet)
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,79 @@
+"""Cell grids read from a workbook: values by zero-based row and column, with A1 references."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+__all__ = ["SheetGrid", "cell_ref", "column_letter", "parse_ref"]
+
+
+def column_letter(col: int) -> str:
+    """Zero-based column index to its letters (0 -> A, 26 -> AA)."""
+    letters = ""
+    col += 1
+    while col:
+        col, rem = divmod(col - 1, 26)
+        letters = chr(65 + rem) + letters
+    return letters
+
+
+def cell_ref(row: int, col: int) -> str:
+    """Zero-based row and column to an A1 reference."""
+    return f"{column_letter(col)}{row + 1}"
+
+
+def parse_ref(ref: str) -> tuple[int, int]:
+    """An A1 reference (``$`` allowed) to zero-based (row, column)."""
+    ref = ref.replace("$", "").upper()
+    i = 0
+    while i < len(ref) and ref[i].isalpha():
+        i += 1
+    letters, digits = ref[:i], ref[i:]
+    if not letters or not digits.isdigit():
+        raise ValueError(f"not a cell reference: {ref!r}")
+    col = 0
+    for ch in letters:
+        col = col * 26 + (ord(ch) - 64)
+    return int(digits) - 1, col - 1
+
+
+@dataclass(frozen=True)
+class SheetGrid:
+    """The values of one sheet, anchored at A1.
+
+    ``errors`` maps (row, col) to an error value the cell holds (``#N/A``), which the fast reader
+    reports as an empty cell; ``hidden_rows`` are zero-based rows hidden in the sheet;
+    ``merged`` holds merged ranges as ((row0, col0), (row1, col1)).
+    """
+
+    name: str
+    rows: list[list[object]]
+    errors: dict[tuple[int, int], str] = field(default_factory=dict)
+    hidden_rows: frozenset[int] = frozenset()
+    merged: tuple[tuple[tuple[int, int], tuple[int, int]], ...] = ()
+
+    @property
+    def height(self) -> int:
+        return len(self.rows)
+
+    def value(self, row: int, col: int) -> object:
+        """The value at (row, col), an error text such as ``#N/A``, or None when empty."""
+        err = self.errors.get((row, col))
+        if err is not None:
+            return err
+        if row < len(self.rows):
+            r = self.rows[row]
+            if col < len(r):
+                v = r[col]
+                return None if v == "" else v
+        return None
+
+    def merged_cover(self) -> dict[tuple[int, int], tuple[int, int]]:
+        """Every cell inside a merged range (except its top-left) mapped to the top-left cell."""
+        cover: dict[tuple[int, int], tuple[int, int]] = {}
+        for (r0, c0), (r1, c1) in self.merged:
+            for r in range(r0, r1 + 1):
+                for c in range(c0, c1 + 1):
+                    if (r, c) != (r0, c0):
+                        cover[(r, c)] = (r0, c0)
+        return cover

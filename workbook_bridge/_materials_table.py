@@ -1,0 +1,271 @@
+"""The book's materials table, completed from the built-in library where the book leaves blanks."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from twistshare.engine.core import (
+    AllowableRule,
+    allowable_shear,
+    find_material,
+    shear_modulus_from_elastic,
+)
+
+from ._column_values import read_flag, read_numeric, read_text
+from ._findings import Finding, Severity
+from ._grid import SheetGrid, cell_ref
+from ._schema import MATERIAL_FIELDS
+from ._tables import TableSpot
+
+__all__ = ["ResolvedMaterial", "FilledCell", "MaterialSet", "read_materials", "rule_from_text", "RULE_NAMES"]
+
+RULE_NAMES: dict[AllowableRule, str] = {
+    AllowableRule.GIVEN: "given",
+    AllowableRule.MAX_SHEAR: "max shear (Tresca) 0.5·Sy/FS",
+    AllowableRule.DISTORTION_ENERGY: "distortion energy (von Mises) Sy/(√3·FS)",
+    AllowableRule.SHAFTING_CODE: "shafting code min(0.30·Sy, 0.18·Su)",
+}
+
+_RULE_WORDS = {
+    "given": AllowableRule.GIVEN,
+    "direct": AllowableRule.GIVEN,
+    "max shear": AllowableRule.MAX_SHEAR,
+    "maximum shear": AllowableRule.MAX_SHEAR,
+    "maximum shear stress": AllowableRule.MAX_SHEAR,
+    "tresca": AllowableRule.MAX_SHEAR,
+    "distortion energy": AllowableRule.DISTORTION_ENERGY,
+    "von mises": AllowableRule.DISTORTION_ENERGY,
+    "shafting code": AllowableRule.SHAFTING_CODE,
+    "code": AllowableRule.SHAFTING_CODE,
+}
+
+
+def rule_from_text(text: str | None) -> AllowableRule | None:
+    """The allowable rule a cell names, or None if it names none we know."""
+    if text is None:
+        return None
+    return _RULE_WORDS.get(" ".join(text.strip().lower().replace("-", " ").split()))
+
+
+@dataclass(frozen=True)
+class FilledCell:
+    """A blank cell of the book's materials table that the library filled in."""
+
+    sheet: str
+    cell: str
+    material: str
+    field: str
+    value_si: float
+    source: str
+
+
+@dataclass(frozen=True)
+class ResolvedMaterial:
+    """A material as used for rating: SI shear modulus and allowable, or the reason it has none."""
+
+    name: str
+    shear_modulus: float
+    allowable_shear: float
+    rule: AllowableRule
+    origin: str  # "book" or "library"
+    problem: str | None = None
+    youngs_modulus: float = math.nan
+    poisson_ratio: float = math.nan
+    yield_strength: float = math.nan
+    ultimate_strength: float = math.nan
+    factor_of_safety: float = math.nan
+    keyway: bool = False
+    density: float = math.nan
+
+
+@dataclass
+class MaterialSet:
+    """Materials by normalised name; names given twice in the book are ambiguous."""
+
+    by_name: dict[str, ResolvedMaterial] = field(default_factory=dict)
+    ambiguous: dict[str, list[str]] = field(default_factory=dict)  # name -> cells where it appears
+    filled: list[FilledCell] = field(default_factory=list)
+    spot: TableSpot | None = None
+    cells: dict[str, dict[str, str]] = field(default_factory=dict)  # name -> field -> A1 cell
+
+    def lookup(self, name: str) -> tuple[ResolvedMaterial | None, str | None]:
+        """Find a material by name in the book, then the library; (material, problem)."""
+        key = normalise_name(name)
+        if key in self.ambiguous:
+            cells = ", ".join(self.ambiguous[key])
+            return None, f"material {name!r} is defined more than once in the materials table ({cells})"
+        got = self.by_name.get(key)
+        if got is not None:
+            return (None, got.problem) if got.problem else (got, None)
+        lib = find_material(name)
+        if lib is None:
+            return None, f"unknown material {name!r}: not in the book's materials table nor the built-in library"
+        resolved = _from_library_only(lib)
+        self.by_name[key] = resolved
+        return (None, resolved.problem) if resolved.problem else (resolved, None)
+
+
+def normalise_name(name: str) -> str:
+    return " ".join(name.strip().lower().split())
+
+
+def _nan_if_none(x: float | None) -> float:
+    return math.nan if x is None else float(x)
+
+
+def _from_library_only(lib) -> ResolvedMaterial:
+    sy, su = _nan_if_none(lib.yield_strength), _nan_if_none(lib.ultimate_strength)
+    tau = float(allowable_shear(AllowableRule.SHAFTING_CODE, sy, su, 1.0, False))
+    problem = None
+    if not math.isfinite(tau) or tau <= 0:
+        problem = (
+            f"material {lib.name!r} from the built-in library has no typical yield and ultimate "
+            "strength to derive an allowable from: add it to the materials table with an allowable shear"
+        )
+    return ResolvedMaterial(
+        lib.name, float(lib.shear_modulus), tau, AllowableRule.SHAFTING_CODE, "library", problem,
+        _nan_if_none(lib.youngs_modulus), _nan_if_none(lib.poisson_ratio), sy, su, math.nan, False,
+        _nan_if_none(lib.density),
+    )
+
+
+_FILLABLE = ("shear_modulus", "youngs_modulus", "poisson_ratio", "yield_strength", "ultimate_strength", "density")
+
+
+def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) -> MaterialSet:
+    """Resolve every row of the book's materials table."""
+    out = MaterialSet(spot=spot)
+    rows = list(spot.data_rows)
+    name_col = spot.column("name")
+    assert name_col is not None
+    names = read_text(grid, name_col.index, rows)
+    header_seen: set[tuple[str, int]] = set()
+
+    def who(r: int) -> str:
+        n = names[rows.index(r)] if r in rows else None
+        return f"material {n!r}" if n else f"materials row {r + 1}"
+
+    num: dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
+    for f in MATERIAL_FIELDS:
+        col = spot.column(f.key)
+        if col is None or f.kind in ("text", "flag"):
+            continue
+        nc = read_numeric(grid, col, rows, who, findings, spot.header_row, header_seen)
+        num[f.key] = (nc.values, nc.bad, nc.empty)
+    rule_col = spot.column("rule")
+    rules = read_text(grid, rule_col.index, rows) if rule_col else [None] * len(rows)
+    key_col = spot.column("keyway")
+
+    first_seen: dict[str, str] = {}
+    for i, r in enumerate(rows):
+        name = names[i]
+        if name is None:
+            findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, name_col.index),
+                                    f"materials row {r + 1}: the material has no name; the row is ignored"))
+            continue
+        key = normalise_name(name)
+        here = cell_ref(r, name_col.index)
+        if key in first_seen:
+            out.ambiguous.setdefault(key, [first_seen[key]]).append(here)
+            findings.append(Finding(Severity.ERROR, grid.name, here,
+                                    f"material {name!r} is defined again (first at {first_seen[key]}); "
+                                    "parts using it are not rated until one definition is removed"))
+            continue
+        first_seen[key] = here
+        cells = {f.key: cell_ref(r, c.index) for f in MATERIAL_FIELDS if (c := spot.column(f.key))}
+        out.cells[key] = cells
+
+        def val(k: str) -> float:
+            v = num.get(k)
+            return math.nan if v is None else float(v[0][i])
+
+        def is_bad(k: str) -> bool:
+            v = num.get(k)
+            return bool(v is not None and v[1][i])
+
+        vals = {k: val(k) for k in num}
+        lib = find_material(name)
+        problem: str | None = None
+        if any(is_bad(k) for k in num):
+            problem = f"material {name!r} has unusable properties (see the comments on its row)"
+        if lib is not None:
+            for k in _FILLABLE:
+                if k in vals and not math.isnan(vals[k]) or is_bad(k):
+                    continue
+                lv = getattr(lib, k, None)
+                if lv is None or not math.isfinite(float(lv)):
+                    continue
+                if k == "shear_modulus" and not (math.isnan(vals.get("youngs_modulus", math.nan))):
+                    continue  # the book's own E and nu give G; do not mix in the library's
+                vals[k] = float(lv)
+                if k in cells:
+                    src = lib.sources.get(k, "built-in library")
+                    out.filled.append(FilledCell(grid.name, cells[k], lib.name, k, float(lv), src))
+        g = vals.get("shear_modulus", math.nan)
+        e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
+        if math.isnan(g) and not (math.isnan(e) or math.isnan(nu)):
+            g = float(shear_modulus_from_elastic(e, nu))
+        if problem is None and math.isnan(g):
+            problem = (f"material {name!r}: no shear modulus: give G, or E and Poisson ratio"
+                       + ("" if lib else ", or name a built-in library material"))
+        keyway = False
+        if key_col is not None:
+            raw = grid.value(r, key_col.index)
+            if raw is not None:
+                kv = read_flag(raw)
+                if kv is None:
+                    findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, key_col.index),
+                                            f"material {name!r}: keyway: expected yes or no, got {raw!r}"))
+                    problem = problem or f"material {name!r}: keyway cell unreadable"
+                else:
+                    keyway = kv
+        rule_text = rules[i]
+        rule = rule_from_text(rule_text)
+        tau_given = vals.get("allowable_shear", math.nan)
+        fs = vals.get("factor_of_safety", math.nan)
+        sy, su = vals.get("yield_strength", math.nan), vals.get("ultimate_strength", math.nan)
+        rule_cell = cell_ref(r, rule_col.index) if rule_col else None
+        if rule_text is not None and rule is None:
+            findings.append(Finding(Severity.ERROR, grid.name, rule_cell,
+                                    f"material {name!r}: allowable rule {rule_text!r} is not one of: "
+                                    "given, max shear, distortion energy, shafting code"))
+            problem = problem or f"material {name!r}: unknown allowable rule {rule_text!r}"
+            rule = AllowableRule.GIVEN
+        if rule is None:
+            if not math.isnan(tau_given):
+                rule = AllowableRule.GIVEN
+            else:
+                rule = AllowableRule.SHAFTING_CODE
+                if problem is None and not (math.isnan(sy) or math.isnan(su)):
+                    findings.append(Finding(
+                        Severity.WARNING, grid.name, rule_cell or here,
+                        f"material {name!r}: no allowable shear and no rule given; used the shafting "
+                        "code rule min(0.30·Sy, 0.18·Su)"))
+        tau = math.nan
+        if rule == AllowableRule.GIVEN:
+            tau = tau_given
+            if problem is None and math.isnan(tau):
+                problem = f"material {name!r}: rule 'given' but no allowable shear stress"
+        else:
+            if rule in (AllowableRule.MAX_SHEAR, AllowableRule.DISTORTION_ENERGY) and math.isnan(fs):
+                problem = problem or (f"material {name!r}: rule {RULE_NAMES[rule]} needs a factor of safety")
+            need_su = rule == AllowableRule.SHAFTING_CODE
+            if math.isnan(sy) or (need_su and math.isnan(su)):
+                problem = problem or (
+                    f"material {name!r}: rule {RULE_NAMES[rule]} needs the yield strength"
+                    + (" and the ultimate strength" if need_su else ""))
+            if problem is None:
+                tau = float(allowable_shear(rule, sy, su, fs if not math.isnan(fs) else 1.0, keyway))
+            if not math.isnan(tau_given) and problem is None:
+                findings.append(Finding(
+                    Severity.WARNING, grid.name, cells.get("allowable_shear", here),
+                    f"material {name!r}: allowable shear given but rule {RULE_NAMES[rule]} chosen; "
+                    "the rule's value is used"))
+        out.by_name[key] = ResolvedMaterial(
+            name, g, tau, rule, "book", problem, e, nu, sy, su, fs, keyway, vals.get("density", math.nan))
+        if problem:
+            findings.append(Finding(Severity.ERROR, grid.name, here, problem))
+    return out

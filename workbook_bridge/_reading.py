@@ -1,0 +1,82 @@
+"""Read the sheets the tool needs with the fast reader (python-calamine)."""
+
+from __future__ import annotations
+
+import zipfile
+from dataclasses import dataclass
+from pathlib import Path
+
+import python_calamine as pc
+
+from ._grid import SheetGrid
+from ._sheet_extras import sheet_extras
+
+__all__ = ["BookUnusable", "OpenBook", "open_book"]
+
+
+class BookUnusable(ValueError):
+    """The book cannot be rated at all (exit code 2); the message is one line."""
+
+
+@dataclass
+class TableRegion:
+    """A workbook table (list object): its sheet, header row and zero-based bounds of its data."""
+
+    name: str
+    sheet: str
+    header_row: int
+    first_col: int
+    last_row: int
+    last_col: int
+
+
+@dataclass
+class OpenBook:
+    path: Path
+    sheet_names: list[str]
+    sheet_parts: dict[str, str]  # sheet name -> zip member of its XML
+    tables: dict[str, TableRegion]  # lower-case table name -> region
+    _wb: object
+
+    def grid(self, name: str) -> SheetGrid:
+        """The sheet's values anchored at A1, with its error cells, hidden rows and merges."""
+        sheet = self._wb.get_sheet_by_name(name)
+        rows = sheet.to_python(skip_empty_area=False)
+        merged = tuple(sheet.merged_cell_ranges or ())
+        errors: dict = {}
+        hidden: frozenset = frozenset()
+        member = self.sheet_parts.get(name)
+        if member:
+            with zipfile.ZipFile(self.path) as zf:
+                errors, hidden = sheet_extras(zf, member)
+        return SheetGrid(name, rows, errors, hidden, merged)
+
+    def find_sheet(self, wanted: str) -> str | None:
+        """A sheet whose name is ``wanted``, ignoring case and surrounding spaces."""
+        for n in self.sheet_names:
+            if n.strip().lower() == wanted.lower():
+                return n
+        return None
+
+
+def open_book(path: Path, sheet_parts: dict[str, str]) -> OpenBook:
+    """Open a workbook the package layer has already checked."""
+    try:
+        wb = pc.CalamineWorkbook.from_path(str(path), load_tables=True)
+    except Exception as exc:  # calamine's errors are not one family; word them in one line
+        raise BookUnusable(f"{path.name}: the workbook could not be read ({type(exc).__name__}: "
+                           f"{' '.join(str(exc).split())[:200]})") from None
+    tables: dict[str, TableRegion] = {}
+    try:
+        names = list(wb.table_names)
+    except Exception:
+        names = []
+    for t in names:
+        try:
+            tab = wb.get_table_by_name(t)
+        except Exception:
+            continue
+        (r0, c0), (r1, c1) = tab.start, tab.end
+        # calamine's start is the first data row; the header sits just above it
+        tables[t.lower()] = TableRegion(t, tab.sheet, r0 - 1, c0, r1, c1)
+    return OpenBook(path, list(wb.sheet_names), dict(sheet_parts), tables, wb)

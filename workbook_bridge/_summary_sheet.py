@@ -1,0 +1,112 @@
+"""The summary sheet: counts, the ten lowest margins, rules used, cautions and chart data."""
+
+from __future__ import annotations
+
+import datetime as _dt
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from twistshare.engine.core import stress_profile
+
+from ._flag_wording import Display
+from ._materials_table import RULE_NAMES
+from ._result_tables import CAUTIONS, Styled, criterion_counts, governs_text, lowest_margins
+
+__all__ = ["SummaryLayout", "summary_rows"]
+
+
+@dataclass(frozen=True)
+class SummaryLayout:
+    """Zero-based rows of the blocks the charts refer to (first data row, last data row)."""
+
+    margins: tuple[int, int] | None
+    profile: tuple[int, int] | None
+    profile_part: str | None
+
+
+def _f(x) -> float | None:
+    return float(x) if x is not None and math.isfinite(float(x)) else None
+
+
+def summary_rows(book, display: Display, profile_part: str | None = None) -> tuple[list[list], SummaryLayout]:
+    parts, r = book.parts, book.rating
+    rows: list[list] = []
+    tu, tf = display.unit("torque")
+    su, sf = display.unit("stress")
+    lu, lf = display.unit("length")
+    rows.append([Styled("twistshare rating summary", "title")])
+    rows.append(["Book", book.path.name])
+    rows.append(["Rated on", _dt.date.today().isoformat()])
+    rows.append(["Results in", f"{display.system}: {lu}, {su}, {tu}"])
+    rows.append([])
+    rows.append([Styled("Caution", "caution_title")])
+    for c in CAUTIONS:
+        rows.append([Styled(c, "caution")])
+    rows.append([])
+    n = parts.count if parts else 0
+    rated = int(book.rated.sum()) if book.rated is not None else 0
+    failing = 0
+    if r is not None and book.rated is not None:
+        m = np.asarray(r.margin)[book.rated]
+        failing = int((m < 0).sum())
+    from ._findings import Severity
+
+    errors = sum(f.severity is Severity.ERROR for f in book.findings)
+    warns = sum(f.severity is Severity.WARNING for f in book.findings)
+    rows.append([Styled("Parts", "header"), Styled("Count", "header")])
+    rows.append(["in the book", n])
+    rows.append(["rated", rated])
+    rows.append([Styled("failing (margin below 0)", "fail" if failing else "ok"), failing])
+    rows.append(["not rated (input errors)", n - rated])
+    rows.append(["errors / warnings found", f"{errors} / {warns} (see 'Twistshare warnings')"])
+    rows.append([])
+    rows.append([Styled("What governs", "header"), Styled("Parts", "header")])
+    for text, count in criterion_counts(book):
+        rows.append([text, count])
+    rows.append([])
+    margins_block = None
+    low = lowest_margins(book, 10)
+    if low:
+        rows.append([Styled("Ten lowest margins", "header"), Styled("Margin [%]", "header"),
+                     Styled(f"Governing limit [{tu}]", "header"), Styled(f"Demand [{tu}]", "header"),
+                     Styled("Governs", "header")])
+        start = len(rows)
+        for i in low:
+            gl = int(r.governing_layer[i])
+            mat = parts.materials[i][gl] if gl >= 0 else None
+            mg = _f(r.margin[i] * 100)
+            rows.append([parts.ids[i], Styled(mg, "fail" if mg is not None and mg < 0 else "number"),
+                         _f(r.governing_capacity[i] / tf), _f(parts.torque[i] / tf),
+                         governs_text(r.governing_criterion[i], gl, mat)])
+        margins_block = (start, len(rows) - 1)
+        rows.append([])
+    if book.materials is not None and book.materials.by_name:
+        rows.append([Styled("Material", "header"), Styled("Allowable rule used", "header"),
+                     Styled(f"Allowable shear [{su}]", "header")])
+        for m in book.materials.by_name.values():
+            rows.append([m.name, RULE_NAMES.get(m.rule, str(m.rule)),
+                         _f(m.allowable_shear / sf) if m.problem is None else m.problem])
+        rows.append([])
+    profile_block = None
+    chosen = None
+    if r is not None and book.rated is not None and book.rated.any():
+        ids = parts.ids
+        if profile_part and profile_part in ids and book.rated[ids.index(profile_part)]:
+            chosen = ids.index(profile_part)
+        elif low:
+            chosen = low[0]
+    if chosen is not None:
+        i = chosen
+        radius, stress = stress_profile(
+            parts.outer_diameter[i], parts.inner_diameter[i], parts.shear_modulus[i],
+            float(r.twist_rate[i]), points_per_layer=2, present=parts.present[i])
+        rows.append([Styled(f"Shear stress across the radius of part {parts.ids[i]} at its demand torque "
+                            "(the stress jumps at each interface; the strain does not)", "header")])
+        rows.append([Styled(f"Radius [{lu}]", "header"), Styled(f"Shear stress [{su}]", "header")])
+        start = len(rows)
+        for rad, st in zip(np.asarray(radius), np.asarray(stress)):
+            rows.append([_f(rad / lf), _f(st / sf)])
+        profile_block = (start, len(rows) - 1)
+    return rows, SummaryLayout(margins_block, profile_block, parts.ids[chosen] if chosen is not None else None)

@@ -1,0 +1,98 @@
+"""Find a table in a sheet: its header row, the columns we recognise and its data rows."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from ._grid import SheetGrid
+from ._schema import Column, Field, match_header, match_layer_group_header
+
+__all__ = ["TableSpot", "locate_table"]
+
+_HEADER_SEARCH_ROWS = 30
+
+
+@dataclass(frozen=True)
+class TableSpot:
+    """Where a table sits in a sheet (zero-based rows; ``data_rows`` skip blank rows)."""
+
+    sheet: str
+    header_row: int
+    data_rows: tuple[int, ...]
+    columns: tuple[Column, ...]
+    duplicate_headers: tuple[tuple[int, str], ...]
+    first_col: int = 0
+    last_col: int | None = None
+
+    def column(self, key: str, layer: int = 0) -> Column | None:
+        for c in self.columns:
+            if c.field.key == key and c.layer == layer:
+                return c
+        return None
+
+    @property
+    def layer_numbers(self) -> tuple[int, ...]:
+        return tuple(sorted({c.layer for c in self.columns if c.layer}))
+
+
+def _match_row(
+    row: list[object], fields: tuple[Field, ...], layer_groups: bool, first_col: int, last_col: int | None
+) -> tuple[list[Column], list[tuple[int, str]]]:
+    cols: list[Column] = []
+    seen: set[tuple[str, int]] = set()
+    dups: list[tuple[int, str]] = []
+    stop = len(row) if last_col is None else min(len(row), last_col + 1)
+    for c in range(first_col, stop):
+        h = row[c]
+        if not isinstance(h, str) or not h.strip():
+            continue
+        layer = 0
+        m = match_header(h, fields)
+        if m is None and layer_groups:
+            g = match_layer_group_header(h)
+            if g is not None:
+                layer, field, unit = g
+                m = (field, unit)
+        if m is None:
+            continue
+        field, unit = m
+        key = (field.key, layer)
+        if key in seen:
+            dups.append((c, h))
+            continue
+        seen.add(key)
+        cols.append(Column(field, c, h, unit, layer))
+    return cols, dups
+
+
+def locate_table(
+    grid: SheetGrid,
+    fields: tuple[Field, ...],
+    key_field: str,
+    *,
+    layer_groups: bool = False,
+    header_row: int | None = None,
+    last_row: int | None = None,
+    first_col: int = 0,
+    last_col: int | None = None,
+) -> TableSpot | None:
+    """Find the header row (the first row naming ``key_field`` and one more input) and the data.
+
+    With ``header_row`` given (a workbook table), only that row is tried.
+    """
+    candidates = [header_row] if header_row is not None else range(min(grid.height, _HEADER_SEARCH_ROWS))
+    for r in candidates:
+        if r >= grid.height:
+            continue
+        cols, dups = _match_row(grid.rows[r], fields, layer_groups, first_col, last_col)
+        if len(cols) < 2 or not any(c.field.key == key_field for c in cols):
+            continue
+        end = grid.height if last_row is None else min(grid.height, last_row + 1)
+        idx = [c.index for c in cols]
+        data = tuple(
+            rr
+            for rr in range(r + 1, end)
+            if any(grid.value(rr, c) is not None for c in idx)
+        )
+        return TableSpot(grid.name, r, data, tuple(cols), tuple(dups), first_col, last_col)
+    return None
