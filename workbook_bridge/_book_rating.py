@@ -80,6 +80,24 @@ def _hidden_and_merged(grid, spot: TableSpot, findings: list[Finding], what: str
                     "a merged cell holds one value only, so this cell reads as empty"))
 
 
+def _filled_notes(materials: MaterialSet) -> list[Finding]:
+    from twistshare.engine.units import si_factor
+
+    kinds = {"shear_modulus": ("G", "stress", "GPa"), "youngs_modulus": ("E", "stress", "GPa"),
+             "poisson_ratio": ("Poisson ratio", "dimensionless", ""),
+             "yield_strength": ("yield strength", "stress", "MPa"),
+             "ultimate_strength": ("ultimate strength", "stress", "MPa"),
+             "density": ("density", "density", "kg/m³")}
+    out = []
+    for f in materials.filled:
+        label, kind, unit = kinds.get(f.field, (f.field, "dimensionless", ""))
+        shown = f"{f.value_si / si_factor(unit, kind):.4g} {unit}".strip() if unit else f"{f.value_si:.4g}"
+        out.append(Finding(Severity.NOTE, f.sheet, f.cell,
+                           f"left blank; filled from the built-in library ({f.material}): {label} = {shown}; "
+                           f"source: {f.source}"))
+    return out
+
+
 def _tables(book: OpenBook, result: BookRating):
     mgrid, mspot = _spot(book, "Materials", MATERIAL_FIELDS, "name")
     pgrid, pspot = _spot(book, "Parts", PART_FIELDS, "part", layer_groups=True)
@@ -111,6 +129,7 @@ def rate_open_book(book: OpenBook) -> BookRating:
     if mspot is not None:
         _hidden_and_merged(mgrid, mspot, findings, "materials")
         materials = read_materials(mgrid, mspot, findings)
+        findings.extend(_filled_notes(materials))
     else:
         materials = MaterialSet()
     _hidden_and_merged(pgrid, pspot, findings, "parts")

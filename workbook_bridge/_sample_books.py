@@ -53,9 +53,10 @@ CAUTIONS: tuple[str, ...] = (
 )
 
 _INVENTED_NOTE = (
-    "Marrowby Pump & Drive is an invented works, and every part number, dimension, duty and "
-    "material property in this book is invented demo data: none describes a real part or "
-    "a real material grade."
+    "Marrowby Pump & Drive is an invented works. Every part number, dimension and duty in this "
+    "book, and every property of the works' own 'MPD ...' materials, is invented demo data: "
+    "none describes a real part. Materials named from the built-in library get their "
+    "properties from that library, whose sources the tool names in its comments."
 )
 
 Cell = Union[float, int, str, None]
@@ -473,7 +474,7 @@ def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) 
     if problems:
         lines += [("", None), ("Deliberately bad cells (to show the tool's warnings):", _HEADER_FONT)]
         lines += [(f"{p.sheet}!{p.cell} ({p.part}{'' if p.layer is None else f', layer {p.layer}'}):"
-                   f" holds {p.found}; expected {p.expected}.", None) for p in problems]
+                   f" found {p.found}; expected {p.expected}.", None) for p in problems]
     lines += [("", None), ("Cautions", _HEADER_FONT)]
     lines += [(text, None) for text in CAUTIONS]
     for text, font in lines:

@@ -1,0 +1,262 @@
+"""What each ``twistshare`` command does, from the input path to the exit code."""
+
+from __future__ import annotations
+
+import sys
+from collections import defaultdict
+from pathlib import Path
+
+from ._book_rating import BookRating, rate_open_book
+from ._findings import Finding, Severity
+from ._flag_wording import Display
+from ._grid import cell_ref
+from ._progress import Progress
+from ._reading import BookUnusable, open_book
+from ._result_tables import CAUTIONS, Styled, materials_rows, results_rows, warnings_rows
+from ._summary_sheet import summary_rows
+from .ooxml._cells import Cell
+from .ooxml._charts import BarChart, ScatterChart, SeriesData
+from .ooxml._errors import OoxmlError
+from .ooxml._safety import inspect_package
+from .ooxml._writer import BookWriter
+
+__all__ = ["run_rate", "run_check", "run_share", "run_demo", "run_functions", "prepare", "RESULT_SHEETS"]
+
+RESULT_SHEETS = ("Twistshare results", "Twistshare summary", "Twistshare warnings", "Twistshare materials")
+EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
+# The largest parts table rated in one run; a bigger sheet is almost always a formatting slip
+# (a whole column formatted) or a data dump, and would need gigabytes to hold.
+MAX_TABLE_ROWS = 1_000_000
+
+_STYLE_MAP = {"ok": None, "note": None, "caution_title": "title"}
+
+
+def _cells(rows: list[list]) -> list[list]:
+    """Our Styled values turned into the writer's Cell values."""
+    out = []
+    for row in rows:
+        new = []
+        for v in row:
+            if isinstance(v, Styled):
+                style = _STYLE_MAP.get(v.style, v.style)
+                new.append(Cell(v.value, style) if style else v.value)
+            else:
+                new.append(v)
+        out.append(new)
+    return out
+
+
+def _say(msg: str) -> None:
+    print(msg, file=sys.stderr)
+
+
+def _fail(msg: str) -> int:
+    _say(f"twistshare: {msg}")
+    return EXIT_UNUSABLE
+
+
+def prepare(path: Path) -> tuple[object, object]:
+    """Check the package and open it with the fast reader; raises OoxmlError or BookUnusable."""
+    if not path.exists():
+        raise BookUnusable(f"{path}: no such file")
+    if path.is_dir():
+        raise BookUnusable(f"{path}: is a folder, not a workbook")
+    info = inspect_package(path)
+    for s in info.sheets:
+        if s.name.strip().lower() in ("parts", "layers", "materials") and (s.declared_rows or 0) > MAX_TABLE_ROWS:
+            raise BookUnusable(
+                f"{path.name}: sheet {s.name!r} declares {s.declared_rows:,} rows; twistshare rates up to "
+                f"{MAX_TABLE_ROWS:,} rows per table: clear the unused rows or split the catalogue")
+    book = open_book(path, {s.name: s.part for s in info.sheets if s.part})
+    return info, book
+
+
+def comment_map(result: BookRating, findings: list[Finding]) -> dict[str, dict[str, str]]:
+    """Findings grouped into one comment text per input cell."""
+    part_cell: dict[str, tuple[str, str]] = {}
+    parts, spot = result.parts, result.parts_spot
+    if parts is not None and spot is not None:
+        pc = spot.column("part")
+        for pid, r in zip(parts.ids, parts.rows):
+            part_cell.setdefault(pid, (parts.sheet, cell_ref(r, pc.index)))
+    by: dict[str, dict[str, list[str]]] = defaultdict(lambda: defaultdict(list))
+    for f in findings:
+        sheet, cell = f.sheet, f.cell
+        if cell is None and f.part in part_cell:
+            sheet, cell = part_cell[f.part]
+        if sheet is None or cell is None:
+            continue
+        by[sheet][cell].append(f"twistshare {f.severity.value}: {f.message}")
+    return {s: {c: "\n".join(dict.fromkeys(msgs)) for c, msgs in cells.items()} for s, cells in by.items()}
+
+
+def _first_errors(findings: list[Finding]) -> dict[str, str]:
+    out: dict[str, str] = {}
+    for f in findings:
+        if f.severity is Severity.ERROR and f.part and f.part not in out:
+            out[f.part] = f.message
+    return out
+
+
+def _caution_rows() -> list[list]:
+    return [[Cell("Caution", "title")]] + [[Cell(c, "caution")] for c in CAUTIONS] + [[]]
+
+
+def _write_comments(writer: BookWriter, result: BookRating, findings: list[Finding]) -> int:
+    n = 0
+    for sheet, cells in comment_map(result, findings).items():
+        writer.add_comments(sheet, cells)
+        n += len(cells)
+    return n
+
+
+def _report(result: BookRating, out: Path | None, quiet: bool, verb: str) -> None:
+    errors = [f for f in result.findings if f.severity is Severity.ERROR]
+    warns = [f for f in result.findings if f.severity is Severity.WARNING]
+    if not quiet:
+        for f in result.findings:
+            if f.severity is not Severity.NOTE:
+                _say("  " + f.line())
+    n = result.parts.count if result.parts else 0
+    rated = int(result.rated.sum()) if result.rated is not None else 0
+    failing = 0
+    if result.rating is not None and result.rated is not None:
+        failing = int((result.rating.margin[result.rated] < 0).sum())
+    where = f"; wrote {out}" if out else ""
+    if verb == "rate":
+        print(f"twistshare: rated {rated} of {n} parts, {failing} failing, {len(errors)} errors, "
+              f"{len(warns)} warnings{where}")
+    else:
+        print(f"twistshare: checked {n} parts: {len(errors)} errors, {len(warns)} warnings{where}")
+
+
+def _exit_code(result: BookRating) -> int:
+    return EXIT_PART_ERRORS if any(f.severity is Severity.ERROR for f in result.findings) else EXIT_OK
+
+
+def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str = "book", quiet: bool = False,
+             profile_part: str | None = None) -> int:
+    progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
+    try:
+        progress.step("check package")
+        _info, book = prepare(book_path)
+        progress.step("read tables")
+        result = rate_open_book(book)
+    except (OoxmlError, BookUnusable) as exc:
+        progress.finish()
+        return _fail(str(exc))
+    progress.step("write")
+    display = Display(result.system if units == "book" else units)
+    try:
+        with BookWriter(book_path) as writer:
+            _add_rating_sheets(writer, result, display, profile_part)
+            _write_comments(writer, result, result.findings)
+            writer.write(out, in_place=in_place)
+    except OoxmlError as exc:
+        progress.finish()
+        return _fail(str(exc))
+    progress.finish()
+    _report(result, out, quiet, "rate")
+    return _exit_code(result)
+
+
+def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, profile_part: str | None) -> None:
+    parts = result.parts
+    if parts is not None and parts.count:
+        rows, widths, _ = results_rows(result, display, _first_errors(result.findings))
+        res = writer.add_sheet("Twistshare results", _cells(rows), column_widths=widths, tab_color="FF1F3A4D")
+    else:
+        res = None
+    srows, layout = summary_rows(result, display, profile_part)
+    summ = writer.add_sheet("Twistshare summary", _cells(srows), column_widths=[34, 16, 18, 16, 30],
+                            freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
+    wrows = _caution_rows() + _cells(warnings_rows(result.findings))
+    writer.add_sheet("Twistshare warnings", wrows, column_widths=[9, 14, 14, 6, 9, 110], freeze_header=False)
+    if result.materials is not None and result.materials.by_name:
+        writer.add_sheet("Twistshare materials", _cells(materials_rows(result.materials, display)),
+                         column_widths=[30, 9, 10, 14, 38, 14, 14, 10, 8, 60])
+    _add_charts(writer, summ, srows, layout, display)
+    del res
+
+
+def _col_values(rows: list[list], first: int, last: int, col: int) -> list:
+    out = []
+    for r in range(first, last + 1):
+        v = rows[r][col] if col < len(rows[r]) else None
+        out.append(v.value if isinstance(v, Styled) else v)
+    return out
+
+
+def _add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Display) -> None:
+    tu, _ = display.unit("torque")
+    su, _ = display.unit("stress")
+    lu, _ = display.unit("length")
+    if layout.margins is not None:
+        a, b = layout.margins
+        names = [str(x) for x in _col_values(srows, a, b, 0)]
+        cap = [float("nan") if v is None else v for v in _col_values(srows, a, b, 2)]
+        dem = [float("nan") if v is None else v for v in _col_values(srows, a, b, 3)]
+        chart = BarChart(
+            title="Governing limit against demand: the ten lowest margins",
+            x_title="Part", y_title=f"Torque [{tu}]", horizontal=True,
+            series=(SeriesData("Governing limit", summ.range_ref(1, a + 1, b + 1), summ.range_ref(3, a + 1, b + 1),
+                               names, cap),
+                    SeriesData("Demand", summ.range_ref(1, a + 1, b + 1), summ.range_ref(4, a + 1, b + 1), names, dem)),
+        )
+        writer.add_chart(summ, (6, 1), (15, 22), chart)
+    if layout.profile is not None:
+        a, b = layout.profile
+        xs = [float("nan") if v is None else v for v in _col_values(srows, a, b, 0)]
+        ys = [float("nan") if v is None else v for v in _col_values(srows, a, b, 1)]
+        chart = ScatterChart(
+            title=f"Shear stress across the radius, part {layout.profile_part}",
+            x_title=f"Radius [{lu}]", y_title=f"Shear stress [{su}]",
+            series=(SeriesData("Shear stress", summ.range_ref(1, a + 1, b + 1), summ.range_ref(2, a + 1, b + 1),
+                               xs, ys),),
+        )
+        writer.add_chart(summ, (6, 23), (15, 44), chart)
+
+
+def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
+    try:
+        _info, book = prepare(book_path)
+        result = rate_open_book(book)
+    except (OoxmlError, BookUnusable) as exc:
+        return _fail(str(exc))
+    try:
+        with BookWriter(book_path) as writer:
+            wrows = _caution_rows() + _cells(warnings_rows(result.findings))
+            writer.add_sheet("Twistshare warnings", wrows, column_widths=[9, 14, 14, 6, 9, 110], freeze_header=False)
+            _write_comments(writer, result, result.findings)
+            writer.write(out, in_place=in_place)
+    except OoxmlError as exc:
+        return _fail(str(exc))
+    _report(result, out, quiet, "check")
+    return _exit_code(result)
+
+
+def run_share(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
+    from ._share import share_book
+
+    return share_book(book_path, out, in_place=in_place, quiet=quiet)
+
+
+def run_demo(directory: Path) -> int:
+    from ._sample_books import write_all
+
+    directory.mkdir(parents=True, exist_ok=True)
+    for p in write_all(directory):
+        print(p)
+    return EXIT_OK
+
+
+def run_functions() -> int:
+    from twistshare.engine.cells import list_functions
+
+    for fn in list_functions():
+        print(f"{fn['name']}({', '.join(a['name'] for a in fn['arguments'])})")
+        print(f"    {fn['description']}")
+        for a in fn["arguments"]:
+            unit = f" [{a['unit']}]" if a.get("unit") else ""
+            print(f"      {a['name']}{unit}: {a['description']}")
+    return EXIT_OK

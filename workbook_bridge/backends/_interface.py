@@ -1,0 +1,41 @@
+"""The interface both backends offer, and the one validation routine that uses it."""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from pathlib import Path
+from typing import Protocol
+
+from .._book_rating import BookRating, rate_open_book
+from .._findings import Finding
+from .._grid import SheetGrid
+
+__all__ = ["BookSource", "CommentSink", "validate_and_comment"]
+
+
+class BookSource(Protocol):
+    """What the validation reads: sheet names, workbook tables and a sheet's values from A1."""
+
+    path: Path
+    sheet_names: list[str]
+    tables: Mapping[str, object]  # lower-case table name -> region with sheet/header_row/... bounds
+
+    def grid(self, name: str) -> SheetGrid: ...
+
+    def find_sheet(self, wanted: str) -> str | None: ...
+
+
+class CommentSink(Protocol):
+    """Where the warnings go: one comment text per cell."""
+
+    def add_comments(self, sheet: str, comments: Mapping[str, str]) -> None: ...
+
+
+def validate_and_comment(source: BookSource, sink: CommentSink) -> tuple[BookRating, list[Finding]]:
+    """Validate (and rate) the book's tables and write every finding as a comment on its cell."""
+    from .._commands import comment_map
+
+    result = rate_open_book(source)  # type: ignore[arg-type]
+    for sheet, cells in comment_map(result, result.findings).items():
+        sink.add_comments(sheet, cells)
+    return result, result.findings
