@@ -35,6 +35,9 @@ def _parser() -> argparse.ArgumentParser:
         c.add_argument("--in-place", action="store_true",
                        help="write into the input file itself, after keeping a timestamped backup copy")
         c.add_argument("-q", "--quiet", action="store_true", help="print only the one-line result")
+        c.add_argument("--lenient", action="store_true",
+                       help="exit 0 when the output was written even if some parts had errors "
+                       "(they are still flagged in the output); 2 still means nothing was written")
         return c
 
     r = book_command("rate", "rate every part: results, summary and warnings sheets, comments on input cells",
@@ -77,11 +80,13 @@ def _run(args: argparse.Namespace) -> int:
     suffix = {"rate": "-rated", "check": "-checked", "share": "-shared"}[args.command]
     out = args.book if args.in_place else (args.output or _default_output(args.book, suffix))
     if args.command == "rate":
-        return run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
+        code = run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
                         profile_part=args.profile_part)
-    if args.command == "check":
-        return run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
-    return run_share(args.book, out, in_place=args.in_place, quiet=args.quiet)
+    elif args.command == "check":
+        code = run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
+    else:
+        code = run_share(args.book, out, in_place=args.in_place, quiet=args.quiet)
+    return EXIT_OK if (args.lenient and code == EXIT_PART_ERRORS) else code
 
 
 if __name__ == "__main__":  # pragma: no cover
