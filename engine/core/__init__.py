@@ -1,1 +1,112 @@
-"""placeholder"""
+"""twistshare engine core: pure-numpy torsion of compound shafts, SI floats in and out.
+
+Functions are ufunc-like: parts on the leading axis, layer slots on the last (innermost
+first), one part is the same call with one row. No units, files or spreadsheets here.
+
+Examples
+--------
+>>> from twistshare.engine.core import Duty, LayerStack, rate
+>>> stack = LayerStack.from_layers(
+...     outer_diameter=[0.040, 0.050], inner_diameter=[0.0, 0.040],
+...     shear_modulus=[79.3e9, 40.0e9], allowable_shear=[100e6, 60e6])
+>>> rating = rate(stack, Duty.from_arrays(torque=1000.0, length=1.0))
+>>> round(float(rating.share[0, 0]), 3)
+0.579
+"""
+
+from ._allowables import (
+    DISTORTION_ENERGY_FACTOR,
+    MAX_SHEAR_FACTOR,
+    SHAFTING_CODE_KEYWAY_FACTOR,
+    SHAFTING_CODE_ULTIMATE_FACTOR,
+    SHAFTING_CODE_YIELD_FACTOR,
+    allowable_flags,
+    allowable_shear,
+)
+from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
+from ._compatibility import (
+    layer_stiffness,
+    shear_stress_at,
+    stress_profile,
+    torque_share,
+    twist_rate,
+)
+from ._criteria import AllowableRule, Criterion
+from ._demand import torque_from_power
+from ._diagnoses import (
+    ALLOWABLE_ERRORS,
+    LAYER_ERRORS,
+    PART_ERRORS,
+    AllowableFlag,
+    LayerFlag,
+    PartFlag,
+    describe,
+    has_error,
+    is_error,
+    split_flags,
+)
+from ._governing import factor_of_safety, governing_limit, margin
+from ._materials import Material, find_material, material_library, normalise_name
+from ._rating import Duty, Rating, rate
+from ._section import (
+    DEFAULT_CONTACT_ABS_TOL,
+    DEFAULT_CONTACT_REL_TOL,
+    LayerStack,
+    interface_gaps,
+    polar_moment,
+    shear_modulus_from_elastic,
+)
+
+__all__ = [
+    # enumerations and diagnoses
+    "Criterion",
+    "AllowableRule",
+    "LayerFlag",
+    "PartFlag",
+    "AllowableFlag",
+    "LAYER_ERRORS",
+    "PART_ERRORS",
+    "ALLOWABLE_ERRORS",
+    "is_error",
+    "has_error",
+    "describe",
+    "split_flags",
+    # section
+    "polar_moment",
+    "shear_modulus_from_elastic",
+    "LayerStack",
+    "interface_gaps",
+    "DEFAULT_CONTACT_ABS_TOL",
+    "DEFAULT_CONTACT_REL_TOL",
+    # twist compatibility
+    "layer_stiffness",
+    "twist_rate",
+    "torque_share",
+    "shear_stress_at",
+    "stress_profile",
+    # capacities and the governing limit
+    "layer_capacity",
+    "twist_angle_capacity",
+    "twist_per_length_capacity",
+    "governing_limit",
+    "margin",
+    "factor_of_safety",
+    # allowables and demand
+    "allowable_shear",
+    "allowable_flags",
+    "MAX_SHEAR_FACTOR",
+    "DISTORTION_ENERGY_FACTOR",
+    "SHAFTING_CODE_YIELD_FACTOR",
+    "SHAFTING_CODE_ULTIMATE_FACTOR",
+    "SHAFTING_CODE_KEYWAY_FACTOR",
+    "torque_from_power",
+    # materials
+    "Material",
+    "material_library",
+    "find_material",
+    "normalise_name",
+    # rating
+    "Duty",
+    "Rating",
+    "rate",
+]

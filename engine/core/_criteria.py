@@ -1,0 +1,40 @@
+"""Enumerations that travel with results: what governs a rating, and how an allowable was set."""
+
+from __future__ import annotations
+
+from enum import IntEnum
+
+__all__ = ["Criterion", "AllowableRule"]
+
+
+class Criterion(IntEnum):
+    """The limit that governs a part's rating.
+
+    Stored in results as ``int8``. Later criteria (interface slip, bond shear, ...) append
+    new values; existing values never change meaning.
+    """
+
+    NONE = 0
+    """The part could not be rated (see its diagnosis flags)."""
+    LAYER_STRESS = 1
+    """A layer reaches its allowable shear stress; the governing layer says which."""
+    TWIST_ANGLE = 2
+    """The total twist over the length reaches its limit."""
+    TWIST_PER_LENGTH = 3
+    """The twist per unit length reaches its limit."""
+
+
+class AllowableRule(IntEnum):
+    """How a layer's allowable shear stress is obtained from its material."""
+
+    GIVEN = 0
+    """The allowable shear stress is given directly."""
+    MAX_SHEAR = 1
+    """Maximum-shear-stress (Tresca) theory: ``0.5 * Sy / FS``."""
+    DISTORTION_ENERGY = 2
+    """Distortion-energy (von Mises) theory: ``Sy / (sqrt(3) * FS)``."""
+    SHAFTING_CODE = 3
+    """Transmission-shafting code rule: ``min(0.30 Sy, 0.18 Su)``, x0.75 with a keyway.
+
+    The rule embeds its own safety allowance, so no factor of safety is applied on top.
+    """
