@@ -1,1 +1,21 @@
-"""placeholder"""
+"""Package layer of the workbook bridge: read-safety checks and a writer that adds parts.
+
+The writer never re-saves the user's book: the output is the input zip package with our sheets,
+comments, charts and styles added, the few parts that must list them changed minimally, and every
+other member copied with identical bytes.
+"""
+
+from ._cells import Cell
+from ._charts import BarChart, ScatterChart, SeriesData, range_ref
+from ._errors import OoxmlError, PackageRefused, WriteRefused
+from ._package import Limits
+from ._safety import HUGE_ROWS, DefinedName, ExternalLink, PackageInfo, SheetInfo, TableInfo, inspect_package
+from ._styles import STYLE_NAMES
+from ._writer import BookWriter, SheetHandle, WriteReport
+
+__all__ = [
+    "BarChart", "BookWriter", "Cell", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
+    "OoxmlError", "PackageInfo", "PackageRefused", "STYLE_NAMES", "ScatterChart", "SeriesData",
+    "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
+    "range_ref",
+]

@@ -1,0 +1,180 @@
+"""Worksheet XML: the frame around our streamed rows, and minimal edits of the user's sheets."""
+
+from __future__ import annotations
+
+import html
+import re
+from typing import Any, Mapping, Sequence
+
+from ._cells import cell_xml
+from ._errors import WriteRefused
+from ._opc import tag_attributes
+from ._xmltext import NS_MAIN, NS_REL, XML_DECL, column_letters, iter_top_level, root_prefix, split_ref
+
+__all__ = ["sheet_head", "sheet_tail", "insert_link_element", "replace_cells", "relationship_prefix"]
+
+# CT_Worksheet children that come after <legacyDrawing> / after <drawing> (ECMA-376 Part 1, 18.3.1.99).
+_AFTER_LEGACY = ("legacyDrawingHF", "drawingHF", "picture", "oleObjects", "controls",
+                 "webPublishItems", "tableParts", "extLst")
+_AFTER_DRAWING = ("legacyDrawing",) + _AFTER_LEGACY
+
+
+def sheet_head(*, tab_color: str | None, fit_one_page: bool, freeze_header: bool,
+               column_widths: Sequence[float | None] | None, dimension: str | None) -> str:
+    """Everything of a new worksheet before its rows (ends with '<sheetData>')."""
+    parts = [XML_DECL, f'<worksheet xmlns="{NS_MAIN}" xmlns:r="{NS_REL}">']
+    if tab_color or fit_one_page:
+        parts.append("<sheetPr>")
+        if tab_color:
+            parts.append(f'<tabColor rgb="{tab_color}"/>')
+        if fit_one_page:
+            parts.append('<pageSetUpPr fitToPage="1"/>')
+        parts.append("</sheetPr>")
+    if dimension:
+        parts.append(f'<dimension ref="{dimension}"/>')
+    if freeze_header:
+        parts.append('<sheetViews><sheetView workbookViewId="0">'
+                     '<pane ySplit="1" topLeftCell="A2" activePane="bottomLeft" state="frozen"/>'
+                     '<selection pane="bottomLeft" activeCell="A2" sqref="A2"/></sheetView></sheetViews>')
+    else:
+        parts.append('<sheetViews><sheetView workbookViewId="0"/></sheetViews>')
+    parts.append('<sheetFormatPr defaultRowHeight="15"/>')
+    if column_widths:
+        cols = [f'<col min="{i}" max="{i}" width="{float(w):.2f}" customWidth="1"/>'
+                for i, w in enumerate(column_widths, start=1) if w]
+        if cols:
+            parts.append("<cols>" + "".join(cols) + "</cols>")
+    parts.append("<sheetData>")
+    return "".join(parts)
+
+
+def sheet_tail(*, fit_one_page: bool, drawing_rel: str | None, legacy_rel: str | None) -> str:
+    """Everything of a new worksheet after its rows (starts with '</sheetData>')."""
+    parts = ["</sheetData>",
+             '<pageMargins left="0.5" right="0.5" top="0.6" bottom="0.6" header="0.3" footer="0.3"/>']
+    if fit_one_page:
+        parts.append('<pageSetup orientation="portrait" fitToWidth="1" fitToHeight="1"/>')
+    if drawing_rel:
+        parts.append(f'<drawing r:id="{drawing_rel}"/>')
+    if legacy_rel:
+        parts.append(f'<legacyDrawing r:id="{legacy_rel}"/>')
+    parts.append("</worksheet>")
+    return "".join(parts)
+
+
+def relationship_prefix(text: str) -> str | None:
+    """Prefix bound to the relationships namespace on the root element, if any."""
+    match = re.search(r"<[^?!][^>]*>", text)
+    if match is None:
+        return None
+    for name, value in tag_attributes(match.group(0)).items():
+        if name.startswith("xmlns:") and value == NS_REL:
+            return name[6:]
+    return None
+
+
+def insert_link_element(text: str, local: str, rel_id: str) -> str:
+    """Insert <drawing>/<legacyDrawing r:id=..> into a user's worksheet at its schema position."""
+    p, root = root_prefix(text)
+    if root != "worksheet":
+        raise WriteRefused(f"part is a <{root}>, not a worksheet; cannot link comments to it")
+    rp = relationship_prefix(text)
+    if rp is None:
+        attr = f'xmlns:tsr="{NS_REL}" tsr:id="{rel_id}"'  # declared on the element: root left alone
+    else:
+        attr = f'{rp}:id="{rel_id}"'
+    element = f"<{p}{local} {attr}/>"
+    after = _AFTER_LEGACY if local == "legacyDrawing" else _AFTER_DRAWING
+    end_data = text.rfind(f"</{p}sheetData>")
+    if end_data < 0:
+        match = re.search(r"<" + re.escape(p) + r"sheetData\s*/>", text)
+        if match is None:
+            raise WriteRefused("worksheet has no <sheetData>")
+        start = match.end()
+    else:
+        start = end_data + len(f"</{p}sheetData>")
+    close = text.rfind(f"</{p}worksheet>")
+    for name, at, _ in iter_top_level(text, start, close):
+        if name[len(p):] in after:
+            return text[:at] + element + text[at:]
+    return text[:close] + element + text[close:]
+
+
+_CELL = re.compile(r"<(?P<p>(?:[\w.-]+:)?)c\s(?P<attrs>[^>]*?\br=\"(?P<r>[^\"]*)\"[^>]*?)(?P<empty>/?)>")
+_SHARED_F = re.compile(r"<(?:[\w.-]+:)?f\b([^>]*?)/?>")
+
+
+def replace_cells(text: str, values: Mapping[str, Any]) -> tuple[str, dict[str, str], int]:
+    """Replace the given cells of a user's worksheet by plain values, formulas dropped.
+
+    Only those <c> elements are rewritten (their style kept); every other byte stays.
+
+    Returns
+    -------
+    (str, dict, int)
+        The new text; per replaced cell the formula text it held ('' if none, and for the
+        follower cells of a shared formula, whose text lives in the anchor cell); the number of
+        replaced cells that held a formula.
+
+    Raises
+    ------
+    WriteRefused
+        A cell is not in the sheet, or it anchors a shared formula that other cells not
+        being replaced still use (replacing it would break their formulas).
+    """
+    wanted = {}
+    for ref, value in values.items():
+        col, row = split_ref(ref)
+        wanted[f"{column_letters(col)}{row}"] = value
+    out: list[str] = []
+    formulas: dict[str, str] = {}
+    masters: dict[str, str] = {}
+    had_formula = 0
+    last = 0
+    for match in _CELL.finditer(text):
+        ref = match.group("r").replace("$", "").upper()
+        if ref not in wanted:
+            continue
+        p = match.group("p")
+        attrs = tag_attributes(match.group("attrs"))
+        if match.group("empty"):
+            end, inner = match.end(), ""
+        else:
+            close = text.find(f"</{p}c>", match.end())
+            if close < 0:
+                raise WriteRefused(f"cell {ref} is not closed in the sheet XML")
+            end = close + len(f"</{p}c>")
+            inner = text[match.end():close]
+        formula = re.search(r"<(?:[\w.-]+:)?f\b([^>]*?)(?:/>|>(.*?)</(?:[\w.-]+:)?f>)", inner, re.S)
+        formulas[ref] = html.unescape(formula.group(2) or "") if formula else ""
+        if formula:
+            had_formula += 1
+            f_attrs = tag_attributes(formula.group(1))
+            if f_attrs.get("t") == "shared" and "ref" in f_attrs and "si" in f_attrs:
+                masters[f_attrs["si"]] = ref
+        keep = f' r="{attrs["r"]}"'
+        style = f' s="{attrs["s"]}"' if "s" in attrs else ""
+        xml = cell_xml(f"<{p}c{keep}", style, wanted.pop(ref), lambda: ref)
+        if p:
+            xml = xml.replace("<is><t", f"<{p}is><{p}t").replace("</t></is></c>", f"</{p}t></{p}is></{p}c>")
+            xml = xml.replace("><v>", f"><{p}v>").replace("</v></c>", f"</{p}v></{p}c>")
+        out.append(text[last:match.start()])
+        out.append(xml or f"<{p}c{keep}{style}/>")
+        last = end
+        if not wanted:
+            break
+    if wanted:
+        missing = ", ".join(sorted(wanted)[:5])
+        raise WriteRefused(f"cell(s) {missing} not found in the sheet (nothing to replace there)")
+    out.append(text[last:])
+    new_text = "".join(out)
+    if masters:
+        for f_match in _SHARED_F.finditer(new_text):
+            f_attrs = tag_attributes(f_match.group(1))
+            si = f_attrs.get("si")
+            if f_attrs.get("t") == "shared" and si in masters:
+                owner = re.search(r'\br="([^"]*)"', new_text[new_text.rfind("<c", 0, f_match.start()):f_match.start()])
+                raise WriteRefused(f"cell {masters[si]} holds the shared formula also used by cell "
+                                   f"{owner.group(1) if owner else '?'}, which is not being replaced; "
+                                   "replace every cell of that formula together")
+    return new_text, formulas, had_formula
