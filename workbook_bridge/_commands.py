@@ -14,11 +14,7 @@ from ._progress import Progress
 from ._reading import BookUnusable, open_book
 from ._result_tables import CAUTIONS, Styled, materials_rows, results_rows, warnings_rows
 from ._summary_sheet import summary_rows
-from .ooxml._cells import Cell
-from .ooxml._charts import BarChart, ScatterChart, SeriesData
-from .ooxml._errors import OoxmlError
-from .ooxml._safety import inspect_package
-from .ooxml._writer import BookWriter
+from .ooxml import BarChart, BookWriter, Cell, OoxmlError, ScatterChart, SeriesData, inspect_package
 
 __all__ = ["run_rate", "run_check", "run_share", "run_demo", "run_functions", "prepare", "RESULT_SHEETS"]
 
@@ -99,7 +95,7 @@ def _first_errors(findings: list[Finding]) -> dict[str, str]:
 
 
 def _caution_rows() -> list[list]:
-    return [[Cell("Caution", "title")]] + [[Cell(c, "caution")] for c in CAUTIONS] + [[]]
+    return [[Cell("Caution", "title")]] + [[Cell(c, "caution_line")] for c in CAUTIONS] + [[]]
 
 
 def _write_comments(writer: BookWriter, result: BookRating, findings: list[Finding]) -> int:
@@ -163,12 +159,13 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
 def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, profile_part: str | None) -> None:
     parts = result.parts
     if parts is not None and parts.count:
-        rows, widths, _ = results_rows(result, display, _first_errors(result.findings))
-        res = writer.add_sheet("Twistshare results", _cells(rows), column_widths=widths, tab_color="FF1F3A4D")
+        rows, widths, col_styles = results_rows(result, display, _first_errors(result.findings))
+        res = writer.add_sheet("Twistshare results", _cells(rows), column_widths=widths, column_styles=col_styles,
+                               tab_color="FF1F3A4D")
     else:
         res = None
     srows, layout = summary_rows(result, display, profile_part)
-    summ = writer.add_sheet("Twistshare summary", _cells(srows), column_widths=[34, 16, 18, 16, 30],
+    summ = writer.add_sheet("Twistshare summary", _cells(srows), column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
     wrows = _caution_rows() + _cells(warnings_rows(result.findings))
     writer.add_sheet("Twistshare warnings", wrows, column_widths=[9, 14, 14, 6, 9, 110], freeze_header=False)

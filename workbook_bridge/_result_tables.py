@@ -56,8 +56,8 @@ def governs_text(criterion: int, layer: int, material: str | None) -> str:
     return _CRIT_TEXT.get(c, c.name.lower().replace("_", " "))
 
 
-def results_rows(book, display: Display, first_error: dict[str, str]) -> tuple[list[list], list[float], int]:
-    """Header and one row per part; returns (rows, column widths, number of layer slots)."""
+def results_rows(book, display: Display, first_error: dict[str, str]) -> tuple[list[list], list[float], list]:
+    """Header and one row per part; returns (rows, column widths, column number styles)."""
     parts, r = book.parts, book.rating
     L = parts.outer_diameter.shape[1]
     tu, tf = display.unit("torque")
@@ -113,13 +113,13 @@ def results_rows(book, display: Display, first_error: dict[str, str]) -> tuple[l
             gl = int(glayer[i])
             mat = parts.materials[i][gl] if 0 <= gl < L else None
             row = [pid, status, int(layer_count[i]), _num(demand[i]), parts.duty_source[i], _num(cap[i]),
-                   governs_text(crit[i], gl, mat), Styled(_num(m), "fail" if fails else "number"),
+                   governs_text(crit[i], gl, mat), Styled(_num(m), "fail+fixed1" if fails else "fixed1"),
                    _num(fos[i]), _num(sgj[i]), _num(trate[i]), _num(tang[i]), _num(tcap[i])]
             for j in range(L):
                 if parts.present[i, j]:
                     row += [parts.materials[i][j], _num(od[i, j]), _num(idd[i, j]), _num(share[i, j]),
                             _num(ltq[i, j]), _num(so[i, j]), _num(si[i, j]), _num(lcap[i, j]),
-                            Styled(_num(util[i, j]), "fail") if util[i, j] > 100 else _num(util[i, j])]
+                            Styled(_num(util[i, j]), "fail+fixed1") if util[i, j] > 100 else _num(util[i, j])]
                 else:
                     row += [None] * 9
             row.append(first_error.get(pid))
@@ -129,7 +129,9 @@ def results_rows(book, display: Display, first_error: dict[str, str]) -> tuple[l
             row.append(first_error.get(pid, "see the warnings sheet"))
         rows.append(row)
     widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [60]
-    return rows, widths, L
+    styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
+              "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L
+    return rows, widths, styles
 
 
 def warnings_rows(findings: list[Finding]) -> list[list]:

@@ -13,9 +13,7 @@ from pathlib import Path
 from ._formulas import NotEvaluable, evaluate_formula, find_our_formulas
 from ._reading import BookUnusable
 from ._result_tables import CAUTIONS
-from .ooxml._cells import Cell
-from .ooxml._errors import OoxmlError
-from .ooxml._writer import BookWriter
+from .ooxml import BookWriter, Cell, OoxmlError
 
 __all__ = ["share_book", "cell_functions"]
 
@@ -93,7 +91,7 @@ def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: boo
                 writer.replace_formulas(sheet.name, values)
                 writer.add_comments(sheet.name, notes)
             rows = [[Cell("twistshare shared copy", "title")], [],
-                    [Cell("Caution", "title")]] + [[Cell(c, "caution")] for c in CAUTIONS] + [[],
+                    [Cell("Caution", "title")]] + [[Cell(c, "caution_line")] for c in CAUTIONS] + [[],
                     ["Formulas calling twistshare's cell functions were replaced by their values; each "
                      "cell's comment keeps its formula."], [],
                     [Cell(h, "header") for h in ("Sheet", "Cell", "Formula (as text)", "Value", "Value from")]]

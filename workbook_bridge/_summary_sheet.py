@@ -43,7 +43,7 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
     rows.append([])
     rows.append([Styled("Caution", "caution_title")])
     for c in CAUTIONS:
-        rows.append([Styled(c, "caution")])
+        rows.append([Styled(c, "caution_line")])
     rows.append([])
     n = parts.count if parts else 0
     rated = int(book.rated.sum()) if book.rated is not None else 0
@@ -77,8 +77,8 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             gl = int(r.governing_layer[i])
             mat = parts.materials[i][gl] if gl >= 0 else None
             mg = _f(r.margin[i] * 100)
-            rows.append([parts.ids[i], Styled(mg, "fail" if mg is not None and mg < 0 else "number"),
-                         _f(r.governing_capacity[i] / tf), _f(parts.torque[i] / tf),
+            rows.append([parts.ids[i], Styled(mg, "fail+fixed1" if mg is not None and mg < 0 else "fixed1"),
+                         Styled(_f(r.governing_capacity[i] / tf), "fixed1"), Styled(_f(parts.torque[i] / tf), "fixed1"),
                          governs_text(r.governing_criterion[i], gl, mat)])
         margins_block = (start, len(rows) - 1)
         rows.append([])
@@ -87,7 +87,7 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
                      Styled(f"Allowable shear [{su}]", "header")])
         for m in book.materials.by_name.values():
             rows.append([m.name, RULE_NAMES.get(m.rule, str(m.rule)),
-                         _f(m.allowable_shear / sf) if m.problem is None else m.problem])
+                         Styled(_f(m.allowable_shear / sf), "fixed1") if m.problem is None else m.problem])
         rows.append([])
     profile_block = None
     chosen = None
@@ -103,10 +103,10 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             parts.outer_diameter[i], parts.inner_diameter[i], parts.shear_modulus[i],
             float(r.twist_rate[i]), points_per_layer=2, present=parts.present[i])
         rows.append([Styled(f"Shear stress across the radius of part {parts.ids[i]} at its demand torque "
-                            "(the stress jumps at each interface; the strain does not)", "header")])
+                            "(the stress jumps at each interface; the strain does not)", "title")])
         rows.append([Styled(f"Radius [{lu}]", "header"), Styled(f"Shear stress [{su}]", "header")])
         start = len(rows)
         for rad, st in zip(np.asarray(radius), np.asarray(stress)):
-            rows.append([_f(rad / lf), _f(st / sf)])
+            rows.append([Styled(_f(rad / lf), "fixed3"), Styled(_f(st / sf), "fixed1")])
         profile_block = (start, len(rows) - 1)
     return rows, SummaryLayout(margins_block, profile_block, parts.ids[chosen] if chosen is not None else None)
