@@ -125,7 +125,7 @@ _SHIGLEY_A21 = (
     "Shigley's Mechanical Engineering Design, table of mean properties of heat-treated "
     "steels, from memory"
 )
-_MATWEB = "ASM Handbook / MatWeb-type datasheet typical value, from memory"
+_ASM_TYPICAL = "ASM Handbook typical value, from memory"
 _ASTM_A276 = "ASTM A276 / A240 specified minimum for the annealed condition, from memory"
 _CDA = "Copper Development Association datasheet typical value, from memory"
 _CLT = (
@@ -174,8 +174,8 @@ def _library_entries() -> tuple[Material, ...]:
             density=7850,
             yield_strength=655 * _MPA, ultimate_strength=758 * _MPA,
             sources=_sources(
-                youngs_modulus=_MATWEB, shear_modulus=_MATWEB, poisson_ratio=_MATWEB,
-                density=_MATWEB,
+                youngs_modulus=_ASM_TYPICAL, shear_modulus=_ASM_TYPICAL, poisson_ratio=_ASM_TYPICAL,
+                density=_ASM_TYPICAL,
                 yield_strength=_SHIGLEY_A21 + " (tempered at 650 C)",
                 ultimate_strength=_SHIGLEY_A21 + " (tempered at 650 C)",
             ),
@@ -190,7 +190,7 @@ def _library_entries() -> tuple[Material, ...]:
                 youngs_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 shear_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 poisson_ratio=_SHIGLEY_A5 + " (stainless steel 18-8)",
-                density=_MATWEB,
+                density=_ASM_TYPICAL,
                 yield_strength=_ASTM_A276, ultimate_strength=_ASTM_A276,
             ),
         ),
@@ -203,7 +203,7 @@ def _library_entries() -> tuple[Material, ...]:
                 youngs_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 shear_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 poisson_ratio=_SHIGLEY_A5 + " (stainless steel 18-8)",
-                density=_MATWEB,
+                density=_ASM_TYPICAL,
                 yield_strength=_ASTM_A276, ultimate_strength=_ASTM_A276,
             ),
         ),
@@ -243,28 +243,28 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=68.9 * _GPA, shear_modulus=26 * _GPA, poisson_ratio=0.33,
             density=2700,
             yield_strength=276 * _MPA, ultimate_strength=310 * _MPA,
-            sources={name: _MATWEB for name in _FIELDS},
+            sources={name: _ASM_TYPICAL for name in _FIELDS},
         ),
         Material(
             "Aluminium 2024-T3",
             youngs_modulus=73.1 * _GPA, shear_modulus=28 * _GPA, poisson_ratio=0.33,
             density=2780,
             yield_strength=345 * _MPA, ultimate_strength=483 * _MPA,
-            sources={name: _MATWEB for name in _FIELDS},
+            sources={name: _ASM_TYPICAL for name in _FIELDS},
         ),
         Material(
             "Aluminium 7075-T6",
             youngs_modulus=71.7 * _GPA, shear_modulus=26.9 * _GPA, poisson_ratio=0.33,
             density=2810,
             yield_strength=503 * _MPA, ultimate_strength=572 * _MPA,
-            sources={name: _MATWEB for name in _FIELDS},
+            sources={name: _ASM_TYPICAL for name in _FIELDS},
         ),
         Material(
             "Ti-6Al-4V annealed",
             youngs_modulus=113.8 * _GPA, shear_modulus=44 * _GPA, poisson_ratio=0.342,
             density=4430,
             yield_strength=880 * _MPA, ultimate_strength=950 * _MPA,
-            sources={name: _MATWEB for name in _FIELDS},
+            sources={name: _ASM_TYPICAL for name in _FIELDS},
         ),
         Material(
             "Grey cast iron class 30",
