@@ -11,6 +11,7 @@ import zipfile
 from pathlib import Path
 
 from ._formulas import NotEvaluable, evaluate_formula, find_our_formulas
+from ._grid import cell_ref, parse_ref
 from ._reading import BookUnusable
 from ._result_tables import CAUTIONS
 from .ooxml import BookWriter, Cell, OoxmlError
@@ -31,6 +32,43 @@ def cell_functions() -> dict[str, object]:
     return out
 
 
+class _Waiting(Exception):
+    """The formula reads a cell whose own twistshare formula is not computed yet."""
+
+
+class _OverlayGrid:
+    """A sheet's values with the results computed so far laid over them."""
+
+    def __init__(self, grid, overlay, pending) -> None:
+        self._grid, self._overlay, self._pending = grid, overlay, pending
+        self.name = grid.name
+
+    def value(self, row: int, col: int) -> object:
+        key = (self.name, row, col)
+        if key in self._pending:
+            raise _Waiting(key)
+        if key in self._overlay:
+            v = self._overlay[key]
+            return None if v == "" else v
+        return self._grid.value(row, col)
+
+
+def _place(fc, result: object) -> tuple[dict[str, object], str | None]:
+    """The cells a result goes into: an array formula's whole range, else the formula's cell."""
+    if fc.spill_ref and isinstance(result, (list, tuple)):
+        a, _, b = fc.spill_ref.partition(":")
+        (r0, c0), (r1, c1) = parse_ref(a), parse_ref(b or a)
+        grid = [list(row) if isinstance(row, (list, tuple)) else [row] for row in result]
+        cells: dict[str, object] = {}
+        for r in range(r0, r1 + 1):
+            for c in range(c0, c1 + 1):
+                i, j = r - r0, c - c0
+                cells[cell_ref(r, c)] = grid[i][j] if i < len(grid) and j < len(grid[i]) else None
+        return cells, None
+    value, spilled = _first(result)
+    return {fc.ref: value}, spilled
+
+
 def _first(value: object) -> tuple[object, str | None]:
     """A spilled (list) result's first value, and the whole list as text for the comment."""
     if isinstance(value, (list, tuple)):
@@ -49,6 +87,8 @@ def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: boo
         return _fail(str(exc))
     functions = cell_functions()
     names = frozenset(functions)
+    overlay: dict[tuple[str, int, int], object] = {}
+    pending: set[tuple[str, int, int]] = set()
     grids: dict[str, object] = {}
 
     def grid_of(name: str):
@@ -56,40 +96,77 @@ def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: boo
         if sheet is None:
             return None
         if sheet not in grids:
-            grids[sheet] = book.grid(sheet)
+            grids[sheet] = _OverlayGrid(book.grid(sheet), overlay, pending)
         return grids[sheet]
+
+    found_by_sheet: dict[str, list] = {}
+    try:
+        with zipfile.ZipFile(book_path) as zf:
+            for sheet in info.sheets:
+                if sheet.kind == "worksheet" and sheet.part:
+                    found = find_our_formulas(zf.read(sheet.part), names)
+                    if found:
+                        found_by_sheet[sheet.name] = found
+    except (OSError, zipfile.BadZipFile) as exc:
+        return _fail(f"{book_path.name}: {exc}")
+    # Formulas without a cached value are computed; one that reads another such cell waits for it.
+    todo = []
+    for sheet_name, found in found_by_sheet.items():
+        for fc in found:
+            if fc.cached is None or fc.cached == "":
+                r, c = parse_ref(fc.ref)
+                pending.add((sheet_name, r, c))
+                todo.append((sheet_name, fc))
+    outcome: dict[tuple[str, str], tuple[dict[str, object], str, str | None]] = {}
+    progress = True
+    while todo and progress:
+        progress = False
+        waiting = []
+        for sheet_name, fc in todo:
+            try:
+                result = evaluate_formula(fc.formula, sheet_name, grid_of, functions)
+            except _Waiting:
+                waiting.append((sheet_name, fc))
+                continue
+            except NotEvaluable as exc:
+                result = f"⚠ no value: {exc}"
+            cells, spilled = _place(fc, result)
+            for ref, v in cells.items():
+                rr, cc = parse_ref(ref)
+                overlay[(sheet_name, rr, cc)] = v
+            r, c = parse_ref(fc.ref)
+            pending.discard((sheet_name, r, c))
+            outcome[(sheet_name, fc.ref)] = (cells, "computed by twistshare (the book had no cached value)", spilled)
+            progress = True
+        todo = waiting
+    for sheet_name, fc in todo:  # a cycle among our own formulas
+        outcome[(sheet_name, fc.ref)] = ({fc.ref: "⚠ no value: the formula depends on itself"}, "not evaluated", None)
 
     log: list[list] = []
     problems = 0
     try:
-        with BookWriter(book_path) as writer, zipfile.ZipFile(book_path) as zf:
-            for sheet in info.sheets:
-                if sheet.kind != "worksheet" or not sheet.part:
-                    continue
-                found = find_our_formulas(zf.read(sheet.part), names)
-                if not found:
-                    continue
+        with BookWriter(book_path) as writer:
+            for sheet_name, found in found_by_sheet.items():
                 values: dict[str, object] = {}
                 notes: dict[str, str] = {}
                 for fc in found:
-                    spilled = None
-                    if fc.cached is not None and fc.cached != "":
-                        value, source = fc.cached, "the book's cached value"
+                    if (sheet_name, fc.ref) in outcome:
+                        cells, source, spilled = outcome[(sheet_name, fc.ref)]
                     else:
-                        try:
-                            value, spilled = _first(evaluate_formula(fc.formula, sheet.name, grid_of, functions))
-                            source = "computed by twistshare (the book had no cached value)"
-                        except NotEvaluable as exc:
-                            value, source = f"⚠ no value: {exc}", "not evaluated"
-                            problems += 1
-                    values[fc.ref] = value
+                        cells, source, spilled = {fc.ref: fc.cached}, "the book's cached value", None
+                    value = cells.get(fc.ref)
+                    if isinstance(value, str) and value.startswith("⚠"):
+                        problems += 1
+                    values.update(cells)
                     note = f"twistshare: this cell held the formula ={fc.formula}\nvalue: {source}"
+                    if fc.spill_ref:
+                        note += f"\nthe formula fills {fc.spill_ref}; those cells now hold its values"
                     if spilled:
                         note += f"\nthe formula returns several values: {spilled}"
                     notes[fc.ref] = note
-                    log.append([sheet.name, fc.ref, "=" + fc.formula, value, source])
-                writer.replace_formulas(sheet.name, values)
-                writer.add_comments(sheet.name, notes)
+                    log.append([sheet_name, fc.ref, "=" + fc.formula, value, source])
+                writer.replace_formulas(sheet_name, values, create_missing=True)
+                writer.add_comments(sheet_name, notes)
             rows = [[Cell("twistshare shared copy", "title")], [],
                     [Cell("Caution", "title")]] + [[Cell(c, "caution_line")] for c in CAUTIONS] + [[],
                     ["Formulas calling twistshare's cell functions were replaced by their values; each "

@@ -178,3 +178,70 @@ def replace_cells(text: str, values: Mapping[str, Any]) -> tuple[str, dict[str, 
                                    f"{owner.group(1) if owner else '?'}, which is not being replaced; "
                                    "replace every cell of that formula together")
     return new_text, formulas, had_formula
+
+
+_ROW = re.compile(r"<(?P<p>(?:[\w.-]+:)?)row\b(?P<attrs>[^>]*?)(?P<empty>/?)>")
+_SHEETDATA = re.compile(r"<(?P<p>(?:[\w.-]+:)?)sheetData\b[^>]*?(?P<empty>/?)>")
+_SPANS = re.compile(r'\sspans="[^"]*"')
+
+
+def insert_missing_cells(text: str, refs: Sequence[str]) -> str:
+    """Add an empty ``<c r=".."/>`` for each reference the sheet does not hold yet.
+
+    Cells go into their row in column order; a missing row is created in row order. A row that
+    gains a cell loses its optional ``spans`` hint (a hint only; Excel recomputes it). Nothing
+    else changes, so ``replace_cells`` can then fill them like any other cell.
+    """
+    present = {m.group("r").replace("$", "").upper() for m in _CELL.finditer(text)}
+    todo: dict[int, list[int]] = {}
+    for ref in refs:
+        col, row = split_ref(ref)
+        if f"{column_letters(col)}{row}" not in present:
+            todo.setdefault(row, []).append(col)
+    if not todo:
+        return text
+    sd = _SHEETDATA.search(text)
+    if sd is None:
+        raise WriteRefused("the sheet has no <sheetData> element")
+    p = sd.group("p")
+    if sd.group("empty"):
+        text = text[:sd.start()] + text[sd.start():sd.end()].replace("/>", ">") + f"</{p}sheetData>" + text[sd.end():]
+        sd = _SHEETDATA.search(text)
+    end_sd = text.find(f"</{p}sheetData>", sd.end())
+    rows = [(int(tag_attributes(m.group("attrs")).get("r", "0")), m) for m in _ROW.finditer(text, sd.end(), end_sd)]
+    edits: list[tuple[int, int, str]] = []  # (start, end, replacement), applied back to front
+
+    def cells_xml(cols: list[int], row: int) -> list[tuple[int, str]]:
+        return [(c, f'<{p}c r="{column_letters(c)}{row}"/>') for c in sorted(set(cols))]
+
+    by_row = {r: m for r, m in rows}
+    for row, cols in todo.items():
+        new = cells_xml(cols, row)
+        m = by_row.get(row)
+        if m is None:
+            after = next((mm for r, mm in rows if r > row), None)
+            at = after.start() if after else end_sd
+            edits.append((at, at, f'<{p}row r="{row}">' + "".join(x for _, x in new) + f"</{p}row>"))
+            continue
+        start_tag = _SPANS.sub("", m.group(0))
+        if m.group("empty"):
+            start_tag = start_tag[:-2].rstrip() + ">"
+            edits.append((m.start(), m.end(), start_tag + "".join(x for _, x in new) + f"</{p}row>"))
+            continue
+        close = text.find(f"</{p}row>", m.end())
+        body = text[m.end():close]
+        pieces: list[str] = []
+        pos = 0
+        pending = list(new)
+        for cm in _CELL.finditer(body):
+            c_col, _ = split_ref(cm.group("r").replace("$", ""))
+            while pending and pending[0][0] < c_col:
+                pieces.append(body[pos:cm.start()])
+                pieces.append(pending.pop(0)[1])
+                pos = cm.start()
+        pieces.append(body[pos:])
+        pieces.extend(x for _, x in pending)
+        edits.append((m.start(), close, start_tag + "".join(pieces)))
+    for start, end, rep in sorted(edits, key=lambda e: (e[0], e[1]), reverse=True):
+        text = text[:start] + rep + text[end:]
+    return text

@@ -38,7 +38,8 @@ from ._opc import (CT, RT, add_overrides, append_rels, new_rels, next_rel_id, pa
                    rels_path_of, relative_target, remove_overrides, remove_rels, tag_attributes)
 from ._package import Limits, Package
 from ._safety import PackageInfo, SheetInfo, read_package_info
-from ._sheetxml import insert_link_element, relationship_prefix, replace_cells, sheet_head, sheet_tail
+from ._sheetxml import (insert_link_element, insert_missing_cells, relationship_prefix, replace_cells, sheet_head,
+                        sheet_tail)
 from ._styles import MINIMAL_STYLES, StyleBook
 from ._xmltext import (NS_REL, column_letters, decode_xml, escape_attr, escape_text, find_element_span,
                        iter_top_level, root_prefix, split_ref)
@@ -405,7 +406,8 @@ class BookWriter:
         target.print_area = f"{quoted}!${column_letters(c1)}${r1}:${column_letters(c2)}${r2}"
 
     # -- share ---------------------------------------------------------------------------------
-    def replace_formulas(self, sheet_name: str, values: Mapping[str, Any]) -> dict[str, str]:
+    def replace_formulas(self, sheet_name: str, values: Mapping[str, Any], *,
+                         create_missing: bool = False) -> dict[str, str]:
         """Replace formula cells of an input sheet by plain values (for a copy without the add-in).
 
         Only those ``<c>`` elements are rewritten; their style is kept. The calculation chain
@@ -418,6 +420,9 @@ class BookWriter:
             One of the book's worksheets.
         values : mapping of str to value
             Cell reference to the value to write (None, bool, number or text; text stays text).
+        create_missing : bool
+            Add cells the sheet does not hold yet (the other cells of an array formula's range,
+            which a book may leave out when it has no cached values) instead of refusing.
 
         Returns
         -------
@@ -432,7 +437,10 @@ class BookWriter:
         """
         self._check_open()
         edit = self._input_sheet(sheet_name)
-        text, formulas, had_formula = replace_cells(self._load_text(edit), values)
+        text = self._load_text(edit)
+        if create_missing:
+            text = insert_missing_cells(text, list(values))
+        text, formulas, had_formula = replace_cells(text, values)
         edit.text, edit.dirty = text, True
         if had_formula:
             self._formulas_replaced = True
