@@ -1,0 +1,333 @@
+"""`twistshare rate` on the sample books, checked cell by cell against the engine called directly.
+
+The expected values come from an independent path: the input book read with openpyxl (not the
+fast reader the command uses), each cell parsed with the units module, materials resolved here
+with the published allowable rules, and every part rated alone by the engine core.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import math
+import shutil
+import warnings
+import zipfile
+from pathlib import Path
+
+import numpy as np
+import openpyxl
+import pytest
+
+from twistshare.engine.core import AllowableRule, Duty, LayerStack, allowable_shear, find_material, rate
+from twistshare.engine.units import UnitProblem, parse_value, split_header
+from twistshare.workbook_bridge._sample_books import planted_problems
+from twistshare.workbook_bridge.cli import main
+
+SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
+CATALOGUE = SAMPLES / "marrowby_catalogue.xlsx"
+BY_LAYER = SAMPLES / "marrowby_catalogue_by_layer.xlsx"
+RULES = {"given": AllowableRule.GIVEN, "max shear": AllowableRule.MAX_SHEAR,
+         "distortion energy": AllowableRule.DISTORTION_ENERGY, "shafting code": AllowableRule.SHAFTING_CODE}
+
+
+def _sha(path: Path) -> str:
+    return hashlib.sha256(path.read_bytes()).hexdigest()
+
+
+def _load(path: Path):
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")  # openpyxl must read what we wrote without complaint
+        return openpyxl.load_workbook(path)
+
+
+@pytest.fixture(scope="module")
+def rated(tmp_path_factory):
+    out_dir = tmp_path_factory.mktemp("rated")
+    src = out_dir / CATALOGUE.name
+    shutil.copy(CATALOGUE, src)
+    before = _sha(src)
+    out = out_dir / "rated.xlsx"
+    code = main(["rate", str(src), "-o", str(out), "-q"])
+    return {"src": src, "out": out, "code": code, "before": before}
+
+
+def _si(raw, kind, header):
+    _, unit = split_header(header)
+    if raw is None:
+        return math.nan
+    if isinstance(raw, (int, float)):
+        return parse_value(float(raw), kind, unit)
+    return parse_value(str(raw), kind, unit)
+
+
+def _materials(ws):
+    head = [c.value for c in ws[1]]
+    out = {}
+    for row in ws.iter_rows(min_row=2, values_only=True):
+        rec = dict(zip(head, row))
+        name = rec["Material"]
+        if not name:
+            continue
+        lib = find_material(name)
+
+        def val(header, kind, attr):
+            v = rec.get(header)
+            if v is None:
+                x = getattr(lib, attr, None) if lib else None
+                return math.nan if x is None else float(x)
+            try:
+                return _si(v, kind, header)
+            except UnitProblem:
+                return math.nan
+        g = val("G [GPa]", "stress", "shear_modulus")
+        if math.isnan(g):
+            e, nu = val("E [GPa]", "stress", "youngs_modulus"), val("Poisson ratio", "dimensionless", "poisson_ratio")
+            g = e / (2 * (1 + nu))
+        rule_text = (rec.get("Allowable rule") or "").strip().lower()
+        tau_given = val("Allowable shear [MPa]", "stress", "allowable_shear") if rec.get("Allowable shear [MPa]") else math.nan
+        rule = RULES.get(rule_text, AllowableRule.GIVEN if not math.isnan(tau_given) else AllowableRule.SHAFTING_CODE)
+        if rule == AllowableRule.GIVEN:
+            tau = tau_given
+        else:
+            fs = rec.get("Factor of safety") or 1.0
+            keyway = str(rec.get("Keyway") or "").lower() == "yes"
+            tau = float(allowable_shear(rule, val("Yield strength [MPa]", "stress", "yield_strength"),
+                                        val("Ultimate strength [MPa]", "stress", "ultimate_strength"), fs, keyway))
+        if not 0.1e9 <= g <= 200e9:  # the bridge's plausible range for G (common practice)
+            g = math.nan
+        out[name.lower()] = (g, tau)
+    return out
+
+
+def _expected(path: Path) -> dict[str, dict]:
+    """Rate every readable part of the catalogue alone, from an openpyxl read of the input."""
+    wb = openpyxl.load_workbook(path)
+    mats = _materials(wb["Materials"])
+    ws = wb["Parts"]
+    head = [c.value for c in ws[1]]
+    out = {}
+    for row in ws.iter_rows(min_row=2, values_only=True):
+        rec = dict(zip(head, row))
+        pid = rec["Part"]
+        try:
+            length = _si(rec["Length [mm]"], "length", "Length [mm]")
+            sf = rec.get("Service factor") or 1.0
+            if rec.get("Torque [N·m]") is not None:
+                torque = _si(rec["Torque [N·m]"], "torque", "Torque [N·m]") * sf
+            else:
+                p = _si(rec["Power [kW]"], "power", "Power [kW]")
+                n = _si(rec["Speed [rpm]"], "speed", "Speed [rpm]")
+                torque = sf * p / n  # T = P/ω
+            tl = _si(rec.get("Twist limit [deg]"), "angle", "Twist limit [deg]")
+            tpl = _si(rec.get("Twist limit per length [deg/m]"), "angle_per_length", "Twist limit per length [deg/m]")
+            layers = []
+            for n in range(1, 5):
+                mat = rec.get(f"Layer {n} material")
+                if mat is None:
+                    continue
+                od = _si(rec[f"Layer {n} outer diameter [mm]"], "length", "Layer 1 outer diameter [mm]")
+                idd = _si(rec[f"Layer {n} inner diameter [mm]"] or 0.0, "length", "Layer 1 inner diameter [mm]")
+                kt = rec.get(f"Layer {n} Kt") or 1.0
+                g, tau = mats.get(mat.lower(), (math.nan, math.nan))
+                layers.append((od, idd, g, tau, kt, mat))
+        except (UnitProblem, KeyError, TypeError, ValueError):
+            continue
+        if not layers or math.isnan(length) or any(math.isnan(x) for lay in layers for x in lay[:5]):
+            continue
+        stack = LayerStack.from_layers(
+            outer_diameter=[x[0] for x in layers], inner_diameter=[x[1] for x in layers],
+            shear_modulus=[x[2] for x in layers], allowable_shear=[x[3] for x in layers],
+            stress_concentration=[x[4] for x in layers])
+        r = rate(stack, Duty.from_arrays(torque=torque, length=length, twist_limit_angle=tl,
+                                         twist_limit_per_length=tpl))
+        if not bool(r.valid[0]):
+            continue
+        out[pid] = {"rating": r, "torque": torque, "layers": len(layers)}
+    return out
+
+
+def _results(path: Path) -> tuple[list[str], dict[str, dict]]:
+    ws = _load(path)["Twistshare results"]
+    head = [c.value for c in ws[1]]
+    rows = {}
+    for row in ws.iter_rows(min_row=2, values_only=True):
+        rows[row[0]] = dict(zip(head, row))
+    return head, rows
+
+
+class TestRateCatalogue:
+    """Every result cell equals the engine's own figure for that part (rtol 1e-9)."""
+
+    def test_exit_code_says_some_parts_had_errors(self, rated):
+        assert rated["code"] == 1
+
+    def test_input_bytes_unchanged(self, rated):
+        assert _sha(rated["src"]) == rated["before"]
+
+    def test_every_rated_part_matches_the_engine(self, rated):
+        expected = _expected(rated["src"])
+        _, rows = _results(rated["out"])
+        assert len(expected) >= 25
+        for pid, exp in expected.items():
+            got = rows[pid]
+            r = exp["rating"]
+            assert got["Status"] in ("ok", "FAILS"), pid
+            assert got["Demand torque [N·m]"] == pytest.approx(exp["torque"], rel=1e-9), pid
+            assert got["Governing limit [N·m]"] == pytest.approx(float(r.governing_capacity[0]), rel=1e-9), pid
+            assert got["Margin [%]"] == pytest.approx(100 * float(r.margin[0]), rel=1e-9, abs=1e-9), pid
+            assert got["ΣGJ [N·m²]"] == pytest.approx(float(r.sum_gj[0]), rel=1e-9), pid
+            assert got["Twist angle [°]"] == pytest.approx(math.degrees(float(r.twist_angle[0])), rel=1e-9), pid
+            for j in range(exp["layers"]):
+                n = j + 1
+                assert got[f"L{n} share [%]"] == pytest.approx(100 * float(r.share[0, j]), rel=1e-9), (pid, n)
+                assert got[f"L{n} capacity [N·m]"] == pytest.approx(float(r.capacity[0, j]), rel=1e-9), (pid, n)
+                assert got[f"L{n} stress at outer [MPa]"] == pytest.approx(
+                    float(r.stress_outer[0, j]) / 1e6, rel=1e-9), (pid, n)
+                assert got[f"L{n} utilisation [%]"] == pytest.approx(
+                    100 * float(r.utilisation[0, j]), rel=1e-9), (pid, n)
+            assert (got["Status"] == "FAILS") == (float(r.margin[0]) < 0), pid
+
+    def test_bad_parts_have_no_numbers(self, rated):
+        _, rows = _results(rated["out"])
+        bad = {p.part for p in planted_problems() if p.book == CATALOGUE.name and p.sheet == "Parts"}
+        assert bad
+        for pid in bad:
+            assert rows[pid]["Status"] == "not rated", pid
+            assert rows[pid]["Governing limit [N·m]"] is None, pid
+            assert rows[pid]["Margin [%]"] is None, pid
+
+    @pytest.mark.parametrize("problem", [p for p in planted_problems() if p.book == CATALOGUE.name],
+                             ids=lambda p: f"{p.sheet}!{p.cell}")
+    def test_bad_cells_carry_comments(self, rated, problem):
+        ws = _load(rated["out"])[problem.sheet]
+        comment = ws[problem.cell].comment
+        assert comment is not None, f"no comment on {problem.sheet}!{problem.cell}"
+        text = comment.text
+        assert "twistshare error" in text
+        words = {
+            "gap": ["gap of 1 mm", "must touch"],
+            "inner_not_less_than_outer": ["inner diameter 48 mm must be less than outer diameter 44 mm"],
+            "unknown_material": ["unknown material 'Stainles 316 annealed'"],
+            "wrong_dimension": ["expected a length", "GPa"],
+            "implausible_magnitude": ["79000", "plausible range", "check the unit"],
+            "missing_value": ["outer diameter is missing"],
+            "not_a_number": ["expected a torque", "tbc"],
+        }[problem.kind]
+        for w in words:
+            assert w in text, (w, text)
+
+    def test_library_filled_cells_are_commented_with_their_source(self, rated):
+        ws = _load(rated["out"])["Materials"]
+        comment = ws["B2"].comment  # AISI 1045 hot rolled, G left blank
+        assert comment is not None
+        assert "filled from the built-in library" in comment.text
+        assert "source:" in comment.text
+
+    def test_added_sheets_and_cautions(self, rated):
+        wb = _load(rated["out"])
+        for name in ("Twistshare results", "Twistshare summary", "Twistshare warnings", "Twistshare materials"):
+            assert name in wb.sheetnames
+        text = " ".join(str(c.value) for row in wb["Twistshare summary"].iter_rows() for c in row if c.value)
+        for phrase in ("preliminary design aid", "applicable codes and standards", "qualified engineer",
+                       "Local codes and licensed engineering practice prevail"):
+            assert phrase in text
+        assert len(wb["Twistshare summary"]._charts) == 2
+
+    def test_members_not_owned_are_byte_identical(self, rated):
+        owned = {"xl/workbook.xml", "xl/_rels/workbook.xml.rels", "[Content_Types].xml", "xl/styles.xml"}
+        with zipfile.ZipFile(rated["src"]) as a, zipfile.ZipFile(rated["out"]) as b:
+            out_names = set(b.namelist())
+            for name in a.namelist():
+                if name in owned or name.startswith("xl/worksheets/"):
+                    continue
+                assert name in out_names, name
+                assert a.read(name) == b.read(name), name
+            # input sheets without comments are untouched too
+            assert a.read("xl/worksheets/sheet1.xml") == b.read("xl/worksheets/sheet1.xml")
+
+    def test_warnings_sheet_lists_every_error(self, rated):
+        ws = _load(rated["out"])["Twistshare warnings"]
+        cells = {(r[1], r[0]) for r in ws.iter_rows(values_only=True) if r and r[4] == "error"}
+        for p in planted_problems():
+            if p.book == CATALOGUE.name:
+                assert (p.sheet, p.cell) in cells
+
+
+class TestOtherBooksAndCommands:
+    def test_layer_layout_gives_the_same_numbers(self, tmp_path, rated):
+        out = tmp_path / "by_layer.xlsx"
+        assert main(["rate", str(BY_LAYER), "-o", str(out), "-q"]) == 1
+        _, wide = _results(rated["out"])
+        _, long = _results(out)
+        common = [p for p in long if p in wide and long[p]["Status"] != "not rated" and wide[p]["Status"] != "not rated"]
+        assert len(common) >= 5
+        for pid in common:
+            assert long[pid]["Governing limit [N·m]"] == pytest.approx(wide[pid]["Governing limit [N·m]"], rel=1e-12)
+
+    def test_check_writes_comments_but_no_results(self, tmp_path):
+        out = tmp_path / "checked.xlsx"
+        assert main(["check", str(CATALOGUE), "-o", str(out), "-q"]) == 1
+        wb = _load(out)
+        assert "Twistshare warnings" in wb.sheetnames
+        assert "Twistshare results" not in wb.sheetnames
+        assert wb["Parts"]["P11"].comment is not None
+
+    def test_share_leaves_no_formula_calling_our_functions(self, tmp_path):
+        out = tmp_path / "shared.xlsx"
+        code = main(["share", str(SAMPLES / "marrowby_cell_functions.xlsx"), "-o", str(out), "-q"])
+        assert code == 0
+        with zipfile.ZipFile(out) as z:
+            for name in z.namelist():
+                if name.startswith("xl/worksheets/sheet"):
+                    assert b"<f" not in z.read(name), f"{name} still holds a formula"
+        wb = _load(out)
+        for ws in wb.worksheets:
+            for row in ws.iter_rows():
+                for c in row:
+                    assert not (c.data_type == "f"), f"{ws.title}!{c.coordinate} still holds a formula"
+
+    def test_formula_looking_text_stays_text(self, tmp_path):
+        wb = openpyxl.load_workbook(CATALOGUE)
+        ws = wb["Parts"]
+        ws["A2"].value = "=HYPERLINK(\"http://example.invalid\",\"x\")"
+        ws["A2"].data_type = "s"
+        src = tmp_path / "evil.xlsx"
+        wb.save(src)
+        out = tmp_path / "evil-rated.xlsx"
+        main(["rate", str(src), "-o", str(out), "-q"])
+        res = _load(out)["Twistshare results"]
+        assert res["A2"].value == "=HYPERLINK(\"http://example.invalid\",\"x\")"
+        assert res["A2"].data_type == "s"
+
+    def test_output_over_input_is_refused(self, tmp_path):
+        src = tmp_path / "c.xlsx"
+        shutil.copy(CATALOGUE, src)
+        before = _sha(src)
+        assert main(["rate", str(src), "-o", str(src), "-q"]) == 2
+        assert _sha(src) == before
+
+    def test_in_place_keeps_a_backup(self, tmp_path):
+        src = tmp_path / "c.xlsx"
+        shutil.copy(CATALOGUE, src)
+        before = _sha(src)
+        assert main(["rate", str(src), "--in-place", "-q", "--lenient"]) == 0
+        backups = list(tmp_path.glob("c.xlsx.bak-*"))
+        assert len(backups) == 1 and _sha(backups[0]) == before
+        assert "Twistshare results" in _load(src).sheetnames
+
+    def test_us_units_on_request(self, tmp_path, rated):
+        out = tmp_path / "us.xlsx"
+        main(["rate", str(CATALOGUE), "-o", str(out), "-q", "--units", "US"])
+        head, rows = _results(out)
+        _, si_rows = _results(rated["out"])
+        assert "Governing limit [lbf·in]" in head
+        pid = next(p for p, r in si_rows.items() if r["Status"] == "ok")
+        # 1 lbf·in = 0.1129848290276167 N·m (NIST SP 811, from the exact inch and pound-force)
+        assert rows[pid]["Governing limit [lbf·in]"] * 0.1129848290276167 == pytest.approx(
+            si_rows[pid]["Governing limit [N·m]"], rel=1e-9)
+
+
+def test_engine_numbers_are_finite_for_rated_parts(rated):
+    _, rows = _results(rated["out"])
+    ok = [r for r in rows.values() if r["Status"] in ("ok", "FAILS")]
+    assert ok and all(np.isfinite(r["Governing limit [N·m]"]) for r in ok)
