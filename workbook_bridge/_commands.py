@@ -24,22 +24,9 @@ EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
 # (a whole column formatted) or a data dump, and would need gigabytes to hold.
 MAX_TABLE_ROWS = 1_000_000
 
-_STYLE_MAP = {"ok": None, "note": None, "caution_title": "title"}
-
-
-def _cells(rows: list[list]) -> list[list]:
-    """Our Styled values turned into the writer's Cell values."""
-    out = []
-    for row in rows:
-        new = []
-        for v in row:
-            if isinstance(v, Styled):
-                style = _STYLE_MAP.get(v.style, v.style)
-                new.append(Cell(v.value, style) if style else v.value)
-            else:
-                new.append(v)
-        out.append(new)
-    return out
+def _cells(rows):
+    """Rows as the writer takes them (Styled already makes the writer's Cell values)."""
+    return rows
 
 
 def _say(msg: str) -> None:
@@ -180,7 +167,7 @@ def _col_values(rows: list[list], first: int, last: int, col: int) -> list:
     out = []
     for r in range(first, last + 1):
         v = rows[r][col] if col < len(rows[r]) else None
-        out.append(v.value if isinstance(v, Styled) else v)
+        out.append(v.value if isinstance(v, Cell) else v)
     return out
 
 

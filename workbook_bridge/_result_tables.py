@@ -7,15 +7,17 @@ writer's named styles. Units sit in the headers, in the results' unit system.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+import itertools
 
 import numpy as np
 
 from twistshare.engine.core import Criterion
+from twistshare.engine.units import si_factor
 
 from ._findings import Finding, Severity
 from ._flag_wording import Display
 from ._materials_table import RULE_NAMES, MaterialSet
+from .ooxml import Cell
 
 __all__ = ["Styled", "results_rows", "warnings_rows", "materials_rows", "governs_text", "CAUTIONS",
            "lowest_margins", "criterion_counts"]
@@ -30,10 +32,13 @@ CAUTIONS = (
 )
 
 
-@dataclass(frozen=True)
-class Styled:
-    value: object
-    style: str
+_STYLE_MAP = {"ok": None, "note": None, "caution_title": "title"}
+
+
+def Styled(value: object, style: str) -> object:  # noqa: N802 - reads like the value wrapper it makes
+    """A value with one of the writer's style names (a few local aliases are mapped here)."""
+    style = _STYLE_MAP.get(style, style)
+    return Cell(value, style) if style else value
 
 
 def _num(x: float) -> float | None:
@@ -56,19 +61,27 @@ def governs_text(criterion: int, layer: int, material: str | None) -> str:
     return _CRIT_TEXT.get(c, c.name.lower().replace("_", " "))
 
 
-def results_rows(book, display: Display, first_error: dict[str, str]) -> tuple[list[list], list[float], list]:
-    """Header and one row per part; returns (rows, column widths, column number styles)."""
+def _column(x: np.ndarray, keep: np.ndarray) -> list:
+    """One results column as Python floats; NaN (blank in the sheet) where the part is not rated."""
+    return np.where(keep, x, np.nan).tolist()
+
+
+def results_rows(book, display: Display, first_error: dict[str, str]):
+    """Header and one row per part; returns (rows, column widths, column number styles).
+
+    Built column by column from the engine's arrays (a 50 000-part book is 2 million cells).
+    """
     parts, r = book.parts, book.rating
-    L = parts.outer_diameter.shape[1]
+    P, L = parts.outer_diameter.shape
     tu, tf = display.unit("torque")
     su, sf = display.unit("stress")
     lu, lf = display.unit("length")
     au, af = display.unit("angle")
     pu, pf = display.unit("angle_per_length")
-    gj_unit = f"{tu}·{lu}"  # N·m·mm is odd: show stiffness per radian in torque × length
-    gj_f = tf * lf
     if display.system == "SI":
         gj_unit, gj_f = "N·m²", 1.0
+    else:
+        gj_unit, gj_f = "lbf·in²", si_factor("lbf·in", "torque") * si_factor("in", "length")
     header = [
         "Part", "Status", "Layers", f"Demand torque [{tu}]", "Demand from", f"Governing limit [{tu}]",
         "Governs", "Margin [%]", "Factor of safety", f"ΣGJ [{gj_unit}]", f"Twist rate [{pu}]",
@@ -81,53 +94,50 @@ def results_rows(book, display: Display, first_error: dict[str, str]) -> tuple[l
             f"L{n} capacity [{tu}]", f"L{n} utilisation [%]",
         ]
     header.append("First problem")
-    rows: list[list] = [[Styled(h, "header") for h in header]]
-    rated = book.rated
-    layer_count = parts.present.sum(axis=1)
-    # Whole columns are converted at once; the loop below only picks values.
-    demand = parts.torque / tf
-    if r is not None:
-        cap = np.asarray(r.governing_capacity) / tf
-        margin = np.asarray(r.margin) * 100
-        fos = np.asarray(r.factor_of_safety)
-        sgj = np.asarray(r.sum_gj) / gj_f
-        trate = np.asarray(r.twist_rate) / pf
-        tang = np.asarray(r.twist_angle) / af
-        tcap = np.asarray(r.twist_capacity) / tf
-        share = np.asarray(r.share) * 100
-        ltq = np.asarray(r.layer_torque) / tf
-        so = np.asarray(r.stress_outer) / sf
-        si = np.asarray(r.stress_inner) / sf
-        lcap = np.asarray(r.capacity) / tf
-        util = np.asarray(r.utilisation) * 100
-        crit = np.asarray(r.governing_criterion)
-        glayer = np.asarray(r.governing_layer)
-    od = parts.outer_diameter / lf
-    idd = parts.inner_diameter / lf
-    for i, pid in enumerate(parts.ids):
-        ok = bool(rated[i]) if rated is not None else False
-        if ok:
-            m = margin[i]
-            fails = math.isfinite(m) and m < 0
-            status = Styled("FAILS", "fail") if fails else Styled("ok", "ok")
-            gl = int(glayer[i])
-            mat = parts.materials[i][gl] if 0 <= gl < L else None
-            row = [pid, status, int(layer_count[i]), _num(demand[i]), parts.duty_source[i], _num(cap[i]),
-                   governs_text(crit[i], gl, mat), Styled(_num(m), "fail+fixed1" if fails else "fixed1"),
-                   _num(fos[i]), _num(sgj[i]), _num(trate[i]), _num(tang[i]), _num(tcap[i])]
-            for j in range(L):
-                if parts.present[i, j]:
-                    row += [parts.materials[i][j], _num(od[i, j]), _num(idd[i, j]), _num(share[i, j]),
-                            _num(ltq[i, j]), _num(so[i, j]), _num(si[i, j]), _num(lcap[i, j]),
-                            Styled(_num(util[i, j]), "fail+fixed1") if util[i, j] > 100 else _num(util[i, j])]
-                else:
-                    row += [None] * 9
-            row.append(first_error.get(pid))
-        else:
-            row = [pid, Styled("not rated", "warn"), int(layer_count[i]), None, parts.duty_source[i]]
-            row += [None] * (8 + 9 * L)
-            row.append(first_error.get(pid, "see the warnings sheet"))
-        rows.append(row)
+    rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)
+    nan = np.full(P, np.nan)
+    nanl = np.full((P, L), np.nan)
+
+    def get(name: str, shape=nan) -> np.ndarray:
+        return shape if r is None else np.asarray(getattr(r, name), dtype=float)
+
+    margin = get("margin") * 100
+    fails = rated & (margin < 0)
+    status = [Styled("FAILS", "fail") if f else ("ok" if k else Styled("not rated", "warn"))
+              for f, k in zip(fails.tolist(), rated.tolist())]
+    crit = np.zeros(P, int) if r is None else np.asarray(r.governing_criterion, int)
+    glayer = np.full(P, -1) if r is None else np.asarray(r.governing_layer, int)
+    governs = [
+        governs_text(c, g, parts.materials[i][g] if 0 <= g < L else None) if k else None
+        for i, (c, g, k) in enumerate(zip(crit.tolist(), glayer.tolist(), rated.tolist()))
+    ]
+    margin_col = [Styled(m, "fail+fixed1") if f else m for m, f in zip(_column(margin, rated), fails.tolist())]
+    errors = [None if k else first_error.get(pid, "see the warnings sheet") for pid, k in zip(parts.ids, rated)]
+    cols: list[list] = [
+        list(parts.ids), status, parts.present.sum(axis=1).tolist(), (parts.torque / tf).tolist(),
+        list(parts.duty_source), _column(get("governing_capacity") / tf, rated), governs, margin_col,
+        _column(get("factor_of_safety"), rated), _column(get("sum_gj") / gj_f, rated),
+        _column(get("twist_rate") / pf, rated), _column(get("twist_angle") / af, rated),
+        _column(get("twist_capacity") / tf, rated),
+    ]
+    share = get("share", nanl) * 100
+    ltq = get("layer_torque", nanl) / tf
+    so = get("stress_outer", nanl) / sf
+    si = get("stress_inner", nanl) / sf
+    lcap = get("capacity", nanl) / tf
+    util = get("utilisation", nanl) * 100
+    for j in range(L):
+        keep = rated & parts.present[:, j]
+        over = keep & (util[:, j] > 100)
+        cols += [
+            [m[j] if k else None for m, k in zip(parts.materials, parts.present[:, j].tolist())],
+            _column(parts.outer_diameter[:, j] / lf, keep), _column(parts.inner_diameter[:, j] / lf, keep),
+            _column(share[:, j], keep), _column(ltq[:, j], keep), _column(so[:, j], keep),
+            _column(si[:, j], keep), _column(lcap[:, j], keep),
+            [Styled(u, "fail+fixed1") if o else u for u, o in zip(_column(util[:, j], keep), over.tolist())],
+        ]
+    cols.append(errors)
+    rows = itertools.chain([[Styled(h, "header") for h in header]], zip(*cols))
     widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [60]
     styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
               "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L
