@@ -1,0 +1,112 @@
+"""Benchmark of the cell functions (a script, not collected by pytest).
+
+Figures, one run:
+
+* ``scalar_call_us``: median of one scalar cell call with unit parsing,
+  ``TWS_TORQUE_FROM_POWER("15 kW", "1450 rpm", 1.25, "lbf·in")`` (target <= 50 us);
+* ``block_10k_ms``: median of one ``TWS_LAYER_CAPACITY`` call over a 10,000-row layer block
+  (Part, Material, Outer diameter [mm], Inner diameter [mm], Allowable [MPa], Kt; one row
+  per layer, about 4,000 parts of 1 to 4 layers; demo-style invented data) (target <= 20 ms).
+
+Also printed, for information: other scalar calls, a one-part layer block call, and the
+10,000-row block with every cell a ``value unit`` string. The last line is one JSON object.
+
+Run: ``/tmp/venv/bin/python tests/perf/bench_cells.py``
+"""
+
+from __future__ import annotations
+
+import json
+import random
+import statistics
+import time
+from collections.abc import Callable
+from typing import Any
+
+from twistshare.engine.cells import (
+    TWS_ALLOWABLE,
+    TWS_GOVERNING_LIMIT,
+    TWS_LAYER_CAPACITY,
+    TWS_MARGIN,
+    TWS_TORQUE_FROM_POWER,
+)
+
+MATERIALS = ("AISI 1045 hot rolled", "Stainless 316 annealed", "Aluminium bronze C95400 as cast")
+
+
+def layer_block(rows: int, as_text: bool = False, seed: int = 14) -> list[list[Any]]:
+    """A Layers-sheet style block of `rows` layer rows, innermost layer of each part first."""
+    rng = random.Random(seed)
+    block: list[list[Any]] = [["Part", "Material", "Outer diameter [mm]",
+                               "Inner diameter [mm]", "Allowable [MPa]", "Kt"]]
+    part = 0
+    while len(block) <= rows:
+        part += 1
+        outer = 0.0
+        for slot in range(rng.randint(1, 4)):
+            if len(block) > rows:
+                break
+            inner = outer
+            outer = inner + (rng.choice((30.0, 40.0, 52.0)) if slot == 0 else rng.choice((3.0, 5.0)))
+            allowable = 60.0 + 10 * slot
+            kt = rng.choice((1.0, 1.0, 1.3))
+            if as_text:
+                block.append([f"MPD-S-{part:04d}", MATERIALS[slot % 3], f"{outer:g} mm",
+                              f"{inner:g} mm", f"{allowable:g} MPa", kt])
+            else:
+                block.append([f"MPD-S-{part:04d}", MATERIALS[slot % 3], outer, inner,
+                              allowable, kt])
+    return block
+
+
+def median_time(call: Callable[[], Any], repeats: int) -> tuple[float, Any]:
+    times = []
+    result = None
+    for _ in range(repeats):
+        start = time.perf_counter()
+        result = call()
+        times.append(time.perf_counter() - start)
+    return statistics.median(times), result
+
+
+def main() -> None:
+    calls = {
+        "TWS_TORQUE_FROM_POWER": lambda: TWS_TORQUE_FROM_POWER("15 kW", "1450 rpm", 1.25, "lbf·in"),
+        "TWS_ALLOWABLE": lambda: TWS_ALLOWABLE("distortion energy", "310 MPa", None, 2, None, "ksi"),
+    }
+    for call in calls.values():
+        call()  # first call builds the unit registry; steady state is what a sheet sees
+    scalar: dict[str, float] = {}
+    for name, call in calls.items():
+        seconds, result = median_time(call, 2000)
+        assert isinstance(result, float), result
+        scalar[name] = seconds * 1e6
+        print(f"{name:<28} median {scalar[name]:8.1f} us   (target <= 50 us)")
+
+    one_part = [["Material", "Outer diameter [mm]", "Inner diameter [mm]", "Allowable [MPa]", "Kt"],
+                [MATERIALS[0], 40, 0, 100, None], [MATERIALS[1], 50, 40, 80, 1.2]]
+    seconds, result = median_time(lambda: TWS_MARGIN(one_part, "1200 N·m", "850 mm", "0.5°"), 500)
+    assert isinstance(result, float), result
+    print(f"{'TWS_MARGIN, one 2-layer part':<28} median {seconds * 1e6:8.1f} us   (for information)")
+
+    block = layer_block(10_000)
+    seconds, result = median_time(lambda: TWS_LAYER_CAPACITY(block), 25)
+    assert len(result) == 10_001 and all(not isinstance(r[0], str) for r in result[1:]), result[:3]
+    block_ms = seconds * 1e3
+    print(f"{'TWS_LAYER_CAPACITY 10k rows':<28} median {block_ms:8.2f} ms   (target <= 20 ms)")
+    seconds, _ = median_time(lambda: TWS_GOVERNING_LIMIT(block), 25)
+    print(f"{'TWS_GOVERNING_LIMIT 10k rows':<28} median {seconds * 1e3:8.2f} ms   (for information)")
+    text_block = layer_block(10_000, as_text=True)
+    seconds, result = median_time(lambda: TWS_LAYER_CAPACITY(text_block), 10)
+    assert all(not isinstance(r[0], str) for r in result[1:]), result[:3]
+    print(f"{'same, value-unit strings':<28} median {seconds * 1e3:8.2f} ms   (for information)")
+
+    scalar_us = scalar["TWS_TORQUE_FROM_POWER"]
+    print(f"ratios to target: scalar {scalar_us / 50:.2f}, block {block_ms / 20:.2f} (<= 1 meets)")
+    print(json.dumps({"scalar_call_us": round(scalar_us, 2), "block_10k_ms": round(block_ms, 3),
+                      "allowable_call_us": round(scalar["TWS_ALLOWABLE"], 2),
+                      "text_block_10k_ms": round(seconds * 1e3, 3)}))
+
+
+if __name__ == "__main__":
+    main()
