@@ -6,17 +6,20 @@ diagnoses into findings on the cells they concern.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from bisect import bisect_left, bisect_right
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 
 import numpy as np
 
 from twistshare.engine.core import Duty, LayerStack, Rating, rate
 
+from ._column_values import quoted, read_text
 from ._findings import Finding, Severity
 from ._flag_wording import findings_from_rating
-from ._materials_table import MaterialSet, read_materials
+from ._materials_table import MaterialSet, normalise_name, read_materials
 from ._parts_table import PartsInput, read_parts
+from ._grid import SheetGrid, cell_ref, parse_ref
 from ._reading import BookUnusable, OpenBook
 from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS
 from ._tables import TableSpot, locate_table
@@ -60,24 +63,96 @@ def _spot(book: OpenBook, name: str, fields, key: str, layer_groups: bool = Fals
     return grid, locate_table(grid, fields, key, layer_groups=layer_groups)
 
 
-def _hidden_and_merged(grid, spot: TableSpot, findings: list[Finding], what: str) -> None:
-    from ._grid import cell_ref
+def _key_column(spot: TableSpot) -> int:
+    for key in ("part", "name"):
+        c = spot.column(key)
+        if c is not None:
+            return c.index
+    return spot.columns[0].index
 
+
+def _hidden_and_merged(grid, spot: TableSpot, findings: list[Finding], what: str) -> None:
     if grid.hidden_rows:
         hid = [r for r in spot.data_rows if r in grid.hidden_rows]
         for r in hid:
-            findings.append(Finding(Severity.WARNING, grid.name, cell_ref(r, spot.columns[0].index),
+            findings.append(Finding(Severity.WARNING, grid.name, cell_ref(r, _key_column(spot)),
                                     f"{what} row {r + 1} is hidden; it is rated like any other row"))
     if grid.merged:
-        cover = grid.merged_cover()
-        cols = {c.index for c in spot.columns}
-        rows = set(spot.data_rows) | {spot.header_row}
-        for (r, c), (r0, c0) in cover.items():
-            if r in rows and c in cols:
-                findings.append(Finding(
-                    Severity.WARNING, grid.name, cell_ref(r, c),
-                    f"{what}: cell {cell_ref(r, c)} is inside the merged range starting at {cell_ref(r0, c0)}; "
-                    "a merged cell holds one value only, so this cell reads as empty"))
+        # Only the table's own cells are visited: a merged range may cover a whole sheet.
+        cols = sorted({c.index for c in spot.columns})
+        rows = sorted(set(spot.data_rows) | {spot.header_row})
+        for (r0, c0), (r1, c1) in grid.merged:
+            for r in rows[bisect_left(rows, r0):bisect_right(rows, r1)]:
+                for c in cols[bisect_left(cols, c0):bisect_right(cols, c1)]:
+                    if (r, c) == (r0, c0):
+                        continue
+                    findings.append(Finding(
+                        Severity.WARNING, grid.name, cell_ref(r, c),
+                        f"{what}: cell {cell_ref(r, c)} is inside the merged range "
+                        f"{cell_ref(r0, c0)}:{cell_ref(r1, c1)}; a merged cell holds one value only, "
+                        "so this cell reads as empty"))
+
+
+def _anchor_merged(findings: list[Finding], grids: list[SheetGrid]) -> None:
+    """Move findings on cells a merge covers to the merged range's top-left cell.
+
+    A covered cell cannot be selected and its comment is not shown (openpyxl drops it on
+    reading), so the message goes where the user sees the merged cell.
+    """
+    by_sheet = {g.name: g.merged for g in grids if g is not None and g.merged}
+    if not by_sheet:
+        return
+    for k, f in enumerate(findings):
+        ranges = by_sheet.get(f.sheet)
+        if not ranges or f.cell is None:
+            continue
+        r, c = parse_ref(f.cell)
+        for (r0, c0), (r1, c1) in ranges:
+            if r0 <= r <= r1 and c0 <= c <= c1 and (r, c) != (r0, c0):
+                findings[k] = replace(f, cell=cell_ref(r0, c0))
+                break
+
+
+def _duplicate_columns(grid: SheetGrid, spot: TableSpot, findings: list[Finding], what: str,
+                       who) -> set[int]:
+    """Report columns that name an input twice; the rows where the two disagree (not to be rated).
+
+    The first column is read; a later one is only compared with it, so that a number typed into
+    the "wrong" copy never passes silently.
+    """
+    conflicts: set[int] = set()
+    for dup in spot.duplicates:
+        first = spot.column(dup.field.key, dup.layer)
+        if first is None:
+            continue
+        findings.append(Finding(
+            Severity.WARNING, grid.name, cell_ref(spot.header_row, dup.index),
+            f"{what}: the column {dup.header.strip()!r} names the same input as {first.header.strip()!r} "
+            f"({cell_ref(spot.header_row, first.index)}); that one is read and this one only checked "
+            "against it: remove one of the two"))
+        same_unit = (dup.unit or "").strip() == (first.unit or "").strip()
+        for r in spot.data_rows:
+            b = grid.value(r, dup.index)
+            if b is None:
+                continue
+            a = grid.value(r, first.index)
+            if same_unit and a == b:
+                continue
+            conflicts.add(r)
+            findings.append(Finding(
+                Severity.ERROR, grid.name, cell_ref(r, dup.index),
+                f"{who(r)}: {dup.field.description} is given twice: {cell_ref(r, first.index)} holds "
+                f"{_shown(a)} under {first.header.strip()!r} and {cell_ref(r, dup.index)} holds {_shown(b)} "
+                f"under {dup.header.strip()!r}; not rated until one column is removed"))
+    return conflicts
+
+
+def _shown(v: object) -> str:
+    if v is None:
+        return "nothing"
+    if isinstance(v, float) and v.is_integer():
+        v = int(v)
+    return quoted(v) if isinstance(v, str) else str(v)
 
 
 def _filled_notes(materials: MaterialSet) -> list[Finding]:
@@ -116,6 +191,53 @@ def _tables(book: OpenBook, result: BookRating):
     return mgrid, mspot, pgrid, pspot, lgrid, lspot
 
 
+def _refuse_conflicting_materials(grid: SheetGrid, spot: TableSpot, materials: MaterialSet,
+                                  findings: list[Finding]) -> None:
+    if not spot.duplicates:
+        return
+    name_col = spot.column("name")
+    names = dict(zip(spot.data_rows, read_text(grid, name_col.index, spot.data_rows)))
+
+    def who(r: int) -> str:
+        return f"material {names[r]!r}" if names.get(r) else f"materials row {r + 1}"
+
+    for r in _duplicate_columns(grid, spot, findings, "materials", who):
+        name = names.get(r)
+        if not name:
+            continue
+        key = normalise_name(name)
+        m = materials.by_name.get(key)
+        if m is not None and m.problem is None:
+            materials.by_name[key] = replace(
+                m, problem=f"material {name!r} has a property given twice with different values "
+                "(see the comments on its row)")
+
+
+def _refuse_conflicting_parts(pgrid: SheetGrid, pspot: TableSpot, lgrid, lspot, parts: PartsInput,
+                              findings: list[Finding]) -> None:
+    index = {r: i for i, r in enumerate(parts.rows)}
+
+    def who(r: int) -> str:
+        i = index.get(r)
+        return f"part {parts.ids[i]}" if i is not None else f"row {r + 1}"
+
+    for r in _duplicate_columns(pgrid, pspot, findings, "parts", who):
+        if r in index:
+            parts.input_error[index[r]] = True
+    if lspot is not None and lspot.duplicates:
+        pcol = lspot.column("part")
+        keys = dict(zip(lspot.data_rows, read_text(lgrid, pcol.index, lspot.data_rows)))
+        by_id = {pid: i for i, pid in enumerate(parts.ids)}
+
+        def who_layer(r: int) -> str:
+            return f"part {keys.get(r)}, {lspot.sheet} row {r + 1}"
+
+        for r in _duplicate_columns(lgrid, lspot, findings, "layers", who_layer):
+            i = by_id.get(keys.get(r))
+            if i is not None:
+                parts.input_error[i] = True
+
+
 def validate_open_book(book: OpenBook) -> BookRating:
     """Read and check the book's tables without rating (the engine's input checks still run)."""
     return rate_open_book(book)
@@ -129,6 +251,7 @@ def rate_open_book(book: OpenBook) -> BookRating:
     if mspot is not None:
         _hidden_and_merged(mgrid, mspot, findings, "materials")
         materials = read_materials(mgrid, mspot, findings)
+        _refuse_conflicting_materials(mgrid, mspot, materials, findings)
         findings.extend(_filled_notes(materials))
     else:
         materials = MaterialSet()
@@ -136,11 +259,13 @@ def rate_open_book(book: OpenBook) -> BookRating:
     if lspot is not None:
         _hidden_and_merged(lgrid, lspot, findings, "layers")
     parts = read_parts(pgrid, pspot, materials, findings, lgrid, lspot)
+    _refuse_conflicting_parts(pgrid, pspot, lgrid, lspot, parts, findings)
     result.materials, result.parts = materials, parts
     result.parts_spot, result.layers_spot, result.materials_spot = pspot, lspot, mspot
     result.system = parts.system
     if parts.count == 0:
         findings.append(Finding(Severity.ERROR, pgrid.name, None, "the parts table has no parts"))
+        _anchor_merged(findings, [mgrid, pgrid, lgrid])
         return result
     ok = ~parts.input_error
     # Parts whose inputs are unusable still go to the engine with NaNs so shapes stay whole;
@@ -163,4 +288,5 @@ def rate_open_book(book: OpenBook) -> BookRating:
     result.rating = rating
     findings.extend(findings_from_rating(rating, parts, ok))
     result.rated = ok & np.asarray(rating.valid, dtype=bool)
+    _anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

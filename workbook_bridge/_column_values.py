@@ -20,7 +20,7 @@ from ._grid import SheetGrid, cell_ref
 from ._plausible import plausible_range
 from ._schema import Column
 
-__all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind"]
+__all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind", "quoted", "error_problem"]
 
 _KIND_WORDS = {
     "length": "a length",
@@ -52,9 +52,27 @@ class NumericColumn:
     empty: np.ndarray  # the cell was empty
 
 
+# Inputs that only make sense above zero (or at zero, where the range starts there): a sign slip
+# is worded as such rather than as an implausible magnitude.
+_SIGNED = frozenset({
+    "length", "outer_diameter", "inner_diameter", "torque", "power", "speed", "twist_limit_angle",
+    "twist_limit_per_length", "shear_modulus", "youngs_modulus", "allowable_shear", "yield_strength",
+    "ultimate_strength", "density",
+})
+_QUOTE_MAX = 60  # characters of a cell's text quoted in a message
+
+
+def quoted(text: str) -> str:
+    """A cell's text for a message: stripped, quoted, cut short when it is a pasted paragraph."""
+    text = text.strip()
+    if len(text) > _QUOTE_MAX:
+        return repr(text[:_QUOTE_MAX]) + f" (… {len(text)} characters)"
+    return repr(text)
+
+
 def _display(raw: object, header_unit: str | None) -> str:
     if isinstance(raw, str):
-        return repr(raw.strip())
+        return quoted(raw)
     if isinstance(raw, float) and raw.is_integer():
         raw = int(raw)
     return f"{raw} {header_unit}" if header_unit else f"{raw}"
@@ -122,12 +140,16 @@ def read_numeric(
             try:
                 v = parse_value(raw, field.kind, column.unit if factor is not None else None)
             except UnitProblem as exc:
-                problem = f"{raw.strip()!r}: {exc}"
+                problem = f"{quoted(raw)}: {_short(str(exc), raw)}"
         else:
             problem = f"expected {describe_kind(field.kind)}, got {raw!r}"
         if problem is None and rng is not None:
             lo, hi, unit, f = rng
-            if not (lo <= v <= hi):
+            if field.key in _SIGNED and (v < 0 or (v == 0 and lo > 0)):
+                sign = "negative" if v < 0 else "zero"
+                need = "greater than zero" if lo > 0 else "zero or more"
+                problem = f"{_display(raw, column.unit)} is {sign}; expected {describe_kind(field.kind)} {need}"
+            elif not (lo <= v <= hi):
                 problem = (
                     f"{_display(raw, column.unit)} = {_fmt(v / f)} {unit} is outside the plausible "
                     f"range {_fmt(lo / f)} to {_fmt(hi / f)} {unit} (common practice); check the unit"
@@ -140,6 +162,16 @@ def read_numeric(
             continue
         values[i] = v
     return NumericColumn(values, bad, empty)
+
+
+def _short(message: str, raw: str) -> str:
+    """A unit problem's message with a long cell text quoted again only by its start."""
+    text = raw.strip()
+    if len(text) > _QUOTE_MAX and len(message) > 4 * _QUOTE_MAX:
+        message = message.replace(repr(text), quoted(text))
+        if len(message) > 4 * _QUOTE_MAX:
+            message = message[: 4 * _QUOTE_MAX] + " …"
+    return message
 
 
 _EXAMPLES = {
@@ -156,6 +188,14 @@ _EXAMPLES = {
 
 def _example_unit(kind: str) -> str:
     return _EXAMPLES.get(kind, "")
+
+
+def error_problem(grid: SheetGrid, row: int, col: int, expected: str) -> str | None:
+    """The message for a text cell holding an Excel error value (``#N/A``), or None."""
+    err = grid.error_at(row, col)
+    if err is None:
+        return None
+    return f"the cell holds the error value {err}; expected {expected}"
 
 
 def read_text(grid: SheetGrid, col: int, rows: Sequence[int]) -> list[str | None]:

@@ -54,6 +54,20 @@ def prepare(path: Path) -> tuple[object, object]:
     return info, book
 
 
+def check_output_name(info, out: Path) -> None:
+    """Refuse an output name whose extension would make a spreadsheet program refuse the file."""
+    macro = bool(getattr(info, "macro_enabled", False))
+    ext = out.suffix.lower()
+    if macro and ext != ".xlsm":
+        raise BookUnusable(f"{out.name}: the book holds macros, so the copy must keep them under an .xlsm "
+                           f"name (Excel refuses a macro book named {ext or 'without an extension'}): "
+                           f"use -o {out.with_suffix('.xlsm').name}")
+    if not macro and ext not in (".xlsx", ".xlsm"):
+        raise BookUnusable(f"{out.name}: the output must be named .xlsx")
+    if not macro and ext == ".xlsm":
+        raise BookUnusable(f"{out.name}: the book holds no macros: name the output .xlsx")
+
+
 def comment_map(result: BookRating, findings: list[Finding]) -> dict[str, dict[str, str]]:
     """Findings grouped into one comment text per input cell."""
     part_cell: dict[str, tuple[str, str]] = {}
@@ -122,7 +136,8 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
     progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
     try:
         progress.step("check package")
-        _info, book = prepare(book_path)
+        info, book = prepare(book_path)
+        check_output_name(info, out)
         progress.step("read tables")
         result = rate_open_book(book)
     except (OoxmlError, BookUnusable) as exc:
@@ -203,7 +218,8 @@ def _add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Di
 
 def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
     try:
-        _info, book = prepare(book_path)
+        info, book = prepare(book_path)
+        check_output_name(info, out)
         result = rate_open_book(book)
     except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))

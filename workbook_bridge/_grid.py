@@ -65,8 +65,13 @@ class SheetGrid:
             r = self.rows[row]
             if col < len(r):
                 v = r[col]
-                return None if v == "" else v
+                # a cell holding only spaces is empty to the reader, as it looks to the user
+                return None if isinstance(v, str) and not v.strip() else v
         return None
+
+    def error_at(self, row: int, col: int) -> str | None:
+        """The error value (``#N/A``) the cell holds, or None."""
+        return self.errors.get((row, col))
 
     def merged_cover(self) -> dict[tuple[int, int], tuple[int, int]]:
         """Every cell inside a merged range (except its top-left) mapped to the top-left cell."""

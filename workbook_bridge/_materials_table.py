@@ -14,7 +14,7 @@ from twistshare.engine.core import (
     shear_modulus_from_elastic,
 )
 
-from ._column_values import read_flag, read_numeric, read_text
+from ._column_values import error_problem, read_flag, read_numeric, read_text
 from ._findings import Finding, Severity
 from ._grid import SheetGrid, cell_ref
 from ._schema import MATERIAL_FIELDS
@@ -162,6 +162,11 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) ->
     first_seen: dict[str, str] = {}
     for i, r in enumerate(rows):
         name = names[i]
+        err = error_problem(grid, r, name_col.index, "a material name")
+        if err is not None:
+            findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, name_col.index),
+                                    f"materials row {r + 1}: the name: {err}; the row is ignored"))
+            continue
         if name is None:
             findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, name_col.index),
                                     f"materials row {r + 1}: the material has no name; the row is ignored"))

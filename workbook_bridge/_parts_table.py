@@ -14,9 +14,9 @@ import numpy as np
 from twistshare.engine.core import torque_from_power
 from twistshare.engine.units import unit_system
 
-from ._column_values import NumericColumn, read_numeric, read_text
+from ._column_values import NumericColumn, error_problem, read_numeric, read_text
 from ._findings import Finding, Severity
-from ._grid import SheetGrid, cell_ref
+from ._grid import SheetGrid, cell_ref, parse_ref
 from ._materials_table import MaterialSet
 from ._tables import TableSpot
 
@@ -94,22 +94,29 @@ def read_parts(
     error = np.zeros(n, dtype=bool)
     header_seen: set[tuple[str, int]] = set()
     ids: list[str] = []
-    seen: dict[str, int] = {}
+    where: dict[str, list[int]] = {}
     for i, (r, pid) in enumerate(zip(rows, raw_ids)):
-        if pid is None:
+        err = error_problem(grid, r, pid_col.index, "a part id")
+        if pid is None or err is not None:
             pid = f"(row {r + 1})"
             error[i] = True
+            why = f"the part id: {err}" if err else "the part has no id"
             findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, pid_col.index),
-                                    f"row {r + 1}: the part has no id; it is not rated"))
-        elif pid in seen:
-            error[i] = True
-            first = rows[seen[pid]]
-            findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, pid_col.index),
-                                    f"part {pid}: the id appears again (first on row {first + 1}); "
-                                    "this row is not rated", part=pid))
+                                    f"row {r + 1}: {why}; it is not rated"))
         else:
-            seen[pid] = i
+            where.setdefault(pid, []).append(i)
         ids.append(pid)
+    # An id on two rows names two different shafts: rating either would put a number beside an
+    # id that a reader could look up on the other row, so neither is rated.
+    for pid, idx in where.items():
+        if len(idx) < 2:
+            continue
+        for i in idx:
+            error[i] = True
+            others = ", ".join(str(rows[k] + 1) for k in idx if k != i)
+            findings.append(Finding(Severity.ERROR, grid.name, cell_ref(rows[i], pid_col.index),
+                                    f"part {pid}: the id is also on row {others}; neither row is rated "
+                                    "until each part has its own id", part=pid))
     who = _who(ids, rows)
 
     def num(key: str) -> NumericColumn | None:
@@ -192,6 +199,9 @@ def read_parts(
     g = np.full((P, L), np.nan)
     tau = np.full((P, L), np.nan)
     cache: dict[str, tuple] = {}
+    grids = {grid.name: grid}
+    if layers_grid is not None:
+        grids[layers_grid.name] = layers_grid
     for i in range(P):
         for j in range(L):
             if not present[i, j]:
@@ -199,6 +209,10 @@ def read_parts(
             name = mats[i][j]
             sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
             if name is None:
+                g = grids.get(sheet)
+                if cell is not None and g is not None and g.error_at(*parse_ref(cell)) is not None:
+                    error[i] = True  # the error value is reported on its cell already
+                    continue
                 findings.append(Finding(Severity.ERROR, sheet, cell,
                                         f"part {ids[i]}, layer {j + 1}: no material given", part=ids[i], layer=j + 1))
                 error[i] = True
@@ -258,11 +272,24 @@ def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
             for i, r in enumerate(rows):
                 cells[(i, j, "material")] = (grid.name, cell_ref(r, mcol.index))
         for i in range(n):
-            used = names[i] is not None or any(not got[k].empty[i] for k in got)
+            used = names[i] is not None or any(not got[k].empty[i] for k in got if k != "kt")
             if not used:
+                k = got.get("kt")
+                if k is not None and not k.empty[i]:
+                    # templates often pre-fill Kt for every layer slot; a Kt alone is not a layer
+                    findings.append(Finding(Severity.WARNING, *cells[(i, j, "kt")],
+                                            f"part {ids[i]}, layer {layer}: Kt is given but the layer has no "
+                                            "material and no diameters; the slot is ignored",
+                                            part=ids[i], layer=layer))
                 continue
             present[i, j] = True
             mats[i][j] = names[i]
+            err = error_problem(grid, rows[i], mcol.index, "a material name") if mcol else None
+            if err is not None:
+                mats[i][j] = None
+                findings.append(Finding(Severity.ERROR, *cells[(i, j, "material")],
+                                        f"part {ids[i]}, layer {layer}: material: {err}", part=ids[i], layer=layer))
+                bad[i] = True
             for key in _LAYER_KEYS:
                 col = got.get(key)
                 if col is not None and col.bad[i]:
@@ -330,6 +357,11 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
     names = read_text(grid, mcol.index, rows) if mcol else [None] * len(rows)
     for i, r in enumerate(rows):
         pid = keys[i]
+        err = error_problem(grid, r, pcol.index, "a part id")
+        if err is not None:
+            findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
+                                    f"{spot.sheet} row {r + 1}: the part id: {err}; the layer is ignored"))
+            continue
         if pid is None:
             findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
                                     f"{spot.sheet} row {r + 1}: the layer names no part; the row is ignored"))
@@ -359,6 +391,12 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
         mats[p][j] = names[i]
         if mcol:
             cells[(p, j, "material")] = (grid.name, cell_ref(r, mcol.index))
+            err = error_problem(grid, r, mcol.index, "a material name")
+            if err is not None:
+                mats[p][j] = None
+                findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, mcol.index),
+                                        f"part {pid}, layer {j + 1}: material: {err}", part=pid, layer=j + 1))
+                bad[p] = True
         for key, nc in got.items():
             cells[(p, j, key)] = (grid.name, cell_ref(r, spot.column(key).index))
             if nc.bad[i]:

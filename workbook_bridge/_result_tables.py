@@ -114,7 +114,7 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
     margin_col = [Styled(m, "fail+fixed1") if f else m for m, f in zip(_column(margin, rated), fails.tolist())]
     errors = [None if k else first_error.get(pid, "see the warnings sheet") for pid, k in zip(parts.ids, rated)]
     cols: list[list] = [
-        list(parts.ids), status, parts.present.sum(axis=1).tolist(), (parts.torque / tf).tolist(),
+        list(parts.ids), status, parts.present.sum(axis=1).tolist(), _column(parts.torque / tf, rated),
         list(parts.duty_source), _column(get("governing_capacity") / tf, rated), governs, margin_col,
         _column(get("factor_of_safety"), rated), _column(get("sum_gj") / gj_f, rated),
         _column(get("twist_rate") / pf, rated), _column(get("twist_angle") / af, rated),

@@ -79,10 +79,11 @@ def _first(value: object) -> tuple[object, str | None]:
 
 
 def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
-    from ._commands import EXIT_OK, EXIT_PART_ERRORS, _fail, prepare
+    from ._commands import EXIT_OK, EXIT_PART_ERRORS, _fail, check_output_name, prepare
 
     try:
         info, book = prepare(book_path)
+        check_output_name(info, out)
     except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))
     functions = cell_functions()

@@ -23,6 +23,7 @@ class TableSpot:
     duplicate_headers: tuple[tuple[int, str], ...]
     first_col: int = 0
     last_col: int | None = None
+    duplicates: tuple[Column, ...] = ()  # later columns naming an input an earlier column names
 
     def column(self, key: str, layer: int = 0) -> Column | None:
         for c in self.columns:
@@ -37,10 +38,10 @@ class TableSpot:
 
 def _match_row(
     row: list[object], fields: tuple[Field, ...], layer_groups: bool, first_col: int, last_col: int | None
-) -> tuple[list[Column], list[tuple[int, str]]]:
+) -> tuple[list[Column], list[Column]]:
     cols: list[Column] = []
     seen: set[tuple[str, int]] = set()
-    dups: list[tuple[int, str]] = []
+    dups: list[Column] = []
     stop = len(row) if last_col is None else min(len(row), last_col + 1)
     for c in range(first_col, stop):
         h = row[c]
@@ -58,7 +59,7 @@ def _match_row(
         field, unit = m
         key = (field.key, layer)
         if key in seen:
-            dups.append((c, h))
+            dups.append(Column(field, c, h, unit, layer))
             continue
         seen.add(key)
         cols.append(Column(field, c, h, unit, layer))
@@ -94,5 +95,6 @@ def locate_table(
             for rr in range(r + 1, end)
             if any(grid.value(rr, c) is not None for c in idx)
         )
-        return TableSpot(grid.name, r, data, tuple(cols), tuple(dups), first_col, last_col)
+        return TableSpot(grid.name, r, data, tuple(cols), tuple((d.index, d.header) for d in dups),
+                         first_col, last_col, tuple(dups))
     return None
