@@ -145,11 +145,11 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
 
 
 def warnings_rows(findings: list[Finding]) -> list[list]:
-    rows: list[list] = [[Styled(h, "header") for h in ("Cell", "Sheet", "Part", "Layer", "Severity", "Message")]]
+    rows: list[list] = [[Styled(h, "header") for h in ("Sheet", "Cell", "Part", "Layer", "Severity", "Message")]]
     order = {Severity.ERROR: 0, Severity.WARNING: 1, Severity.NOTE: 2}
     for f in sorted(findings, key=lambda f: order[f.severity]):
         style = "fail" if f.severity is Severity.ERROR else "warn" if f.severity is Severity.WARNING else "note"
-        rows.append([f.cell, f.sheet, f.part, f.layer, Styled(f.severity.value, style), f.message])
+        rows.append([f.sheet, f.cell, f.part, f.layer, Styled(f.severity.value, style), f.message])
     return rows
 
 

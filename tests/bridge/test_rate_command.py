@@ -247,7 +247,7 @@ class TestRateCatalogue:
 
     def test_warnings_sheet_lists_every_error(self, rated):
         ws = _load(rated["out"])["Twistshare warnings"]
-        cells = {(r[1], r[0]) for r in ws.iter_rows(values_only=True) if r and r[4] == "error"}
+        cells = {(r[0], r[1]) for r in ws.iter_rows(values_only=True) if r and r[4] == "error"}
         for p in planted_problems():
             if p.book == CATALOGUE.name:
                 assert (p.sheet, p.cell) in cells

@@ -70,7 +70,8 @@ def cell_xml(pre: str, style_attr: str, value: Any, where: Callable[[], str]) ->
 
 def stream_rows(rows: Iterable[Sequence[Any]], write: Callable[[bytes], Any],
                 style_attr_of: Callable[[str], str], column_style_attrs: Sequence[str],
-                first_row: int = 1, flush_every: int = 2000) -> tuple[int, int]:
+                first_row: int = 1, flush_every: int = 2000,
+                first_row_height: float | None = None) -> tuple[int, int]:
     """Write <row> elements for ``rows`` through ``write``; return (last row, widest column).
 
     ``style_attr_of`` turns a style name into ' s="N"'; ``column_style_attrs[i]`` is the attribute
@@ -121,7 +122,10 @@ def stream_rows(rows: Iterable[Sequence[Any]], write: Callable[[bytes], Any],
                     add(xml)
         if cells:
             widest = max(widest, n)
-            append(f'<row r="{rs}">')
+            if first_row_height is not None and row_number == first_row:
+                append(f'<row r="{rs}" ht="{float(first_row_height):g}" customHeight="1">')
+            else:
+                append(f'<row r="{rs}">')
             append("".join(cells))
             append("</row>")
         if row_number % flush_every == 0:

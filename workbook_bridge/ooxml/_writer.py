@@ -251,7 +251,7 @@ class BookWriter:
                   column_widths: Sequence[float | None] | None = None,
                   column_styles: Sequence[str | None] | None = None,
                   freeze_header: bool = True, tab_color: str | None = None,
-                  print_fit_one_page: bool = False) -> SheetHandle:
+                  print_fit_one_page: bool = False, header_height: float | None = None) -> SheetHandle:
         """Add a worksheet after the book's own sheets, streaming ``rows`` into it.
 
         Parameters
@@ -271,6 +271,8 @@ class BookWriter:
             ARGB hex such as 'FF1F3A4D'.
         print_fit_one_page : bool
             Scale the sheet to print on one page.
+        header_height : float, optional
+            Height of row 1 in points (room for wrapped header text).
 
         Returns
         -------
@@ -290,7 +292,8 @@ class BookWriter:
         col_attrs = [self._style_attr(s) for s in (column_styles or ())]
         body = tempfile.TemporaryFile(prefix="twistshare-rows-")
         try:
-            last_row, widest = stream_rows(rows, body.write, self._style_attr, col_attrs)
+            last_row, widest = stream_rows(rows, body.write, self._style_attr, col_attrs,
+                                           first_row_height=header_height)
         except BaseException:
             body.close()
             raise
