@@ -51,7 +51,7 @@ class XlwingsBook:
             cell = ws.range(ref)
             note = cell.note
             if note is None:
-                cell.add_note(text)
+                cell.add_note(f"{_MARK}\n{text}")
                 continue
             # Keep the user's own note; replace only what an earlier run of ours appended.
             own = note.text.split(_MARK)[0].rstrip()
