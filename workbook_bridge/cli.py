@@ -7,6 +7,7 @@ Exit codes: 0 every part rated; 1 some parts had errors (the output is still wri
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from pathlib import Path
 
@@ -67,6 +68,13 @@ def main(argv: list[str] | None = None) -> int:
         return _run(args)
     except KeyboardInterrupt:
         print("twistshare: interrupted; nothing was written under the output name", file=sys.stderr)
+        return EXIT_UNUSABLE
+    except Exception as exc:  # a bug of ours: one clear line, never a traceback, nothing written
+        if os.environ.get("TWISTSHARE_DEBUG"):
+            raise
+        print(f"twistshare: internal error ({type(exc).__name__}: {' '.join(str(exc).split())[:300]}); "
+              "nothing was written. Please report it with the book if you can; "
+              "TWISTSHARE_DEBUG=1 shows the details", file=sys.stderr)
         return EXIT_UNUSABLE
 
 
