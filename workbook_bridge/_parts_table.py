@@ -209,8 +209,8 @@ def read_parts(
             name = mats[i][j]
             sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
             if name is None:
-                g = grids.get(sheet)
-                if cell is not None and g is not None and g.error_at(*parse_ref(cell)) is not None:
+                src = grids.get(sheet)
+                if cell is not None and src is not None and src.error_at(*parse_ref(cell)) is not None:
                     error[i] = True  # the error value is reported on its cell already
                     continue
                 findings.append(Finding(Severity.ERROR, sheet, cell,

@@ -6,12 +6,20 @@ import zipfile
 from dataclasses import dataclass
 from pathlib import Path
 
+import zlib
+
 import python_calamine as pc
 
 from ._grid import SheetGrid
-from ._sheet_extras import sheet_extras
+from ._sheet_extras import SheetExtras, sheet_extras
+from .ooxml._package import Limits
 
 __all__ = ["BookUnusable", "OpenBook", "open_book"]
+
+
+# The fast reader holds a sheet as a dense grid of about 32 bytes a cell, and the bridge then as
+# Python lists: 40 million cells stay well inside the 2 GB the biggest catalogue may use.
+MAX_SHEET_CELLS = 40_000_000
 
 
 class BookUnusable(ValueError):
@@ -39,17 +47,50 @@ class OpenBook:
     _wb: object
 
     def grid(self, name: str) -> SheetGrid:
-        """The sheet's values anchored at A1, with its error cells, hidden rows and merges."""
-        sheet = self._wb.get_sheet_by_name(name)
-        rows = sheet.to_python(skip_empty_area=False)
-        merged = tuple(sheet.merged_cell_ranges or ())
+        """The sheet's values anchored at A1, with its error cells, hidden rows and merges.
+
+        Raises
+        ------
+        BookUnusable
+            The sheet reaches past the rows the tool rates, spans too many cells to hold, or its
+            part cannot be read (corrupt, or larger than it declares).
+        """
         errors: dict = {}
         hidden: frozenset = frozenset()
         member = self.sheet_parts.get(name)
         if member:
-            with zipfile.ZipFile(self.path) as zf:
-                errors, hidden = sheet_extras(zf, member)
+            extras = self._scan(name, member)
+            errors, hidden = extras.errors, extras.hidden
+        try:
+            sheet = self._wb.get_sheet_by_name(name)
+            rows = sheet.to_python(skip_empty_area=False)
+            merged = tuple(sheet.merged_cell_ranges or ())
+        except Exception as exc:  # calamine's errors are not one family; word them in one line
+            raise BookUnusable(f"{self.path.name}: sheet {name!r} could not be read ({_one_line(exc)})") from None
         return SheetGrid(name, rows, errors, hidden, merged)
+
+    def _scan(self, name: str, member: str) -> SheetExtras:
+        from ._commands import MAX_TABLE_ROWS  # the lead's rule, kept in one place
+
+        try:
+            with zipfile.ZipFile(self.path) as zf:
+                size = zf.getinfo(member).file_size
+                if size > Limits().max_part_parsed:
+                    raise BookUnusable(f"{self.path.name}: sheet {name!r} is {size:,} bytes of XML, more than "
+                                       f"the {Limits().max_part_parsed:,} this tool reads")
+                extras = sheet_extras(zf, member, MAX_SHEET_CELLS)
+        except (zipfile.BadZipFile, zlib.error, EOFError, OSError, KeyError) as exc:
+            raise BookUnusable(f"{self.path.name}: sheet {name!r} is corrupt ({_one_line(exc)})") from None
+        if extras.rows > MAX_TABLE_ROWS:
+            raise BookUnusable(
+                f"{self.path.name}: sheet {name!r} reaches row {extras.rows:,}; twistshare rates up to "
+                f"{MAX_TABLE_ROWS:,} rows per table: clear the unused rows or split the catalogue")
+        if extras.rows * extras.columns > MAX_SHEET_CELLS:
+            raise BookUnusable(
+                f"{self.path.name}: sheet {name!r} spans {extras.rows:,} rows by {extras.columns:,} columns, "
+                f"more than the {MAX_SHEET_CELLS:,} cells twistshare reads from one sheet: clear the unused "
+                "cells (a stray value far right or far down)")
+        return extras
 
     def find_sheet(self, wanted: str) -> str | None:
         """A sheet whose name is ``wanted``, ignoring case and surrounding spaces."""
@@ -57,6 +98,10 @@ class OpenBook:
             if n.strip().lower() == wanted.lower():
                 return n
         return None
+
+
+def _one_line(exc: BaseException) -> str:
+    return f"{type(exc).__name__}: {' '.join(str(exc).split())[:200]}"
 
 
 def open_book(path: Path, sheet_parts: dict[str, str]) -> OpenBook:
