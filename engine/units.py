@@ -601,7 +601,9 @@ def si_factor(unit_text: str, kind: str) -> float:
 
 
 _NUMBER = re.compile(
-    r"\s*(?P<num>[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(?P<unit>(?:\s*[^\d\s,].*)?)\s*\Z",
+    # A unit right after the number must not start with a digit, comma or point ("1.200,5" is a
+    # decimal comma, not 1 and a unit ".200,5"); after a space it may ("1450 1/min").
+    r"\s*(?P<num>[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(?P<unit>(?:\s+\S.*|[^\d\s,.].*)?)\s*\Z",
     re.DOTALL,
 )
 _COMMA_NUMBER = re.compile(r"\s*[+-]?\d*[,.]?\d+,\d")
@@ -685,7 +687,7 @@ def parse_value(text_or_number: object, kind: str, default_unit: str | None = No
         if not shown:
             raise UnitProblem("", kind, "empty",
                               message=f"cell is empty; expected {_KIND_PHRASE[kind]}")
-        match = _NUMBER.match(value)
+        match = None if _SPACED_DIGITS.match(value) else _NUMBER.match(value)
         if match is None:
             if _THOUSANDS_COMMA.match(value):
                 raise UnitProblem(shown, kind, "a comma in the number",

@@ -408,12 +408,7 @@ def test_corpus_is_large_enough():
 
 # Refused, but without the advice the class promises: the cell-value parser in engine/units.py
 # (not owned here) never reaches the unit check for these spellings.
-XFAIL = {
-    "unit speed 1450 1/min": "engine/units.py _NUMBER: a unit may not start with a digit, so '1450 1/min' is "
-                             "'not a number with a unit' instead of the frequency advice ('write rpm')",
-    "text number length '1.200,5'": "engine/units.py _NUMBER takes '1' + unit '.200,5' before the comma checks "
-                                    "run: the message says 'not a unit' instead of 'a decimal comma'",
-}
+XFAIL: dict[str, str] = {}  # cases known to fail, with the reason; none at present
 
 
 def _param(name: str):
@@ -598,7 +593,6 @@ def _text(draw):
 def _comma_number(draw):
     key = draw(st.sampled_from(("length", "torque", "od1", "od2")))
     a, b = draw(st.integers(1, 999)), draw(st.integers(0, 999))
-    # '1.234,5' is left to the handwritten case marked xfail (units.py words it as 'not a unit')
     form = draw(st.sampled_from(("thousands", "decimal", "spaced")))
     text, word = {
         "thousands": (f"{a},{b:03d}", "comma"),

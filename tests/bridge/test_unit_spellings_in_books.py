@@ -160,13 +160,10 @@ def test_header_spelling_reads_right(tmp_path, key, unit, factor):
         assert _close(a, b) == []
 
 
-# engine/units.py's cell parser takes no unit that starts with a digit ('12 1/s' is "not a number
-# with a unit"): refused, never misread, but without the advice. Tested apart, marked xfail.
-_CELL_REFUSED = [r for r in REFUSED if not r[1][0].isdigit()]
+# Spellings that start with a digit ('12 1/s') are also tested on their own below.
+_CELL_REFUSED = list(REFUSED)
 
 
-@pytest.mark.xfail(strict=True, reason="engine/units.py _NUMBER: a cell unit may not start with a digit, so "
-                   "'12 1/s' gets 'not a number with a unit' instead of the advice to write rpm")
 def test_refused_cell_spelling_starting_with_a_digit(tmp_path):
     """'12 1/s' in a speed cell: refused with the advice to write rpm, as in a header."""
     code, out = _run(bm.build_book(tmp_path / "digit.xlsx", 2, {1: Case("d", "spelling", _cells("speed", "12 1/s"))}))

@@ -541,3 +541,22 @@ class TestRegistryAndProblem:
     def test_kinds(self):
         assert units.KINDS == ("length", "stress", "torque", "power", "speed", "angle",
                                "angle_per_length", "density", "dimensionless")
+
+
+class TestNumberUnitSplitRegressions:
+    """A unit that starts with a digit after a space is parsed as a unit; one glued on is not."""
+
+    def test_unit_starting_with_a_digit_gets_its_advice(self):
+        with pytest.raises(UnitProblem) as exc:
+            parse_value("1450 1/min", "speed", "rpm")
+        assert "rpm" in str(exc.value)
+
+    def test_decimal_comma_after_a_thousands_point(self):
+        with pytest.raises(UnitProblem) as exc:
+            parse_value("1.200,5", "length", "mm")
+        assert "decimal comma" in str(exc.value)
+
+    def test_spaced_digits_before_a_unit(self):
+        with pytest.raises(UnitProblem) as exc:
+            parse_value("1 200 N·m", "torque")
+        assert "spaces" in str(exc.value)
