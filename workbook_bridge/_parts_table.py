@@ -45,13 +45,48 @@ class PartsInput:
     input_error: np.ndarray  # (P,) bool: an input cell made the part unratable
     materials: list[list[str | None]]
     duty_source: list[str]  # "torque" or "power"
-    layer_cells: dict[tuple[int, int, str], tuple[str, str]] = field(default_factory=dict)
-    part_cells: dict[tuple[int, str], tuple[str, str]] = field(default_factory=dict)
+    layer_cells: "CellRefs" = None  # (part, layer, field) -> (sheet, A1)
+    part_cells: "CellRefs" = None  # (part, field) -> (sheet, A1)
     system: str = "SI"
 
     @property
     def count(self) -> int:
         return len(self.ids)
+
+
+class CellRefs:
+    """Where each input came from, (part index, ..., field) -> (sheet, A1), worked out on request.
+
+    A whole column is registered once (``column``); single cells (the one-row-per-layer layout)
+    are set like a dict. A 50 000-part book would otherwise build a million references that
+    only the few bad parts ever need.
+    """
+
+    def __init__(self, sheet: str, rows: list[int]) -> None:
+        self._sheet, self._rows = sheet, rows
+        self._columns: dict[tuple, int] = {}
+        self._cells: dict[tuple, tuple[str, str]] = {}
+
+    def column(self, key: tuple, col: int) -> None:
+        self._columns[key] = col
+
+    def __setitem__(self, key: tuple, value: tuple[str, str]) -> None:
+        self._cells[key] = value
+
+    def get(self, key: tuple, default=None):
+        got = self._cells.get(key)
+        if got is not None:
+            return got
+        col = self._columns.get(key[1:])
+        if col is None:
+            return default
+        return self._sheet, cell_ref(self._rows[key[0]], col)
+
+    def __getitem__(self, key: tuple) -> tuple[str, str]:
+        got = self.get(key)
+        if got is None:
+            raise KeyError(key)
+        return got
 
 
 def _who(ids: list[str | None], rows: list[int], layer: int | None = None):
@@ -126,7 +161,7 @@ def read_parts(
         nc = read_numeric(grid, col, rows, who, findings, spot.header_row, header_seen)
         return nc
 
-    part_cells: dict[tuple[int, str], tuple[str, str]] = {}
+    part_cells = CellRefs(grid.name, rows)
     cols = {}
     for key in ("length", "torque", "power", "speed", "service_factor", "twist_limit_angle",
                 "twist_limit_per_length"):
@@ -134,9 +169,7 @@ def read_parts(
         cols[key] = nc
         if nc is not None:
             error |= nc.bad
-            c = spot.column(key).index
-            for i, r in enumerate(rows):
-                part_cells[(i, key)] = (grid.name, cell_ref(r, c))
+            part_cells.column((key,), spot.column(key).index)
 
     def vals(key: str) -> np.ndarray:
         nc = cols.get(key)
@@ -207,8 +240,8 @@ def read_parts(
             if not present[i, j]:
                 continue
             name = mats[i][j]
-            sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
             if name is None:
+                sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
                 src = grids.get(sheet)
                 if cell is not None and src is not None and src.error_at(*parse_ref(cell)) is not None:
                     error[i] = True  # the error value is reported on its cell already
@@ -222,6 +255,7 @@ def read_parts(
                 got = cache[name] = materials.lookup(name)
             m, problem = got
             if m is None:
+                sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
                 findings.append(Finding(Severity.ERROR, sheet, cell, f"part {ids[i]}, layer {j + 1}: {problem}",
                                         part=ids[i], layer=j + 1))
                 error[i] = True
@@ -248,7 +282,7 @@ def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
     present = np.zeros(od.shape, dtype=bool)
     bad = np.zeros(n, dtype=bool)
     mats: list[list[str | None]] = [[None] * max(L, 1) for _ in range(n)]
-    cells: dict[tuple[int, int, str], tuple[str, str]] = {}
+    cells = CellRefs(grid.name, rows)
     if not numbers:
         findings.append(Finding(Severity.ERROR, grid.name, cell_ref(spot.header_row, 0),
                                 "the parts table has no layer columns: expected 'Layer 1 material', "
@@ -264,13 +298,11 @@ def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
             if col is None:
                 continue
             got[key] = read_numeric(grid, col, rows, who, findings, spot.header_row, header_seen)
-            for i, r in enumerate(rows):
-                cells[(i, j, key)] = (grid.name, cell_ref(r, col.index))
+            cells.column((j, key), col.index)
         mcol = spot.column("material", layer)
         names = read_text(grid, mcol.index, rows) if mcol else [None] * n
         if mcol:
-            for i, r in enumerate(rows):
-                cells[(i, j, "material")] = (grid.name, cell_ref(r, mcol.index))
+            cells.column((j, "material"), mcol.index)
         for i in range(n):
             used = names[i] is not None or any(not got[k].empty[i] for k in got if k != "kt")
             if not used:
@@ -345,7 +377,7 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
     present = np.zeros(od.shape, dtype=bool)
     bad = np.zeros(n, dtype=bool)
     mats: list[list[str | None]] = [[None] * L for _ in range(n)]
-    cells: dict[tuple[int, int, str], tuple[str, str]] = {}
+    cells = CellRefs(grid.name, rows)  # each layer has its own row: references set one by one
 
     def who(r: int) -> str:
         i = rows.index(r)

@@ -66,6 +66,20 @@ def _match_row(
     return cols, dups
 
 
+def _has_data(grid: SheetGrid, r: int, idx: list[int]) -> bool:
+    """True if any of the table's columns holds something in row ``r`` (an error value counts)."""
+    row = grid.rows[r]
+    width = len(row)
+    for c in idx:
+        if c < width:
+            v = row[c]
+            if v is not None and v != "" and not (type(v) is str and not v.strip()):
+                return True
+    if grid.errors:
+        return any((r, c) in grid.errors for c in idx)
+    return False
+
+
 def locate_table(
     grid: SheetGrid,
     fields: tuple[Field, ...],
@@ -90,11 +104,7 @@ def locate_table(
             continue
         end = grid.height if last_row is None else min(grid.height, last_row + 1)
         idx = [c.index for c in cols]
-        data = tuple(
-            rr
-            for rr in range(r + 1, end)
-            if any(grid.value(rr, c) is not None for c in idx)
-        )
+        data = tuple(rr for rr in range(r + 1, end) if _has_data(grid, rr, idx))
         return TableSpot(grid.name, r, data, tuple(cols), tuple((d.index, d.header) for d in dups),
                          first_col, last_col, tuple(dups))
     return None

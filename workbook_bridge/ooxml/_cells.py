@@ -33,12 +33,17 @@ class Cell:
 CellValue = Any  # None | bool | int | float | str | Cell
 
 
-def _text_xml(pre: str, style_attr: str, text: str) -> str:
+def _text_body(text: str) -> str:
+    """The ``<t>`` element of an inline string (escaped, cut to the cell limit)."""
     if len(text) > MAX_TEXT:
         text = text[: MAX_TEXT - 1] + "\u2026"
     body = escape_text(text)
     space = ' xml:space="preserve"' if body[:1].isspace() or body[-1:].isspace() or "\n" in body else ""
-    return f'{pre}{style_attr} t="inlineStr"><is><t{space}>{body}</t></is></c>'
+    return f"<t{space}>{body}</t>"
+
+
+def _text_xml(pre: str, style_attr: str, text: str) -> str:
+    return f'{pre}{style_attr} t="inlineStr"><is>{_text_body(text)}</is></c>'
 
 
 def cell_xml(pre: str, style_attr: str, value: Any, where: Callable[[], str]) -> str:
@@ -80,6 +85,7 @@ def stream_rows(rows: Iterable[Sequence[Any]], write: Callable[[bytes], Any],
     pres: list[str] = []
     col_attrs = list(column_style_attrs)
     cache: dict[str | None, str] = {None: ""}
+    texts: dict[str, str] = {}
     buf: list[str] = []
     append = buf.append
     row_number = first_row - 1
@@ -105,7 +111,12 @@ def stream_rows(rows: Iterable[Sequence[Any]], write: Callable[[bytes], Any],
                 continue
             elif kind is str:
                 if value:
-                    add(_text_xml(f'{pres[i]}{rs}"', col_attrs[i], value))
+                    # Catalogues repeat the same few texts (materials, statuses) thousands of
+                    # times: escape each once.
+                    body = texts.get(value)
+                    if body is None:
+                        body = texts[value] = _text_body(value)
+                    add(f'{pres[i]}{rs}"{col_attrs[i]} t="inlineStr"><is>{body}</is></c>')
             elif kind is int:
                 add(f'{pres[i]}{rs}"{col_attrs[i]}><v>{value}</v></c>')
             else:
