@@ -14,10 +14,8 @@ from __future__ import annotations
 
 import contextlib
 import datetime as dt
-import importlib.util
 import io
 import math
-import sys
 from pathlib import Path
 
 import pytest
@@ -27,18 +25,10 @@ from hypothesis import strategies as st
 from twistshare.engine.core import find_material
 from twistshare.workbook_bridge.cli import main
 
-
-def _load_bookmaker():
-    name = "twistshare_tests_bookmaker"
-    if name not in sys.modules:
-        spec = importlib.util.spec_from_file_location(name, Path(__file__).with_name("_bookmaker.py"))
-        mod = importlib.util.module_from_spec(spec)
-        sys.modules[name] = mod
-        spec.loader.exec_module(mod)
-    return sys.modules[name]
+import _bookmaker
 
 
-bm = _load_bookmaker()
+bm = _bookmaker  # the book builder shared by the bad-input tests (tests/bridge on pythonpath)
 Case, ErrorValue, RawNumber = bm.Case, bm.ErrorValue, bm.RawNumber
 CORE, SLEEVE = bm.CORE, bm.SLEEVE
 

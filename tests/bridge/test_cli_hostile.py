@@ -11,7 +11,6 @@ from __future__ import annotations
 
 import contextlib
 import hashlib
-import importlib.util
 import io
 import os
 import re
@@ -26,20 +25,12 @@ import pytest
 from twistshare.workbook_bridge._commands import MAX_TABLE_ROWS
 from twistshare.workbook_bridge.cli import main
 
+import _bookmaker
+
 CONSOLE = Path(sys.executable).with_name("twistshare")
 
 
-def _load_bookmaker():
-    name = "twistshare_tests_bookmaker"
-    if name not in sys.modules:
-        spec = importlib.util.spec_from_file_location(name, Path(__file__).with_name("_bookmaker.py"))
-        mod = importlib.util.module_from_spec(spec)
-        sys.modules[name] = mod
-        spec.loader.exec_module(mod)
-    return sys.modules[name]
-
-
-bm = _load_bookmaker()
+bm = _bookmaker  # the book builder shared by the bad-input tests (tests/bridge on pythonpath)
 
 REL = "http://schemas.openxmlformats.org/officeDocument/2006/relationships"
 OLE2 = b"\xd0\xcf\x11\xe0\xa1\xb1\x1a\xe1"  # compound file signature ([MS-CFB] 2.2)

@@ -15,27 +15,17 @@ Refused spellings must get a comment saying what to write instead (units.py's ad
 
 from __future__ import annotations
 
-import importlib.util
 import math
-import sys
 from pathlib import Path
 
 import pytest
 
 from twistshare.workbook_bridge.cli import main
 
-
-def _load_bookmaker():
-    name = "twistshare_tests_bookmaker"
-    if name not in sys.modules:
-        spec = importlib.util.spec_from_file_location(name, Path(__file__).with_name("_bookmaker.py"))
-        mod = importlib.util.module_from_spec(spec)
-        sys.modules[name] = mod
-        spec.loader.exec_module(mod)
-    return sys.modules[name]
+import _bookmaker
 
 
-bm = _load_bookmaker()
+bm = _bookmaker  # the book builder shared by the bad-input tests (tests/bridge on pythonpath)
 Case = bm.Case
 
 IN, FT, LBF, KGF = 0.0254, 0.3048, 4.4482216152605, 9.80665  # NIST SP 811, Appendix B
