@@ -168,7 +168,7 @@ def _filled_notes(materials: MaterialSet) -> list[Finding]:
         label, kind, unit = kinds.get(f.field, (f.field, "dimensionless", ""))
         shown = f"{f.value_si / si_factor(unit, kind):.4g} {unit}".strip() if unit else f"{f.value_si:.4g}"
         out.append(Finding(Severity.NOTE, f.sheet, f.cell,
-                           f"left blank; filled from the built-in library ({f.material}): {label} = {shown}; "
+                           f"blank in the book; this copy shows the built-in library's value ({f.material}): {label} = {shown}; "
                            f"source: {f.source}"))
     return out
 

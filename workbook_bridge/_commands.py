@@ -175,7 +175,39 @@ def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display,
         writer.add_sheet("Twistshare materials", _cells(materials_rows(result.materials, display)),
                          column_widths=[30, 9, 10, 14, 38, 14, 14, 10, 8, 60], header_height=32)
     _add_charts(writer, summ, srows, layout, display)
+    _fill_library_values(writer, result)
     del res
+
+
+def _fill_library_values(writer: BookWriter, result: BookRating) -> None:
+    """In the copy, write the library's values into the blank materials cells they filled.
+
+    Each such cell gets the 'filled' look and (elsewhere) a comment naming the source; the
+    value is written in the column's own unit. Cells whose column has no unit are left blank
+    (the comment still says what was used).
+    """
+    from twistshare.engine.units import UnitProblem, si_factor
+
+    from ._schema import MATERIAL_FIELDS
+
+    mats = result.materials
+    if mats is None or not mats.filled or mats.spot is None:
+        return
+    kinds = {f.key: f.kind for f in MATERIAL_FIELDS}
+    for f in mats.filled:
+        col = mats.spot.column(f.field)
+        if col is None:
+            continue
+        try:
+            factor = si_factor(col.unit, kinds[f.field]) if col.unit else (1.0 if kinds[f.field] == "dimensionless" else None)
+        except UnitProblem:
+            factor = None
+        if factor is None:
+            continue
+        try:
+            writer.fill_cells(f.sheet, {f.cell: Cell(round(f.value_si / factor, 10), "filled")})
+        except OoxmlError:
+            continue  # the cell is not empty in the file (e.g. spaces): the comment alone says it
 
 
 def _col_values(rows: list[list], first: int, last: int, col: int) -> list:

@@ -220,8 +220,21 @@ class TestRateCatalogue:
         ws = _load(rated["out"])["Materials"]
         comment = ws["B2"].comment  # AISI 1045 hot rolled, G left blank
         assert comment is not None
-        assert "filled from the built-in library" in comment.text
+        assert "built-in library's value" in comment.text
         assert "source:" in comment.text
+        # the copy shows the value in the column's unit, marked; the input stays blank
+        lib_g = find_material("AISI 1045 hot rolled").shear_modulus
+        assert ws["B2"].value == pytest.approx(lib_g / 1e9, rel=1e-9)
+        assert ws["B2"].font.i
+        assert openpyxl.load_workbook(rated["src"])["Materials"]["B2"].value is None
+
+    def test_fill_never_overwrites(self, rated):
+        ws = _load(rated["out"])["Materials"]
+        src = openpyxl.load_workbook(rated["src"])["Materials"]
+        for row in src.iter_rows():
+            for c in row:
+                if c.value is not None:
+                    assert ws[c.coordinate].value == c.value, c.coordinate
 
     def test_added_sheets_and_cautions(self, rated):
         wb = _load(rated["out"])

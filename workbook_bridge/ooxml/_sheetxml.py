@@ -104,6 +104,15 @@ _CELL = re.compile(r"<(?P<p>(?:[\w.-]+:)?)c\s(?P<attrs>[^>]*?\br=\"(?P<r>[^\"]*)
 _SHARED_F = re.compile(r"<(?:[\w.-]+:)?f\b([^>]*?)/?>")
 
 
+class StyledValue:
+    """A value for ``replace_cells`` that also sets the cell's format (an xf index)."""
+
+    __slots__ = ("value", "xf")
+
+    def __init__(self, value: Any, xf: int) -> None:
+        self.value, self.xf = value, xf
+
+
 def replace_cells(text: str, values: Mapping[str, Any]) -> tuple[str, dict[str, str], int]:
     """Replace the given cells of a user's worksheet by plain values, formulas dropped.
 
@@ -154,7 +163,10 @@ def replace_cells(text: str, values: Mapping[str, Any]) -> tuple[str, dict[str, 
                 masters[f_attrs["si"]] = ref
         keep = f' r="{attrs["r"]}"'
         style = f' s="{attrs["s"]}"' if "s" in attrs else ""
-        xml = cell_xml(f"<{p}c{keep}", style, wanted.pop(ref), lambda: ref)
+        value = wanted.pop(ref)
+        if isinstance(value, StyledValue):  # a new look chosen by the caller (an xf index)
+            style, value = f' s="{value.xf}"', value.value
+        xml = cell_xml(f"<{p}c{keep}", style, value, lambda: ref)
         if p:
             xml = xml.replace("<is><t", f"<{p}is><{p}t").replace("</t></is></c>", f"</{p}t></{p}is></{p}c>")
             xml = xml.replace("><v>", f"><{p}v>").replace("</v></c>", f"</{p}v></{p}c>")

@@ -28,7 +28,7 @@ import zlib
 from dataclasses import dataclass, field
 from typing import Any, BinaryIO, Iterable, Mapping, Sequence
 
-from ._cells import stream_rows
+from ._cells import Cell, stream_rows
 from ._charts import BarChart, ScatterChart, anchor_cell, chart_xml, drawing_xml, range_ref
 from ._comments import (SEPARATOR, comment_refs, merge_comments_part, merge_vml, new_comments_part,
                         new_vml, vml_blocks, vml_note_cells)
@@ -38,7 +38,7 @@ from ._opc import (CT, RT, add_overrides, append_rels, new_rels, next_rel_id, pa
                    rels_path_of, relative_target, remove_overrides, remove_rels, tag_attributes)
 from ._package import Limits, Package
 from ._safety import PackageInfo, SheetInfo, read_package_info
-from ._sheetxml import (insert_link_element, insert_missing_cells, relationship_prefix, replace_cells, sheet_head,
+from ._sheetxml import (StyledValue, insert_link_element, insert_missing_cells, relationship_prefix, replace_cells, sheet_head,
                         sheet_tail)
 from ._styles import MINIMAL_STYLES, StyleBook
 from ._xmltext import (NS_REL, column_letters, decode_xml, escape_attr, escape_text, find_element_span,
@@ -159,6 +159,21 @@ def _set_level(info: zipfile.ZipInfo, level: int) -> zipfile.ZipInfo:
     # Python 3.13 names it compress_level; earlier versions only have the private slot.
     setattr(info, "compress_level" if hasattr(zipfile.ZipInfo, "compress_level") else "_compresslevel", level)
     return info
+
+
+_VALUE_IN_CELL = re.compile(r"<(?:[\w.-]+:)?(?:v|is|f)\b")
+
+
+def _holds_values(text: str, refs: Sequence[str]) -> bool:
+    """True if any of the cells holds a value or a formula in the sheet XML."""
+    for ref in refs:
+        col, row = split_ref(ref)
+        m = re.search(rf'<(?P<p>(?:[\w.-]+:)?)c\s[^>]*?\br="{column_letters(col)}{row}"[^>]*?(?P<e>/?)>', text)
+        if m and not m.group("e"):
+            close = text.find("</" + m.group("p") + "c>", m.end())
+            if _VALUE_IN_CELL.search(text, m.end(), close):
+                return True
+    return False
 
 
 class BookWriter:
@@ -448,6 +463,33 @@ class BookWriter:
         if had_formula:
             self._formulas_replaced = True
         return formulas
+
+    def fill_cells(self, sheet_name: str, values: Mapping[str, Any]) -> None:
+        """Put values into cells of an input sheet that hold nothing (blank or absent).
+
+        Used to show what the tool filled in (e.g. library properties in the user's materials
+        table, in the copy only). A ``Cell(value, style)`` also gives the cell one of our styles.
+
+        Raises
+        ------
+        WriteRefused
+            Unknown sheet, or a cell that already holds a value or a formula (nothing of the
+            user's is ever overwritten).
+        """
+        self._check_open()
+        edit = self._input_sheet(sheet_name)
+        text = self._load_text(edit)
+        if _holds_values(text, list(values)):
+            raise WriteRefused(f"sheet {sheet_name!r}: a cell among {', '.join(list(values)[:5])} already holds "
+                               "something; fill_cells only fills empty cells")
+        text = insert_missing_cells(text, list(values))
+        wanted = {}
+        for ref, v in values.items():
+            if isinstance(v, Cell):
+                v = StyledValue(v.value, self._styles.xf(v.style)) if v.style else v.value
+            wanted[ref] = v
+        text, _formulas, _had = replace_cells(text, wanted)
+        edit.text, edit.dirty = text, True
 
     # -- writing -------------------------------------------------------------------------------
     def write(self, out_path: str | os.PathLike, *, in_place: bool = False) -> WriteReport:
