@@ -6,6 +6,8 @@ A cell holding its own unit (``52 mm``) is parsed on its own and overrides the h
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import datetime as _dt
 import math
 from collections.abc import Callable, Sequence
@@ -22,7 +24,7 @@ from ._schema import Column
 
 __all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind", "quoted", "error_problem"]
 
-_KIND_WORDS = {
+_KIND_WORDS = MappingProxyType({
     "length": "a length",
     "stress": "a stress or modulus",
     "torque": "a torque",
@@ -32,7 +34,7 @@ _KIND_WORDS = {
     "angle_per_length": "an angle per length",
     "density": "a density",
     "dimensionless": "a plain number",
-}
+})
 
 
 def describe_kind(kind: str) -> str:
@@ -194,7 +196,7 @@ def _short(message: str, raw: str) -> str:
     return message
 
 
-_EXAMPLES = {
+_EXAMPLES = MappingProxyType({
     "length": "mm",
     "stress": "MPa",
     "torque": "N·m",
@@ -203,7 +205,7 @@ _EXAMPLES = {
     "angle": "deg",
     "angle_per_length": "deg/m",
     "density": "kg/m³",
-}
+})
 
 
 def _example_unit(kind: str) -> str:
@@ -233,8 +235,8 @@ def read_text(grid: SheetGrid, col: int, rows: Sequence[int]) -> list[str | None
     return out
 
 
-_TRUE = {"yes", "y", "true", "1", "x", "keyway", "with keyway"}
-_FALSE = {"no", "n", "false", "0", "none", "-", "without keyway"}
+_TRUE = frozenset({"yes", "y", "true", "1", "x", "keyway", "with keyway"})
+_FALSE = frozenset({"no", "n", "false", "0", "none", "-", "without keyway"})
 
 
 def read_flag(raw: object) -> bool | None:

@@ -24,11 +24,6 @@ EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
 # (a whole column formatted) or a data dump, and would need gigabytes to hold.
 MAX_TABLE_ROWS = 1_000_000
 
-def _cells(rows):
-    """Rows as the writer takes them (Styled already makes the writer's Cell values)."""
-    return rows
-
-
 def _say(msg: str) -> None:
     print(msg, file=sys.stderr)
 
@@ -162,21 +157,18 @@ def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display,
     parts = result.parts
     if parts is not None and parts.count:
         rows, widths, col_styles = results_rows(result, display, _first_errors(result.findings))
-        res = writer.add_sheet("Twistshare results", _cells(rows), column_widths=widths, column_styles=col_styles,
-                               tab_color="FF1F3A4D", header_height=32)
-    else:
-        res = None
+        writer.add_sheet("Twistshare results", rows, column_widths=widths, column_styles=col_styles,
+                         tab_color="FF1F3A4D", header_height=32)
     srows, layout = summary_rows(result, display, profile_part)
-    summ = writer.add_sheet("Twistshare summary", _cells(srows), column_widths=[30, 40, 18, 16, 34],
+    summ = writer.add_sheet("Twistshare summary", srows, column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
-    wrows = _caution_rows() + _cells(warnings_rows(result.findings))
+    wrows = _caution_rows() + warnings_rows(result.findings)
     writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False)
     if result.materials is not None and result.materials.by_name:
-        writer.add_sheet("Twistshare materials", _cells(materials_rows(result.materials, display)),
+        writer.add_sheet("Twistshare materials", materials_rows(result.materials, display),
                          column_widths=[30, 9, 10, 14, 38, 14, 14, 10, 8, 60], header_height=32)
     _add_charts(writer, summ, srows, layout, display)
     _fill_library_values(writer, result)
-    del res
 
 
 def _fill_library_values(writer: BookWriter, result: BookRating) -> None:
@@ -257,7 +249,7 @@ def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool
         return _fail(str(exc))
     try:
         with BookWriter(book_path) as writer:
-            wrows = _caution_rows() + _cells(warnings_rows(result.findings))
+            wrows = _caution_rows() + warnings_rows(result.findings)
             writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False)
             _write_comments(writer, result, result.findings)
             writer.write(out, in_place=in_place)

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import numpy as np
 
 from twistshare.engine.core import LayerFlag, PartFlag, Rating, describe
@@ -32,7 +34,7 @@ class Display:
         return f"{value / f:.{digits}g} {u}".strip()
 
 
-_LAYER_FIELD = {
+_LAYER_FIELD = MappingProxyType({
     LayerFlag.OUTER_NOT_POSITIVE: "outer_diameter",
     LayerFlag.INNER_NEGATIVE: "inner_diameter",
     LayerFlag.INNER_NOT_BELOW_OUTER: "inner_diameter",
@@ -44,16 +46,16 @@ _LAYER_FIELD = {
     LayerFlag.OVERLAP_BELOW: "inner_diameter",
     LayerFlag.SOLID_NOT_INNERMOST: "inner_diameter",
     LayerFlag.EMPTY_SLOT_BETWEEN_LAYERS: "material",
-}
+})
 
-_PART_FIELD = {
+_PART_FIELD = MappingProxyType({
     PartFlag.LENGTH_NOT_POSITIVE: "length",
     PartFlag.TORQUE_NOT_FINITE: "torque",
     PartFlag.TORQUE_NEGATIVE: "torque",
     PartFlag.TWIST_LIMIT_NOT_POSITIVE: "twist_limit_angle",
     PartFlag.TWIST_PER_LENGTH_LIMIT_NOT_POSITIVE: "twist_limit_per_length",
     PartFlag.TWIST_LIMIT_NEEDS_LENGTH: "twist_limit_angle",
-}
+})
 
 
 def _layer_message(flag: LayerFlag, parts: PartsInput, rating: Rating, i: int, j: int, d: Display) -> str:

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import math
 from dataclasses import dataclass, field
 
@@ -22,14 +24,14 @@ from ._tables import TableSpot
 
 __all__ = ["ResolvedMaterial", "FilledCell", "MaterialSet", "read_materials", "rule_from_text", "RULE_NAMES"]
 
-RULE_NAMES: dict[AllowableRule, str] = {
+RULE_NAMES = MappingProxyType({
     AllowableRule.GIVEN: "given",
     AllowableRule.MAX_SHEAR: "max shear (Tresca) 0.5·Sy/FS",
     AllowableRule.DISTORTION_ENERGY: "distortion energy (von Mises) Sy/(√3·FS)",
     AllowableRule.SHAFTING_CODE: "shafting code min(0.30·Sy, 0.18·Su)",
-}
+})
 
-_RULE_WORDS = {
+_RULE_WORDS = MappingProxyType({
     "given": AllowableRule.GIVEN,
     "direct": AllowableRule.GIVEN,
     "max shear": AllowableRule.MAX_SHEAR,
@@ -40,7 +42,7 @@ _RULE_WORDS = {
     "von mises": AllowableRule.DISTORTION_ENERGY,
     "shafting code": AllowableRule.SHAFTING_CODE,
     "code": AllowableRule.SHAFTING_CODE,
-}
+})
 
 
 def rule_from_text(text: str | None) -> AllowableRule | None:

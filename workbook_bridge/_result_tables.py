@@ -6,6 +6,8 @@ writer's named styles. Units sit in the headers, in the results' unit system.
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import math
 import itertools
 
@@ -32,7 +34,7 @@ CAUTIONS = (
 )
 
 
-_STYLE_MAP = {"ok": None, "note": None, "caution_title": "title"}
+_STYLE_MAP = MappingProxyType({"ok": None, "note": None, "caution_title": "title"})
 
 
 def Styled(value: object, style: str) -> object:  # noqa: N802 - reads like the value wrapper it makes
@@ -45,10 +47,10 @@ def _num(x: float) -> float | None:
     return None if x is None or not math.isfinite(float(x)) else float(x)
 
 
-_CRIT_TEXT = {
+_CRIT_TEXT = MappingProxyType({
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
-}
+})
 
 
 def governs_text(criterion: int, layer: int, material: str | None) -> str:

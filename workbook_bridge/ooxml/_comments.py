@@ -6,6 +6,8 @@ our text is added after the user's text in the same comment.
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import math
 import re
 import xml.etree.ElementTree as ET
@@ -152,8 +154,8 @@ def new_vml(comments: Mapping[str, str], block: int) -> bytes:
 _NOTE_CELL = re.compile(rb"<(?:[\w.-]+:)?Row>\s*(\d+)\s*</(?:[\w.-]+:)?Row>\s*"
                         rb"<(?:[\w.-]+:)?Column>\s*(\d+)\s*</(?:[\w.-]+:)?Column>")
 _IDMAP = re.compile(rb'(<(?:[\w.-]+:)?idmap\b[^>]*?\sdata=")([^"]*)(")')
-_VML_URIS = {"v": b"urn:schemas-microsoft-com:vml", "o": b"urn:schemas-microsoft-com:office:office",
-             "x": b"urn:schemas-microsoft-com:office:excel"}
+_VML_URIS = MappingProxyType({"v": b"urn:schemas-microsoft-com:vml", "o": b"urn:schemas-microsoft-com:office:office",
+             "x": b"urn:schemas-microsoft-com:office:excel"})
 
 
 def vml_note_cells(data: bytes) -> set[tuple[int, int]]:

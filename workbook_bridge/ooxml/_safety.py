@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import os
 import re
 import xml.etree.ElementTree as ET
@@ -16,14 +18,14 @@ __all__ = ["SheetInfo", "TableInfo", "DefinedName", "ExternalLink", "PackageInfo
            "inspect_package", "read_package_info", "HUGE_ROWS"]
 
 HUGE_ROWS = 1_000_000  # a declared dimension at/above this is flagged (the grid ends at 1,048,576)
-_SHEET_KINDS = {
+_SHEET_KINDS = MappingProxyType({
     RT.WORKSHEET: "worksheet",
     RT.BASE + "chartsheet": "chartsheet",
     RT.BASE + "dialogsheet": "dialogsheet",
     "http://schemas.microsoft.com/office/2006/relationships/xlMacrosheet": "macrosheet",
     "http://schemas.microsoft.com/office/2006/relationships/xlIntlMacrosheet": "macrosheet",
-}
-_WORKBOOK_TYPES = {CT.WORKBOOK, CT.MACRO_WORKBOOK, CT.TEMPLATE, CT.MACRO_TEMPLATE, CT.ADDIN}
+})
+_WORKBOOK_TYPES = frozenset({CT.WORKBOOK, CT.MACRO_WORKBOOK, CT.TEMPLATE, CT.MACRO_TEMPLATE, CT.ADDIN})
 _DIMENSION = re.compile(rb"<(?:[\w.-]+:)?dimension\s+ref=\"([^\"]+)\"")
 _RANGE = re.compile(r"^\$?([A-Z]{1,3})\$?(\d+)(?::\$?([A-Z]{1,3})\$?(\d+))?$")
 

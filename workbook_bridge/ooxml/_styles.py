@@ -6,6 +6,8 @@ user's cells refer to them by index); ours are appended and their new indexes ha
 
 from __future__ import annotations
 
+from types import MappingProxyType
+
 import re
 from dataclasses import dataclass, replace
 
@@ -37,7 +39,7 @@ class StyleSpec:
 
 # Our own palette: a deep blue-green header, brick for failing parts, amber for warnings,
 # sand for the caution block, sage for values the library filled in.
-_CATALOG: dict[str, StyleSpec] = {
+_CATALOG = MappingProxyType({
     "header": StyleSpec(bold=True, color="FFFFFFFF", fill="FF1F3A4D", border="bottom",
                         border_color="FF0F1F2A", wrap=True, vertical="center"),
     "title": StyleSpec(bold=True, size=14, color="FF1F3A4D"),
@@ -52,7 +54,7 @@ _CATALOG: dict[str, StyleSpec] = {
     "caution": StyleSpec(italic=True, color="FF5A3E00", fill="FFFFF4D6", border="box",
                          border_color="FFD9B35A", wrap=True, vertical="top"),
     "filled": StyleSpec(italic=True, color="FF1E5E46", fill="FFE2F0EA"),
-}
+})
 STYLE_NAMES: tuple[str, ...] = tuple(_CATALOG)
 
 MINIMAL_STYLES = (
@@ -69,7 +71,7 @@ MINIMAL_STYLES = (
 
 _ORDER = ("numFmts", "fonts", "fills", "borders", "cellStyleXfs", "cellXfs", "cellStyles",
           "dxfs", "tableStyles", "colors", "extLst")
-_CHILD = {"numFmts": "numFmt", "fonts": "font", "fills": "fill", "borders": "border", "cellXfs": "xf"}
+_CHILD = MappingProxyType({"numFmts": "numFmt", "fonts": "font", "fills": "fill", "borders": "border", "cellXfs": "xf"})
 
 
 class StyleBook:
