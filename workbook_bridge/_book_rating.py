@@ -155,6 +155,48 @@ def _shown(v: object) -> str:
     return quoted(v) if isinstance(v, str) else str(v)
 
 
+def _unknown_headers(grid, spot: TableSpot, fields, layer_groups: bool, what: str) -> list[Finding]:
+    """A header that names no input is ignored; say so where it looks like one (a unit, a near-miss).
+
+    Descriptive columns ('Description', 'Notes') pass silently; 'Twist limt [deg]' does not,
+    because ignoring it would drop a criterion without a word.
+    """
+    import difflib
+    import re
+
+    from twistshare.engine.units import split_header
+
+    from ._grid import cell_ref
+    from ._schema import LAYER_FIELDS
+
+    labels = sorted({lab for f in fields for lab in f.labels if len(lab) > 2})
+    layer_labels = sorted({lab for f in LAYER_FIELDS for lab in f.labels if len(lab) > 2})
+    out = []
+    for col, header in spot.unknown_headers:
+        label, unit = split_header(header)
+        key = " ".join(label.strip().lower().split())
+        suggestion = None
+        m = re.match(r"^(?:layer|l)\s*(\d{1,2})\s*[:\-]?\s+(.+)$", key) if layer_groups else None
+        if m:
+            near = difflib.get_close_matches(m.group(2), layer_labels, n=1, cutoff=0.75)
+            suggestion = f"Layer {m.group(1)} {near[0]}" if near else None
+        else:
+            near = difflib.get_close_matches(key, labels, n=1, cutoff=0.75)
+            suggestion = near[0][:1].upper() + near[0][1:] if near else None
+        if suggestion is None and unit is None and not m:
+            continue
+        if suggestion:
+            # A near-miss may hide a limit or a factor: rating without it could pass a failing part.
+            out.append(Finding(Severity.ERROR, grid.name, cell_ref(spot.header_row, col),
+                               f"{what} column {header.strip()!r} looks like '{suggestion}' but is not spelled "
+                               "as twistshare reads it; no part is rated until it is renamed or removed"))
+        else:
+            out.append(Finding(Severity.WARNING, grid.name, cell_ref(spot.header_row, col),
+                               f"{what} column {header.strip()!r} is not an input twistshare reads, so it is "
+                               "ignored"))
+    return out
+
+
 def _filled_notes(materials: MaterialSet) -> list[Finding]:
     from twistshare.engine.units import si_factor
 
@@ -248,6 +290,13 @@ def rate_open_book(book: OpenBook) -> BookRating:
     result = BookRating(book.path)
     findings = result.findings
     mgrid, mspot, pgrid, pspot, lgrid, lspot = _tables(book, result)
+    header_findings = _unknown_headers(pgrid, pspot, PART_FIELDS, True, "parts")
+    if mspot is not None:
+        header_findings += _unknown_headers(mgrid, mspot, MATERIAL_FIELDS, False, "materials")
+    if lspot is not None:
+        header_findings += _unknown_headers(lgrid, lspot, LAYER_ROW_FIELDS, False, "layers")
+    findings.extend(header_findings)
+    header_blocks = any(f.severity is Severity.ERROR for f in header_findings)
     if mspot is not None:
         _hidden_and_merged(mgrid, mspot, findings, "materials")
         materials = read_materials(mgrid, mspot, findings)
@@ -259,6 +308,8 @@ def rate_open_book(book: OpenBook) -> BookRating:
     if lspot is not None:
         _hidden_and_merged(lgrid, lspot, findings, "layers")
     parts = read_parts(pgrid, pspot, materials, findings, lgrid, lspot)
+    if header_blocks:
+        parts.input_error[:] = True
     _refuse_conflicting_parts(pgrid, pspot, lgrid, lspot, parts, findings)
     result.materials, result.parts = materials, parts
     result.parts_spot, result.layers_spot, result.materials_spot = pspot, lspot, mspot
@@ -277,6 +328,7 @@ def rate_open_book(book: OpenBook) -> BookRating:
         allowable_shear=parts.allowable_shear,
         stress_concentration=parts.kt,
         present=parts.present,
+        allowable_rule=parts.allowable_rule,
     )
     duty = Duty(
         torque=parts.torque,

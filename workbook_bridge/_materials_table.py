@@ -10,7 +10,9 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from twistshare.engine.core import (
+    AllowableFlag,
     AllowableRule,
+    allowable_flags,
     allowable_shear,
     find_material,
     shear_modulus_from_elastic,
@@ -81,6 +83,7 @@ class ResolvedMaterial:
     factor_of_safety: float = math.nan
     keyway: bool = False
     density: float = math.nan
+    note: str | None = None  # a warning to show once where a part first uses the material
 
 
 @dataclass
@@ -118,23 +121,63 @@ def _nan_if_none(x: float | None) -> float:
     return math.nan if x is None else float(x)
 
 
+def is_steel(name: str) -> bool:
+    """True for the steels: the transmission-shafting code rule was written for steel shafting."""
+    n = name.lower()
+    return any(w in n for w in ("steel", "aisi", "stainless", "sae "))
+
+
+_CODE_RULE_FOR_STEEL = (
+    "the shafting code rule min(0.30·Sy, 0.18·Su) is a rule for steel shafting; give this material a "
+    "row in the materials table with an allowable shear, or a rule (max shear, distortion energy) "
+    "and a factor of safety"
+)
+
+
 def _from_library_only(lib) -> ResolvedMaterial:
     sy, su = _nan_if_none(lib.yield_strength), _nan_if_none(lib.ultimate_strength)
-    tau = float(allowable_shear(AllowableRule.SHAFTING_CODE, sy, su, 1.0, False))
-    problem = None
-    if not math.isfinite(tau) or tau <= 0:
-        problem = (
-            f"material {lib.name!r} from the built-in library has no typical yield and ultimate "
-            "strength to derive an allowable from: add it to the materials table with an allowable shear"
-        )
+    problem = note = None
+    tau = math.nan
+    if not is_steel(lib.name):
+        problem = f"material {lib.name!r} has no allowable in the book: {_CODE_RULE_FOR_STEEL}"
+    else:
+        tau = float(allowable_shear(AllowableRule.SHAFTING_CODE, sy, su, 1.0, False))
+        if not math.isfinite(tau) or tau <= 0:
+            problem = (
+                f"material {lib.name!r} from the built-in library has no typical yield and ultimate "
+                "strength to derive an allowable from: add it to the materials table with an allowable shear")
+        else:
+            note = (f"material {lib.name!r} is not in the book's materials table: used the built-in "
+                    f"library's typical strengths and the shafting code rule min(0.30·Sy, 0.18·Su) = "
+                    f"{tau / 1e6:.4g} MPa, no keyway; add a row to the materials table to choose otherwise")
     return ResolvedMaterial(
         lib.name, float(lib.shear_modulus), tau, AllowableRule.SHAFTING_CODE, "library", problem,
         _nan_if_none(lib.youngs_modulus), _nan_if_none(lib.poisson_ratio), sy, su, math.nan, False,
-        _nan_if_none(lib.density),
+        _nan_if_none(lib.density), note,
     )
 
 
-_FILLABLE = ("shear_modulus", "youngs_modulus", "poisson_ratio", "yield_strength", "ultimate_strength", "density")
+_FLAG_WORDS = {
+    AllowableFlag.FACTOR_OF_SAFETY_IGNORED: ("factor_of_safety", "the factor of safety is not used: the shafting "
+                                             "code rule carries its own allowance (FS is not applied on top)"),
+    AllowableFlag.KEYWAY_IGNORED: ("keyway", "the keyway is not used by this rule: the 0.75 keyway factor "
+                                   "belongs to the shafting code rule; use Kt for a keyway's stress concentration"),
+    AllowableFlag.ULTIMATE_BELOW_YIELD: ("ultimate_strength", "the ultimate strength is below the yield "
+                                         "strength: check both values"),
+    AllowableFlag.FACTOR_OF_SAFETY_BELOW_ONE: ("factor_of_safety", "the factor of safety is below 1"),
+}
+
+
+def _rule_notes(name, rule, sy, su, fs_used, fs_given, keyway, cells, here, sheet) -> list[Finding]:
+    """The engine's notes on an allowable (inputs it ignores, inconsistent strengths) as warnings."""
+    flags = AllowableFlag(int(allowable_flags(rule, sy, su, fs_used, keyway)))
+    out = []
+    for flag, (field, words) in _FLAG_WORDS.items():
+        if flag in flags:
+            if flag == AllowableFlag.FACTOR_OF_SAFETY_IGNORED and math.isnan(fs_given):
+                continue  # no FS was typed; the default 1 is ours, nothing to tell
+            out.append(Finding(Severity.WARNING, sheet, cells.get(field, here), f"material {name!r}: {words}"))
+    return out
 
 
 def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) -> MaterialSet:
@@ -198,23 +241,35 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) ->
         problem: str | None = None
         if any(is_bad(k) for k in num):
             problem = f"material {name!r} has unusable properties (see the comments on its row)"
+        given = {k for k in num if not math.isnan(vals[k]) or is_bad(k)}
+
+        def fill(k: str) -> None:
+            lv = getattr(lib, k, None)
+            if lv is None or not math.isfinite(float(lv)):
+                return
+            vals[k] = float(lv)
+            if k in cells:
+                out.filled.append(FilledCell(grid.name, cells[k], lib.name, k, float(lv),
+                                             lib.sources.get(k, "built-in library")))
+
         if lib is not None:
-            for k in _FILLABLE:
-                if k in vals and not math.isnan(vals[k]) or is_bad(k):
-                    continue
-                lv = getattr(lib, k, None)
-                if lv is None or not math.isfinite(float(lv)):
-                    continue
-                if k == "shear_modulus" and not (math.isnan(vals.get("youngs_modulus", math.nan))):
-                    continue  # the book's own E and nu give G; do not mix in the library's
-                vals[k] = float(lv)
-                if k in cells:
-                    src = lib.sources.get(k, "built-in library")
-                    out.filled.append(FilledCell(grid.name, cells[k], lib.name, k, float(lv), src))
+            # A group is filled only when the book gives none of it, so a user's value is never
+            # paired with the library's (a user's Sy with the library's Su, say).
+            for group in (("youngs_modulus", "poisson_ratio"), ("yield_strength", "ultimate_strength"), ("density",)):
+                if not any(k in given for k in group):
+                    for k in group:
+                        fill(k)
+            own_elastic = {"youngs_modulus", "poisson_ratio"} <= given
+            if "shear_modulus" not in given and (not own_elastic or not lib.isotropic):
+                fill("shear_modulus")
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
         if math.isnan(g) and not (math.isnan(e) or math.isnan(nu)):
             g = float(shear_modulus_from_elastic(e, nu))
+            findings.append(Finding(
+                Severity.NOTE, grid.name, cells.get("shear_modulus", here),
+                f"material {name!r}: G = E/2(1+ν) = {g / 1e9:.4g} GPa from the row's E and Poisson ratio "
+                "(this holds for an isotropic material only; give G for a fibre-wound or other orthotropic one)"))
         if problem is None and math.isnan(g):
             problem = (f"material {name!r}: no shear modulus: give G, or E and Poisson ratio"
                        + ("" if lib else ", or name a built-in library material"))
@@ -246,16 +301,25 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) ->
                 rule = AllowableRule.GIVEN
             else:
                 rule = AllowableRule.SHAFTING_CODE
-                if problem is None and not (math.isnan(sy) or math.isnan(su)):
+                if problem is None and not is_steel(name):
+                    problem = f"material {name!r}: no allowable shear and no rule given: {_CODE_RULE_FOR_STEEL}"
+                elif problem is None and not (math.isnan(sy) or math.isnan(su)):
                     findings.append(Finding(
                         Severity.WARNING, grid.name, rule_cell or here,
                         f"material {name!r}: no allowable shear and no rule given; used the shafting "
-                        "code rule min(0.30·Sy, 0.18·Su)"))
+                        "code rule min(0.30·Sy, 0.18·Su) for steel shafting"))
         tau = math.nan
         if rule == AllowableRule.GIVEN:
             tau = tau_given
             if problem is None and math.isnan(tau):
                 problem = f"material {name!r}: rule 'given' but no allowable shear stress"
+            for k, what in (("factor_of_safety", "factor of safety"), ("keyway", "keyway")):
+                unused = (not math.isnan(fs)) if k == "factor_of_safety" else keyway
+                if unused and problem is None:
+                    findings.append(Finding(
+                        Severity.WARNING, grid.name, cells.get(k, here),
+                        f"material {name!r}: the {what} is not used: the allowable shear is given directly "
+                        "(it should already include any factor of safety and keyway allowance)"))
         else:
             if rule in (AllowableRule.MAX_SHEAR, AllowableRule.DISTORTION_ENERGY) and math.isnan(fs):
                 problem = problem or (f"material {name!r}: rule {RULE_NAMES[rule]} needs a factor of safety")
@@ -265,7 +329,9 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) ->
                     f"material {name!r}: rule {RULE_NAMES[rule]} needs the yield strength"
                     + (" and the ultimate strength" if need_su else ""))
             if problem is None:
-                tau = float(allowable_shear(rule, sy, su, fs if not math.isnan(fs) else 1.0, keyway))
+                fs_used = fs if not math.isnan(fs) else 1.0
+                tau = float(allowable_shear(rule, sy, su, fs_used, keyway))
+                findings.extend(_rule_notes(name, rule, sy, su, fs_used, fs, keyway, cells, here, grid.name))
             if not math.isnan(tau_given) and problem is None:
                 findings.append(Finding(
                     Severity.WARNING, grid.name, cells.get("allowable_shear", here),

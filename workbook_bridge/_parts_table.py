@@ -48,6 +48,7 @@ class PartsInput:
     layer_cells: "CellRefs" = None  # (part, layer, field) -> (sheet, A1)
     part_cells: "CellRefs" = None  # (part, field) -> (sheet, A1)
     system: str = "SI"
+    allowable_rule: np.ndarray | None = None  # (P, L) AllowableRule codes
 
     @property
     def count(self) -> int:
@@ -231,6 +232,8 @@ def read_parts(
     P, L = od.shape
     g = np.full((P, L), np.nan)
     tau = np.full((P, L), np.nan)
+    rule = np.zeros((P, L), dtype=np.int8)  # AllowableRule per layer; travels with the rating
+    noted: set = set()
     cache: dict[str, tuple] = {}
     grids = {grid.name: grid}
     if layers_grid is not None:
@@ -262,13 +265,28 @@ def read_parts(
                 continue
             g[i, j] = m.shear_modulus
             tau[i, j] = m.allowable_shear
+            rule[i, j] = int(m.rule)
+            if m.note and name not in noted:
+                noted.add(name)
+                sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
+                findings.append(Finding(Severity.WARNING, sheet, cell, f"part {ids[i]}, layer {j + 1}: {m.note}",
+                                        part=ids[i], layer=j + 1))
+            if m.keyway and kt[i, j] > 1.0 and ("kt", name) not in noted:
+                noted.add(("kt", name))  # once per material: the first part that shows it
+                sheet, cell = layer_cells.get((i, j, "kt"), (grid.name, None))
+                findings.append(Finding(
+                    Severity.WARNING, sheet, cell,
+                    f"part {ids[i]}, layer {j + 1}: Kt {kt[i, j]:.3g} and the keyway factor 0.75 of material "
+                    f"{name!r} are both applied (here and on every layer of that material with a Kt); the "
+                    "shafting code's keyway factor already allows for a keyway, so if Kt describes the same "
+                    "keyway it is counted twice (conservative)", part=ids[i], layer=j + 1))
     system = _system_of(spot, ("outer_diameter", "length", "torque"))
     if layers_spot is not None and system == "SI":
         system = _system_of(layers_spot, ("outer_diameter",))
     return PartsInput(
         grid.name, ids, rows, od, idd, g, tau, kt, present, t_out, length,
         vals("twist_limit_angle"), vals("twist_limit_per_length"), error, mats, duty_source,
-        layer_cells, part_cells, system,
+        layer_cells, part_cells, system, rule,
     )
 
 

@@ -21,8 +21,20 @@ from ._flag_wording import Display
 from ._materials_table import RULE_NAMES, MaterialSet
 from .ooxml import Cell
 
-__all__ = ["Styled", "results_rows", "warnings_rows", "materials_rows", "governs_text", "CAUTIONS",
+__all__ = ["READING_THE_RESULTS", "Styled", "results_rows", "warnings_rows", "materials_rows", "governs_text", "CAUTIONS",
            "lowest_margins", "criterion_counts"]
+
+READING_THE_RESULTS = (
+    "Governing limit: the section torque at which the first criterion is reached (a layer's allowable "
+    "shear stress with its Kt, or a twist limit); margin = limit / demand − 1.",
+    "Reserve factor = governing limit / demand. The allowables already hold each material's factor of "
+    "safety (or the shafting code's own allowance), so this is a reserve on top of them, not a factor "
+    "against yield.",
+    "Layer capacity (section torque): the torque on the whole shaft at which that layer reaches its "
+    "allowable, τa·ΣGJ / (G·ro·Kt) — not the torque the layer itself carries (see layer torque).",
+    "Nominal stress: G·r·θ' at the layer's outer and inner radius, without Kt; utilisation = Kt × "
+    "nominal stress at the outer radius / allowable.",
+)
 
 CAUTIONS = (
     "twistshare is a preliminary design aid. Its results are not a design approval.",
@@ -86,14 +98,14 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         gj_unit, gj_f = "lbf·in²", si_factor("lbf·in", "torque") * si_factor("in", "length")
     header = [
         "Part", "Status", "Layers", f"Demand torque [{tu}]", "Demand from", f"Governing limit [{tu}]",
-        "Governs", "Margin [%]", "Factor of safety", f"ΣGJ [{gj_unit}]", f"Twist rate [{pu}]",
+        "Governs", "Margin [%]", "Reserve factor (limit / demand)", f"ΣGJ [{gj_unit}]", f"Twist rate [{pu}]",
         f"Twist angle [{au}]", f"Twist-limit capacity [{tu}]",
     ]
     for n in range(1, L + 1):
         header += [
             f"L{n} material", f"L{n} outer diameter [{lu}]", f"L{n} inner diameter [{lu}]", f"L{n} share [%]",
-            f"L{n} torque [{tu}]", f"L{n} stress at outer [{su}]", f"L{n} stress at inner [{su}]",
-            f"L{n} capacity [{tu}]", f"L{n} utilisation [%]",
+            f"L{n} torque [{tu}]", f"L{n} nominal stress at outer [{su}]", f"L{n} nominal stress at inner [{su}]",
+            f"L{n} capacity (section torque) [{tu}]", f"L{n} utilisation with Kt [%]",
         ]
     header.append("First problem")
     rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)

@@ -12,7 +12,7 @@ from twistshare.engine.core import stress_profile
 
 from ._flag_wording import Display
 from ._materials_table import RULE_NAMES
-from ._result_tables import CAUTIONS, Styled, criterion_counts, governs_text, lowest_margins
+from ._result_tables import CAUTIONS, READING_THE_RESULTS, Styled, criterion_counts, governs_text, lowest_margins
 
 __all__ = ["SummaryLayout", "summary_rows"]
 
@@ -44,6 +44,10 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
     rows.append([Styled("Caution", "caution_title")])
     for c in CAUTIONS:
         rows.append([Styled(c, "caution_line")])
+    rows.append([])
+    rows.append([Styled("Reading the results", "title")])
+    for line in READING_THE_RESULTS:
+        rows.append([line])
     rows.append([])
     n = parts.count if parts else 0
     rated = int(book.rated.sum()) if book.rated is not None else 0

@@ -24,6 +24,7 @@ class TableSpot:
     first_col: int = 0
     last_col: int | None = None
     duplicates: tuple[Column, ...] = ()  # later columns naming an input an earlier column names
+    unknown_headers: tuple[tuple[int, str], ...] = ()  # header cells that name no input we read
 
     def column(self, key: str, layer: int = 0) -> Column | None:
         for c in self.columns:
@@ -38,10 +39,11 @@ class TableSpot:
 
 def _match_row(
     row: list[object], fields: tuple[Field, ...], layer_groups: bool, first_col: int, last_col: int | None
-) -> tuple[list[Column], list[Column]]:
+) -> tuple[list[Column], list[Column], list[tuple[int, str]]]:
     cols: list[Column] = []
     seen: set[tuple[str, int]] = set()
     dups: list[Column] = []
+    unknown: list[tuple[int, str]] = []
     stop = len(row) if last_col is None else min(len(row), last_col + 1)
     for c in range(first_col, stop):
         h = row[c]
@@ -55,6 +57,7 @@ def _match_row(
                 layer, field, unit = g
                 m = (field, unit)
         if m is None:
+            unknown.append((c, h))
             continue
         field, unit = m
         key = (field.key, layer)
@@ -63,7 +66,7 @@ def _match_row(
             continue
         seen.add(key)
         cols.append(Column(field, c, h, unit, layer))
-    return cols, dups
+    return cols, dups, unknown
 
 
 def _has_data(grid: SheetGrid, r: int, idx: list[int]) -> bool:
@@ -99,12 +102,12 @@ def locate_table(
     for r in candidates:
         if r >= grid.height:
             continue
-        cols, dups = _match_row(grid.rows[r], fields, layer_groups, first_col, last_col)
+        cols, dups, unknown = _match_row(grid.rows[r], fields, layer_groups, first_col, last_col)
         if len(cols) < 2 or not any(c.field.key == key_field for c in cols):
             continue
         end = grid.height if last_row is None else min(grid.height, last_row + 1)
         idx = [c.index for c in cols]
         data = tuple(rr for rr in range(r + 1, end) if _has_data(grid, rr, idx))
         return TableSpot(grid.name, r, data, tuple(cols), tuple((d.index, d.header) for d in dups),
-                         first_col, last_col, tuple(dups))
+                         first_col, last_col, tuple(dups), tuple(unknown))
     return None
