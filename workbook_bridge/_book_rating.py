@@ -210,7 +210,7 @@ def _filled_notes(materials: MaterialSet) -> list[Finding]:
         label, kind, unit = kinds.get(f.field, (f.field, "dimensionless", ""))
         shown = f"{f.value_si / si_factor(unit, kind):.4g} {unit}".strip() if unit else f"{f.value_si:.4g}"
         out.append(Finding(Severity.NOTE, f.sheet, f.cell,
-                           f"blank in the book; this copy shows the built-in library's value ({f.material}): {label} = {shown}; "
+                           f"blank in the book: the built-in library's value is used ({f.material}): {label} = {shown}; "
                            f"source: {f.source}"))
     return out
 

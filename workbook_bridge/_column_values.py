@@ -118,6 +118,7 @@ def read_numeric(
         findings.append(Finding(Severity.ERROR, grid.name, cell_ref(header_row, column.index), header_issue))
     rng = plausible_range(field.key)
     col = column.index
+    tag = getattr(who, "tag", None) or (lambda r: (None, None))
     # Fast path, whole column at once: plain finite numbers inside the plausible range. Every
     # other cell (text, errors, empties, numbers out of range) takes the cell-by-cell path below,
     # which words the findings.
@@ -179,7 +180,8 @@ def read_numeric(
         if problem is not None:
             bad[i] = True
             findings.append(
-                Finding(Severity.ERROR, grid.name, cell_ref(r, col), f"{who(r)}: {field.description}: {problem}")
+                Finding(Severity.ERROR, grid.name, cell_ref(r, col), f"{who(r)}: {field.description}: {problem}",
+                        *tag(r))
             )
             continue
         values[i] = v

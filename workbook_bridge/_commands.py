@@ -2,7 +2,11 @@
 
 from __future__ import annotations
 
+import errno
+import os
+import shutil
 import sys
+import time
 from collections import defaultdict
 from pathlib import Path
 
@@ -19,6 +23,7 @@ from .ooxml import BarChart, BookWriter, Cell, OoxmlError, ScatterChart, SeriesD
 __all__ = ["run_rate", "run_check", "run_share", "run_demo", "run_functions", "prepare", "RESULT_SHEETS"]
 
 RESULT_SHEETS = ("Twistshare results", "Twistshare summary", "Twistshare warnings", "Twistshare materials")
+RESULT_SHEET_PREFIX = "Twistshare "
 EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
 # The largest parts table rated in one run; a bigger sheet is almost always a formatting slip
 # (a whole column formatted) or a data dump, and would need gigabytes to hold.
@@ -47,6 +52,56 @@ def prepare(path: Path) -> tuple[object, object]:
                 f"{MAX_TABLE_ROWS:,} rows per table: clear the unused rows or split the catalogue")
     book = open_book(path, {s.name: s.part for s in info.sheets if s.part})
     return info, book
+
+
+def refuse_rated_book(info, path: Path) -> None:
+    """Rating a book we already rated would double our comments and sheets: refuse it."""
+    ours = [s.name for s in info.sheets if s.name.startswith(RESULT_SHEET_PREFIX)]
+    if ours:
+        raise BookUnusable(
+            f"{path.name} already holds twistshare's sheets ({', '.join(ours[:4])}) from an earlier run: "
+            "rate the original book instead (after --in-place, its backup BOOK.xlsx.bak-...), or delete "
+            "those sheets and our comments first")
+
+
+def check_output_place(out: Path) -> None:
+    """Fail early, in words, where the output cannot be written."""
+    folder = out.parent if str(out.parent) else Path(".")
+    if not folder.exists():
+        raise BookUnusable(f"cannot write {out}: the folder {folder} does not exist")
+    if not folder.is_dir():
+        raise BookUnusable(f"cannot write {out}: {folder} is not a folder")
+    if not os.access(folder, os.W_OK):
+        raise BookUnusable(f"cannot write {out}: the folder {folder} is not writable")
+    if out.is_dir():
+        raise BookUnusable(f"cannot write {out}: it is a folder")
+
+
+def keep_previous(out: Path, in_place: bool) -> str | None:
+    """An existing file under the output name is kept as a timestamped backup, never lost."""
+    if in_place or not out.exists():
+        return None
+    stamp = time.strftime("%Y%m%d-%H%M%S")
+    backup = out.with_name(f"{out.name}.bak-{stamp}")
+    n = 1
+    while backup.exists():
+        n += 1
+        backup = out.with_name(f"{out.name}.bak-{stamp}-{n}")
+    shutil.copy2(out, backup)
+    return str(backup)
+
+
+def write_book(writer: BookWriter, out: Path, in_place: bool) -> str | None:
+    """Write the output, keeping any file already there; OS errors become one clear line."""
+    try:
+        previous = keep_previous(out, in_place)
+        writer.write(out, in_place=in_place)
+    except OSError as exc:
+        reason = {errno.ENOSPC: "the disk is full", errno.EACCES: "permission denied",
+                  errno.EROFS: "the folder is read-only", errno.ENOENT: "the folder does not exist"}.get(
+                      exc.errno, exc.strerror or str(exc))
+        raise BookUnusable(f"cannot write {out}: {reason}; nothing was written") from None
+    return previous
 
 
 def check_output_name(info, out: Path) -> None:
@@ -132,7 +187,9 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
     try:
         progress.step("check package")
         info, book = prepare(book_path)
+        refuse_rated_book(info, book_path)
         check_output_name(info, out)
+        check_output_place(out)
         progress.step("read tables")
         result = rate_open_book(book)
     except (OoxmlError, BookUnusable) as exc:
@@ -144,10 +201,12 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
         with BookWriter(book_path) as writer:
             _add_rating_sheets(writer, result, display, profile_part)
             _write_comments(writer, result, result.findings)
-            writer.write(out, in_place=in_place)
-    except OoxmlError as exc:
+            previous = write_book(writer, out, in_place)
+    except (OoxmlError, BookUnusable) as exc:
         progress.finish()
         return _fail(str(exc))
+    if previous:
+        _say(f"twistshare: kept the file that was at {out} as {previous}")
     progress.finish()
     _report(result, out, quiet, "rate")
     return _exit_code(result)
@@ -243,7 +302,9 @@ def _add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Di
 def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
     try:
         info, book = prepare(book_path)
+        refuse_rated_book(info, book_path)
         check_output_name(info, out)
+        check_output_place(out)
         result = rate_open_book(book)
     except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))
@@ -252,9 +313,11 @@ def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool
             wrows = _caution_rows() + warnings_rows(result.findings)
             writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False)
             _write_comments(writer, result, result.findings)
-            writer.write(out, in_place=in_place)
-    except OoxmlError as exc:
+            previous = write_book(writer, out, in_place)
+    except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))
+    if previous:
+        _say(f"twistshare: kept the file that was at {out} as {previous}")
     _report(result, out, quiet, "check")
     return _exit_code(result)
 
@@ -266,11 +329,23 @@ def run_share(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool
 
 
 def run_demo(directory: Path) -> int:
+    import filecmp
+    import tempfile
+
     from ._sample_books import write_all
 
-    directory.mkdir(parents=True, exist_ok=True)
-    for p in write_all(directory):
-        print(p)
+    try:
+        directory.mkdir(parents=True, exist_ok=True)
+        check_output_place(directory / "x.xlsx")
+        with tempfile.TemporaryDirectory(dir=directory, prefix=".twistshare-demo-") as tmp:
+            for made in write_all(Path(tmp)):
+                dest = directory / made.name
+                if dest.exists() and not filecmp.cmp(made, dest, shallow=False):
+                    _say(f"twistshare: kept the file that was at {dest} as {keep_previous(dest, False)}")
+                os.replace(made, dest)
+                print(dest)
+    except (OSError, BookUnusable) as exc:
+        return _fail(str(exc))
     return EXIT_OK
 
 

@@ -99,6 +99,11 @@ def _who(ids: list[str | None], rows: list[int], layer: int | None = None):
         base = f"part {pid}" if pid else f"row {r + 1}"
         return f"{base}, layer {layer}" if layer else base
 
+    def tag(r: int) -> tuple[str | None, int | None]:
+        i = index.get(r)
+        return (ids[i] if i is not None else None), layer
+
+    who.tag = tag  # lets the column reader tie each finding to its part and layer
     return who
 
 

@@ -16,7 +16,9 @@ __all__ = ["PLAUSIBLE", "plausible_range"]
 PLAUSIBLE = MappingProxyType({
     "shear_modulus": (0.1e9, 200e9, "GPa", 1e9),
     "youngs_modulus": (0.3e9, 500e9, "GPa", 1e9),
-    "poisson_ratio": (0.0, 0.5, "", 1.0),
+    # up to 1: the in-plane ratio of a ±45° laminate is about 0.77; for an isotropic material the
+    # bridge refuses a G derived from a ratio above 0.5
+    "poisson_ratio": (0.0, 1.0, "", 1.0),
     "allowable_shear": (0.5e6, 2000e6, "MPa", 1e6),
     "yield_strength": (1e6, 3000e6, "MPa", 1e6),
     "ultimate_strength": (1e6, 4000e6, "MPa", 1e6),

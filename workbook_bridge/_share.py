@@ -79,11 +79,16 @@ def _first(value: object) -> tuple[object, str | None]:
 
 
 def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
-    from ._commands import EXIT_OK, EXIT_PART_ERRORS, _fail, check_output_name, prepare
+    from ._commands import (EXIT_OK, EXIT_PART_ERRORS, _fail, _say, check_output_name, check_output_place, prepare,
+                            write_book)
 
     try:
         info, book = prepare(book_path)
         check_output_name(info, out)
+        check_output_place(out)
+        if in_place:
+            raise BookUnusable("share writes a copy for others; --in-place would replace your own formulas "
+                               "with values in your book: give -o instead")
     except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))
     functions = cell_functions()
@@ -174,9 +179,11 @@ def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: boo
                      "cell's comment keeps its formula."], [],
                     [Cell(h, "header") for h in ("Sheet", "Cell", "Formula (as text)", "Value", "Value from")]]
             writer.add_sheet(_SHEET, rows + log, column_widths=[18, 8, 60, 16, 48], freeze_header=False)
-            writer.write(out, in_place=in_place)
-    except OoxmlError as exc:
+            previous = write_book(writer, out, in_place)
+    except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))
+    if previous:
+        _say(f"twistshare: kept the file that was at {out} as {previous}")
     msg = f"twistshare: replaced {len(log)} formulas with values; wrote {out}"
     if problems:
         msg += f" ({problems} could not be evaluated: see their comments)"
