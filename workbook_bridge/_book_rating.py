@@ -47,7 +47,7 @@ class BookRating:
         return [f for f in self.findings if f.severity is Severity.ERROR]
 
 
-def _spot(book: OpenBook, name: str, fields, key: str, layer_groups: bool = False):
+def _spot(book: OpenBook, name: str, fields, key: str, layer_groups: bool = False, notes=None):
     """Find a table first as a workbook table of that name, then as a sheet of that name."""
     region = book.tables.get(name.lower())
     if region is not None:
@@ -55,6 +55,12 @@ def _spot(book: OpenBook, name: str, fields, key: str, layer_groups: bool = Fals
         spot = locate_table(grid, fields, key, layer_groups=layer_groups, header_row=region.header_row,
                             last_row=region.last_row, first_col=region.first_col, last_col=region.last_col)
         if spot is not None:
+            other = book.find_sheet(name)
+            if notes is not None and other is not None and other != region.sheet:
+                notes.append(Finding(Severity.WARNING, other, None,
+                                     f"the book has both a workbook table named {region.name!r} (on sheet "
+                                     f"{region.sheet!r}) and a sheet named {other!r}: the table is used, the "
+                                     "sheet is not read"))
             return grid, spot
     sheet = book.find_sheet(name)
     if sheet is None:
@@ -216,14 +222,15 @@ def _filled_notes(materials: MaterialSet) -> list[Finding]:
 
 
 def _tables(book: OpenBook, result: BookRating):
-    mgrid, mspot = _spot(book, "Materials", MATERIAL_FIELDS, "name")
-    pgrid, pspot = _spot(book, "Parts", PART_FIELDS, "part", layer_groups=True)
+    notes = result.findings
+    mgrid, mspot = _spot(book, "Materials", MATERIAL_FIELDS, "name", notes=notes)
+    pgrid, pspot = _spot(book, "Parts", PART_FIELDS, "part", layer_groups=True, notes=notes)
     if pspot is None:
         where = "a sheet named 'Parts'" if pgrid is None else "its header row"
         raise BookUnusable(
             f"{book.path.name}: no parts table found: expected a sheet or workbook table named 'Parts' "
             f"with a header row naming 'Part' and the inputs (looked for {where})")
-    lgrid, lspot = _spot(book, "Layers", LAYER_ROW_FIELDS, "part")
+    lgrid, lspot = _spot(book, "Layers", LAYER_ROW_FIELDS, "part", notes=notes)
     if lspot is not None and lspot.column("layer") is None:
         raise BookUnusable(f"{book.path.name}: the 'Layers' table has no 'Layer' column (1 = innermost)")
     if lspot is not None and pspot.layer_numbers:

@@ -141,6 +141,14 @@ def read_numeric(
     for i in slow:
         r = rows[i]
         raw = grid.value(r, col)
+        if raw is None and (r, col) in grid.uncached:
+            bad[i] = True
+            findings.append(Finding(
+                Severity.ERROR, grid.name, cell_ref(r, col),
+                f"{who(r)}: {field.description}: the cell's formula has no saved result (the book was "
+                "written by a program that does not calculate): open and save it in Excel or LibreOffice, "
+                "then run again", *tag(r)))
+            continue
         if raw is None:
             empty[i] = True
             continue

@@ -51,6 +51,7 @@ class SheetGrid:
     errors: dict[tuple[int, int], str] = field(default_factory=dict)
     hidden_rows: frozenset[int] = frozenset()
     merged: tuple[tuple[tuple[int, int], tuple[int, int]], ...] = ()
+    uncached: frozenset[tuple[int, int]] = frozenset()  # formula cells with no saved result
 
     @property
     def height(self) -> int:

@@ -57,17 +57,18 @@ class OpenBook:
         """
         errors: dict = {}
         hidden: frozenset = frozenset()
+        uncached: frozenset = frozenset()
         member = self.sheet_parts.get(name)
         if member:
             extras = self._scan(name, member)
-            errors, hidden = extras.errors, extras.hidden
+            errors, hidden, uncached = extras.errors, extras.hidden, extras.uncached
         try:
             sheet = self._wb.get_sheet_by_name(name)
             rows = sheet.to_python(skip_empty_area=False)
             merged = tuple(sheet.merged_cell_ranges or ())
         except Exception as exc:  # calamine's errors are not one family; word them in one line
             raise BookUnusable(f"{self.path.name}: sheet {name!r} could not be read ({_one_line(exc)})") from None
-        return SheetGrid(name, rows, errors, hidden, merged)
+        return SheetGrid(name, rows, errors, hidden, merged, uncached)
 
     def _scan(self, name: str, member: str) -> SheetExtras:
         from ._commands import MAX_TABLE_ROWS  # the lead's rule, kept in one place

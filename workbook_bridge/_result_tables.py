@@ -180,6 +180,10 @@ def materials_rows(materials: MaterialSet, display: Display) -> list[list]:
             if (m.name.lower(), field) in filled and val is not None:
                 return Styled(val, "filled")
             return val
+        if m.problem:  # nothing derived from unusable inputs is shown as if it were used
+            rows.append([m.name, m.origin, None, None, RULE_NAMES.get(m.rule, str(m.rule)), None, None, None,
+                         "yes" if m.keyway else "no", m.problem])
+            continue
         rows.append([m.name, m.origin, v(m.shear_modulus, "shear_modulus", 1e9), _num(m.allowable_shear / sf),
                      RULE_NAMES.get(m.rule, str(m.rule)), v(m.yield_strength, "yield_strength", sf),
                      v(m.ultimate_strength, "ultimate_strength", sf), _num(m.factor_of_safety),

@@ -20,6 +20,10 @@ _ERROR_CELL = re.compile(
     rb'<c\b(?=[^>]*\bt="e")[^>]*\br="([A-Z]{1,3}[0-9]{1,7})"[^>]*>(?:<f\b[^>]*/>|<f\b[^>]*>.*?</f>)?<v>([^<]{1,16})</v>',
     re.S,
 )
+# A formula cell with no saved result: the book was written by a program that does not calculate.
+_UNCACHED_FORMULA = re.compile(
+    rb'<c\b[^>]*?\br="([A-Z]{1,3}[0-9]{1,7})"[^>]*>\s*<f\b[^>]*(?:/>|>[^<]*</f>)\s*(?:<v\s*/>|<v>\s*</v>)?\s*</c>'
+)
 _HIDDEN_ROW = re.compile(rb'<row\b(?=[^>]*\bhidden="(?:1|true)")[^>]*\br="([0-9]{1,7})"')
 _ROW_NUMBER = re.compile(rb'<row\b[^>]*?\br="([0-9]{1,9})"')
 # Cell references by the length of their column letters: a bare 'r="' search runs at memchr speed,
@@ -41,6 +45,7 @@ class SheetExtras:
     hidden: frozenset[int]
     rows: int
     columns: int
+    uncached: frozenset[tuple[int, int]] = frozenset()
 
 
 def _column_number(letters: bytes) -> int:
@@ -72,7 +77,9 @@ def scan_sheet_xml(data: bytes, max_cells: int | None = None) -> SheetExtras:
             columns = max(_column_number(m.group(1)) for m in _REF2.finditer(data))
     else:
         columns = 26
-    return SheetExtras(errors, hidden, rows, columns)
+    uncached = frozenset(parse_ref(m.group(1).decode()) for m in _UNCACHED_FORMULA.finditer(data)) \
+        if b"<f" in data else frozenset()
+    return SheetExtras(errors, hidden, rows, columns, uncached)
 
 
 def sheet_extras(zf: zipfile.ZipFile, member: str, max_cells: int | None = None) -> SheetExtras:

@@ -40,6 +40,14 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
     rows.append(["Book", book.path.name])
     rows.append(["Rated on", _dt.date.today().isoformat()])
     rows.append(["Results in", f"{display.system}: {lu}, {su}, {tu}"])
+    from . import __version__
+
+    rows.append(["Rated by", f"twistshare {__version__}"])
+    for label, spot in (("Parts table", book.parts_spot), ("Layers table", book.layers_spot),
+                        ("Materials table", book.materials_spot)):
+        if spot is not None and spot.data_rows:
+            rows.append([label, f"sheet {spot.sheet!r}, header on row {spot.header_row + 1}, "
+                                f"{len(spot.data_rows)} rows ({spot.data_rows[0] + 1} to {spot.data_rows[-1] + 1})"])
     rows.append([])
     rows.append([Styled("Caution", "caution_title")])
     for c in CAUTIONS:
@@ -97,10 +105,18 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
     chosen = None
     if r is not None and book.rated is not None and book.rated.any():
         ids = parts.ids
-        if profile_part and profile_part in ids and book.rated[ids.index(profile_part)]:
-            chosen = ids.index(profile_part)
+        wanted = [i for i, p in enumerate(ids) if profile_part and p.strip().lower() == profile_part.strip().lower()]
+        if wanted and book.rated[wanted[0]]:
+            chosen = wanted[0]
         elif low:
             chosen = low[0]
+            if profile_part:
+                why = "is not rated" if wanted else "is not in the parts table"
+                from ._findings import Finding, Severity
+
+                book.findings.append(Finding(Severity.WARNING, None, None,
+                                             f"--profile-part {profile_part!r} {why}: the stress across the "
+                                             f"radius is charted for {ids[chosen]}, the lowest margin"))
     if chosen is not None:
         i = chosen
         radius, stress = stress_profile(
