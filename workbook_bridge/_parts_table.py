@@ -254,6 +254,14 @@ def read_parts(
                 if cell is not None and src is not None and src.error_at(*parse_ref(cell)) is not None:
                     error[i] = True  # the error value is reported on its cell already
                     continue
+                if cell is not None and src is not None and parse_ref(cell) in src.uncached:
+                    findings.append(Finding(Severity.ERROR, sheet, cell,
+                                            f"part {ids[i]}, layer {j + 1}: material: the cell's formula has no "
+                                            "saved result (the book was written by a program that does not "
+                                            "calculate): open and save it in Excel or LibreOffice, then run again",
+                                            part=ids[i], layer=j + 1))
+                    error[i] = True
+                    continue
                 findings.append(Finding(Severity.ERROR, sheet, cell,
                                         f"part {ids[i]}, layer {j + 1}: no material given", part=ids[i], layer=j + 1))
                 error[i] = True

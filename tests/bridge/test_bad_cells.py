@@ -249,9 +249,9 @@ def _handwritten() -> list:
     add(C("empty speed", "empty", {"torque": None, "power": 15, "speed": None}, "speed", ("speed", "missing")))
     add(C("empty power", "empty", {"torque": None, "power": None, "speed": 1450}, "power", ("power", "missing")))
     add(C("zero id1 = solid core", "empty", {"id1": 0}, outcome="same"))
-    # a formula with no saved value reads as empty (the fast reader has only cached values)
-    add(C("formula without value od2", "empty", {"od2": "=B3*2"}, "od2", ("outer diameter", "missing")))
-    add(C("formula without value m1", "empty", {"m1": "=Materials!A2"}, "m1", ("no material",)))
+    # a formula with no saved value: the fast reader has only cached values, so say so
+    add(C("formula without value od2", "empty", {"od2": "=B3*2"}, "od2", ("outer diameter", "no saved result")))
+    add(C("formula without value m1", "empty", {"m1": "=Materials!A2"}, "m1", ("material", "no saved result")))
     add(C("empty kt = 1", "empty", {"kt1": None}, outcome="same"))
     add(C("blank text id1", "empty", {"id1": "   "}, outcome="same"))
     # NaN and infinity, as text and as stored numbers
