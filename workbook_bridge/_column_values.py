@@ -181,8 +181,12 @@ def read_numeric(
                 need = "greater than zero" if lo > 0 else "zero or more"
                 problem = f"{_display(raw, column.unit)} is {sign}; expected {describe_kind(field.kind)} {need}"
             elif not (lo <= v <= hi):
+                shown = _display(raw, column.unit)
+                converted = f"{_fmt(v / f)} {unit}".strip()
+                if shown.replace(" ", "") != converted.replace(" ", ""):
+                    shown = f"{shown} = {converted}"
                 problem = (
-                    f"{_display(raw, column.unit)} = {_fmt(v / f)} {unit} is outside the plausible "
+                    f"{shown} is outside the plausible "
                     f"range {_fmt(lo / f)} to {_fmt(hi / f)} {unit} (common practice); check the unit"
                 ).replace("  ", " ")
         if problem is not None:

@@ -256,7 +256,7 @@ def _fill_library_values(writer: BookWriter, result: BookRating) -> None:
         if factor is None:
             continue
         try:
-            writer.fill_cells(f.sheet, {f.cell: Cell(round(f.value_si / factor, 10), "filled")})
+            writer.fill_cells(f.sheet, {f.cell: Cell(float(f"{f.value_si / factor:.6g}"), "filled")})
         except OoxmlError:
             continue  # the cell is not empty in the file (e.g. spaces): the comment alone says it
 
@@ -290,11 +290,14 @@ def _add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Di
         a, b = layout.profile
         xs = [float("nan") if v is None else v for v in _col_values(srows, a, b, 0)]
         ys = [float("nan") if v is None else v for v in _col_values(srows, a, b, 1)]
+        lims = [float("nan") if v is None else v for v in _col_values(srows, a, b, 2)]
         chart = ScatterChart(
             title=f"Shear stress across the radius, part {layout.profile_part}",
             x_title=f"Radius [{lu}]", y_title=f"Shear stress [{su}]",
-            series=(SeriesData("Shear stress", summ.range_ref(1, a + 1, b + 1), summ.range_ref(2, a + 1, b + 1),
-                               xs, ys),),
+            series=(SeriesData("Nominal shear stress", summ.range_ref(1, a + 1, b + 1),
+                               summ.range_ref(2, a + 1, b + 1), xs, ys),
+                    SeriesData("Allowable ÷ Kt", summ.range_ref(1, a + 1, b + 1),
+                               summ.range_ref(3, a + 1, b + 1), xs, lims)),
         )
         writer.add_chart(summ, (6, 23), (15, 44), chart)
 

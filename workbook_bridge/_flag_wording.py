@@ -6,7 +6,8 @@ from types import MappingProxyType
 
 import numpy as np
 
-from twistshare.engine.core import LayerFlag, PartFlag, Rating, describe
+from twistshare.engine.core import (DEFAULT_CONTACT_ABS_TOL, DEFAULT_CONTACT_REL_TOL, LayerFlag, PartFlag, Rating,
+                                    describe)
 from twistshare.engine.units import display_unit, si_factor
 
 from ._findings import Finding, Severity
@@ -72,7 +73,8 @@ def _layer_message(flag: LayerFlag, parts: PartsInput, rating: Rating, i: int, j
         kind = "gap" if flag == LayerFlag.GAP_BELOW else "overlap"
         return (f"{kind} of {d(abs(gap), 'length', 3)} on the diameter: inner diameter {d(idd, 'length')} "
                 f"against layer {j}'s outer diameter {d(below, 'length')}; the layers must touch "
-                "(within the larger of 0.01 mm and 0.02 % of the diameter)")
+                f"(within the larger of {DEFAULT_CONTACT_ABS_TOL * 1e3:g} mm and {DEFAULT_CONTACT_REL_TOL * 100:g} % of "
+                "the diameter); for a shrink or press fit give both layers the nominal fit diameter")
     if flag == LayerFlag.KT_BELOW_ONE:
         return f"Kt {parts.kt[i, j]:.4g} must be at least 1"
     if flag == LayerFlag.MODULUS_NOT_POSITIVE:

@@ -124,9 +124,15 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             float(r.twist_rate[i]), points_per_layer=2, present=parts.present[i])
         rows.append([Styled(f"Shear stress across the radius of part {parts.ids[i]} at its demand torque "
                             "(the stress jumps at each interface; the strain does not)", "title")])
-        rows.append([Styled(f"Radius [{lu}]", "header"), Styled(f"Shear stress [{su}]", "header")])
+        rows.append([Styled(f"Radius [{lu}]", "header"), Styled(f"Shear stress [{su}]", "header"),
+                     Styled(f"Allowable ÷ Kt [{su}]", "header")])
         start = len(rows)
-        for rad, st in zip(np.asarray(radius), np.asarray(stress)):
-            rows.append([Styled(_f(rad / lf), "fixed3"), Styled(_f(st / sf), "fixed1")])
+        # the allowable each layer's nominal stress is held to (τa/Kt), two points per layer
+        # like the profile itself, so the chart shows which layer comes closest
+        present = np.flatnonzero(parts.present[i])
+        limit = np.repeat(parts.allowable_shear[i, present] / parts.kt[i, present], 2)
+        for rad, st, lim in zip(np.asarray(radius), np.asarray(stress), limit):
+            rows.append([Styled(_f(rad / lf), "fixed3"), Styled(_f(st / sf), "fixed1"),
+                         Styled(_f(lim / sf), "fixed1")])
         profile_block = (start, len(rows) - 1)
     return rows, SummaryLayout(margins_block, profile_block, parts.ids[chosen] if chosen is not None else None)

@@ -43,7 +43,7 @@ def _parser() -> argparse.ArgumentParser:
 
     r = book_command("rate", "rate every part: results, summary and warnings sheets, comments on input cells",
                      "-rated")
-    r.add_argument("--units", choices=["book", "SI", "US"], default="book",
+    r.add_argument("--units", choices=["book", "SI", "US"], default="book", type=_unit_system,
                    help="unit system of the results (default: that of the book's parts table)")
     r.add_argument("--profile-part", default=None,
                    help="part whose shear stress across the radius is charted (default: the lowest margin)")
@@ -55,6 +55,11 @@ def _parser() -> argparse.ArgumentParser:
     d.add_argument("directory", nargs="?", type=Path, default=Path("twistshare-samples"))
     sub.add_parser("functions", help="list every cell function with its arguments, units and description")
     return p
+
+
+def _unit_system(text: str) -> str:
+    """'si', 'Si', 'us' ... as the choices are spelled."""
+    return {"book": "book", "si": "SI", "us": "US"}.get(text.strip().lower(), text)
 
 
 def _default_output(book: Path, suffix: str) -> Path:
