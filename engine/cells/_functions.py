@@ -17,21 +17,18 @@ import numpy as np
 from numpy.typing import NDArray
 
 from twistshare.engine.core import (
-    ALLOWABLE_ERRORS,
-    AllowableFlag,
     AllowableRule,
     Criterion,
     Duty,
+    PartFlag,
     Rating,
-    allowable_flags,
     allowable_shear,
-    describe,
     rate,
     shear_stress_at,
-    split_flags,
     torque_from_power,
 )
 
+from ._allowable_checks import allowable_refusal
 from ._declare import Argument, cell_function
 from ._layer_block import LayerBlock, read_layers
 from ._materials_block import read_materials
@@ -80,8 +77,13 @@ _MATERIALS = Argument(
     "names not found there come from the built-in library",
     block=True,
 )
-_TORQUE = Argument("torque", "Applied torque, e.g. '1200 N·m', or a column beside the block",
-                   unit="torque: N·m, kN·m, lbf·in, lbf·ft")
+_TORQUE_UNITS = "torque: N·m, kN·m, lbf·in, lbf·ft"
+_TORQUE_MAGNITUDE = Argument(
+    "torque", "Applied torque, e.g. '1200 N·m', or a column beside the block; its magnitude "
+    "is rated (a negative torque gives the same margin)", unit=_TORQUE_UNITS)
+_TORQUE_SIGNED = Argument(
+    "torque", "Applied torque, e.g. '1200 N·m', or a column beside the block; the result "
+    "takes its sign (stress and twist are odd in the torque)", unit=_TORQUE_UNITS)
 _LENGTH = Argument("length", "Length over which the layers twist together, e.g. '850 mm' "
                    "(optional)", unit="length: mm, m, in, ft")
 _TWIST_LIMIT = Argument("twist_limit", "Largest total twist allowed over the length, e.g. "
@@ -130,6 +132,17 @@ def _duty_and_rating(block: LayerBlock, torque: Any = None, length: Any = None,
     rating = rate(block.stack, Duty.from_arrays(*values))
     extra = _merge(*problems) if problems else None
     return rating, rating_problems(block, rating, extra)
+
+
+def _torque_sign(rating: Rating) -> NDArray[np.float64]:
+    """-1 for parts whose torque is negative, else +1 (per part).
+
+    The core rates the magnitude and notes the sign (`PartFlag.TORQUE_NEGATIVE`). Stress and
+    twist are odd in T, so the signed results carry the torque's sign; capacities and
+    margins are the same either way and stay as rated.
+    """
+    negative = (np.asarray(rating.part_flags) & int(PartFlag.TORQUE_NEGATIVE)) != 0
+    return np.where(negative, -1.0, 1.0)
 
 
 def _title(name: str, result_unit: Any, kind: str) -> str:
@@ -284,7 +297,7 @@ def TWS_GOVERNS(layers, length=None, twist_limit=None, twist_limit_per_length=No
     "Shear stress in each layer at its outer radius at a torque, nominal (no Kt) "
     "(spills one value per layer)",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE,
+    _TORQUE_SIGNED,
     _result("MPa", "stress", "MPa, N/mm², psi, ksi"),
     _MATERIALS,
     returns="one stress per layer, in result_unit",
@@ -297,7 +310,8 @@ def TWS_STRESS(layers, torque, result_unit=None, materials=None):
     layers : list of lists
         The layer block (see `read_layers` for its shapes).
     torque : str, torque
-        ``"1200 N·m"``; or a column beside a block of many parts.
+        ``"1200 N·m"``; or a column beside a block of many parts. A negative
+        torque gives negative stresses (τ is odd in T; the core rates |T|).
     result_unit : str, optional
         A stress unit; default MPa.
     materials : list of lists, optional
@@ -311,14 +325,15 @@ def TWS_STRESS(layers, torque, result_unit=None, materials=None):
     factor = result_factor(result_unit, "stress")
     block = _block(layers, materials, need_allowable=False)
     rating, problems = _duty_and_rating(block, torque, torque_required=True)
-    return spill_layers(block, rating.stress_outer, factor, problems,
+    stress = rating.stress_outer * _torque_sign(rating)[:, None]
+    return spill_layers(block, stress, factor, problems,
                         _title("stress", result_unit, "stress"))
 
 
 @cell_function(
     "Shear stress at a radius at a torque, nominal (no Kt); on an interface give the layer",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE,
+    _TORQUE_SIGNED,
     Argument("radius", "Radius from the axis, e.g. '20 mm'", unit="length: mm, m, in"),
     Argument("layer", "Layer number (1 = innermost) the radius belongs to; needed only on an "
              "interface, where the stress jumps (optional)"),
@@ -334,6 +349,7 @@ def TWS_STRESS_AT(layers, torque, radius, layer=None, result_unit=None, material
     layers : list of lists
         The layer block (see `read_layers` for its shapes).
     torque : str, torque
+        Signed: a negative torque gives a negative result (the core rates |T|).
     radius : str, length
     layer : int, optional
         1-based layer number; needed only on an interface, where the stress jumps.
@@ -357,7 +373,7 @@ def TWS_STRESS_AT(layers, torque, radius, layer=None, result_unit=None, material
     problems = _merge(problems, slot_problems)
     parts = np.arange(block.n_parts)
     modulus = stack.shear_modulus[parts, slot]
-    stress = shear_stress_at(radii, modulus, rating.twist_rate)
+    stress = shear_stress_at(radii, modulus, rating.twist_rate * _torque_sign(rating))
     return spill_parts(block, _values(np.atleast_1d(stress), factor), problems,
                        _title("stress", result_unit, "stress"))
 
@@ -402,7 +418,7 @@ def _length_text(value: float, system: str) -> str:
 @cell_function(
     "Twist angle over the length at a torque, phi = T·L / ΣGJ",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE,
+    _TORQUE_SIGNED,
     Argument("length", "Length over which the layers twist together, e.g. '850 mm'",
              unit="length: mm, m, in, ft"),
     _result("°", "angle", "°, deg, rad"),
@@ -417,6 +433,7 @@ def TWS_TWIST_ANGLE(layers, torque, length, result_unit=None, materials=None):
     layers : list of lists
         The layer block (see `read_layers` for its shapes).
     torque : str, torque
+        Signed: a negative torque gives a negative result (the core rates |T|).
     length : str, length
     result_unit : str, optional
         An angle unit; default °.
@@ -431,14 +448,15 @@ def TWS_TWIST_ANGLE(layers, torque, length, result_unit=None, materials=None):
     block = _block(layers, materials, need_allowable=False)
     rating, problems = _duty_and_rating(block, torque, length, torque_required=True,
                                         length_required=True)
-    return spill_parts(block, _values(rating.twist_angle, factor), problems,
+    return spill_parts(block, _values(rating.twist_angle * _torque_sign(rating), factor),
+                       problems,
                        _title("twist angle", result_unit, "angle"))
 
 
 @cell_function(
     "Twist per length at a torque, common to every layer: theta' = T / ΣGJ",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE,
+    _TORQUE_SIGNED,
     _result("°/m", "angle per length", "°/m, rad/m, °/ft"),
     _MATERIALS,
     returns="the twist rate, in result_unit",
@@ -451,6 +469,7 @@ def TWS_TWIST_RATE(layers, torque, result_unit=None, materials=None):
     layers : list of lists
         The layer block (see `read_layers` for its shapes).
     torque : str, torque
+        Signed: a negative torque gives a negative result (the core rates |T|).
     result_unit : str, optional
         An angle-per-length unit; default °/m.
     materials : list of lists, optional
@@ -463,14 +482,15 @@ def TWS_TWIST_RATE(layers, torque, result_unit=None, materials=None):
     factor = result_factor(result_unit, "angle_per_length")
     block = _block(layers, materials, need_allowable=False)
     rating, problems = _duty_and_rating(block, torque, torque_required=True)
-    return spill_parts(block, _values(rating.twist_rate, factor), problems,
+    return spill_parts(block, _values(rating.twist_rate * _torque_sign(rating), factor),
+                       problems,
                        _title("twist rate", result_unit, "angle_per_length"))
 
 
 @cell_function(
     "Margin left at a torque: governing limit / |torque| - 1",
     _LAYERS,
-    _TORQUE,
+    _TORQUE_MAGNITUDE,
     _LENGTH,
     _TWIST_LIMIT,
     _TWIST_PER_LENGTH,
@@ -487,6 +507,7 @@ def TWS_MARGIN(layers, torque, length=None, twist_limit=None, twist_limit_per_le
     layers : list of lists
         The layer block (see `read_layers` for its shapes).
     torque : str, torque
+        Its magnitude is rated: a negative torque gives the same margin.
     length, twist_limit, twist_limit_per_length : str, optional
         As for `TWS_GOVERNING_LIMIT`.
     result_unit : str, optional
@@ -555,7 +576,8 @@ def TWS_TORQUE_FROM_POWER(power, speed, service_factor=None, result_unit=None):
              unit="stress: MPa, N/mm², psi, ksi"),
     Argument("ultimate_strength", "Ultimate tensile strength Su (shafting code only)",
              unit="stress: MPa, N/mm², psi, ksi"),
-    Argument("factor_of_safety", "Factor of safety FS (max shear and distortion energy only)"),
+    Argument("factor_of_safety", "Factor of safety FS, at least 1 (max shear and distortion "
+             "energy only)"),
     Argument("keyway", "TRUE or yes where a keyway is cut (shafting code only)"),
     _result("MPa", "stress", "MPa, N/mm², psi, ksi"),
     returns="the allowable shear stress, in result_unit",
@@ -571,10 +593,11 @@ def TWS_ALLOWABLE(rule, yield_strength, ultimate_strength=None, factor_of_safety
         Sy/(√3 FS)) or ``"shafting code"`` (min(0.30 Sy, 0.18 Su), ×0.75 with a keyway).
     yield_strength : str, stress
     ultimate_strength : str, stress, optional
-        Needed by the shafting code rule.
+        Needed by the shafting code rule; refused below the yield strength (check both).
     factor_of_safety : number, 1, optional
-        Needed by the two theories; refused with the shafting code rule, which embeds its
-        own allowance (it would be ignored).
+        Needed by the two theories, at least 1 (below 1 the allowable would exceed the
+        shear yield strength); refused with the shafting code rule, which embeds its own
+        allowance (it would be ignored).
     keyway : bool or yes/no, optional
         Shafting code rule only; refused with the theories (use Kt there).
     result_unit : str, optional
@@ -592,24 +615,16 @@ def TWS_ALLOWABLE(rule, yield_strength, ultimate_strength=None, factor_of_safety
     su = math.nan if is_empty(ultimate_strength) else read_quantity(
         ultimate_strength, "stress", "ultimate strength")
     has_keyway = read_flag(keyway, "keyway")
-    shafting = chosen == AllowableRule.SHAFTING_CODE
-    if shafting:
-        # The rule embeds its own allowance: an FS typed here would be silently ignored.
-        if not is_empty(factor_of_safety):
-            raise CellError("factor of safety", describe(AllowableFlag.FACTOR_OF_SAFETY_IGNORED)
-                            + "; leave it empty")
-        fs = math.nan
-    else:
-        if has_keyway:
-            raise CellError("keyway", describe(AllowableFlag.KEYWAY_IGNORED))
-        if is_empty(factor_of_safety):
-            raise CellError("factor of safety", "cell is empty; expected a plain number "
-                            "(give 1 for the shear yield strength itself)")
-        fs = read_number(factor_of_safety, "factor of safety")
+    fs_typed = not is_empty(factor_of_safety)
+    if chosen != AllowableRule.SHAFTING_CODE and not has_keyway and not fs_typed:
+        raise CellError("factor of safety", "cell is empty; expected a plain number "
+                        "(give 1 for the shear yield strength itself)")
+    fs = read_number(factor_of_safety, "factor of safety") if fs_typed else math.nan
+    # Notes as well as errors refuse: a cell cannot show a number and a warning together.
+    refusal = allowable_refusal(chosen, sy, su, fs, has_keyway, factor_typed=fs_typed)
+    if refusal is not None:
+        raise CellError("", refusal)
     allowable = float(allowable_shear(int(chosen), sy, su, fs, has_keyway))
-    if math.isnan(allowable):
-        # The core leaves NaN exactly where its flags report an error: ask it which.
-        flags = int(allowable_flags(int(chosen), sy, su, fs, has_keyway))
-        errors = [f for f in split_flags(flags, AllowableFlag) if f & ALLOWABLE_ERRORS]
-        raise CellError("", describe(errors[0]) if errors else "could not be computed")
+    if not math.isfinite(allowable):
+        raise CellError("", "could not be computed")
     return allowable / factor

@@ -207,6 +207,10 @@ def _positional_columns(width: int) -> list[_Column]:
     )
 
 
+# (G, allowable or NaN, problem, label for the message, why the material gives no allowable)
+_MaterialCell = tuple[float, float, str | None, str, str | None]
+
+
 class _Reader:
     """Parses one column of cells at a time, memoising repeated texts."""
 
@@ -266,14 +270,17 @@ class _Reader:
             return math.nan, str(problem)
 
     def material_column(self, cells: Any, unit: str | None, rows: Any
-                        ) -> tuple[NDArray[np.float64], NDArray[np.float64], dict[int, str]]:
-        """Shear modulus per row, the allowable its material implies (NaN if none), problems."""
+                        ) -> tuple[NDArray[np.float64], NDArray[np.float64], dict[int, str],
+                                   dict[int, str]]:
+        """Per row: shear modulus, the allowable its material implies (NaN if none), problems,
+        and why a material gives no allowable (for rows that need one and give none)."""
         n = len(cells)
         allowable = np.full(n, math.nan)
         errors: dict[int, str] = {}
+        why: dict[int, str] = {}
         if n and unit is not None and _all_plain_numbers(cells):
             modulus, errors = self.numbers(cells, "material", unit, rows)
-            return modulus, allowable, errors
+            return modulus, allowable, errors, why
         if n and set(map(type, cells)) == {str}:
             # Text only (material names, "79 GPa"): read each distinct text once.
             distinct = {text: i for i, text in enumerate(dict.fromkeys(cells))}
@@ -281,13 +288,16 @@ class _Reader:
             inverse = np.fromiter(map(distinct.__getitem__, cells), np.intp, n)
             modulus = np.array([t[0] for t in table], dtype=float)[inverse]
             allowable = np.array([t[1] for t in table], dtype=float)[inverse]
-            bad = [i for i, t in enumerate(table) if t[2] is not None]
-            if bad:
-                for i in np.flatnonzero(np.isin(inverse, bad)).tolist():
-                    _, _, problem, label = table[inverse[i]]
-                    errors[i] = f"{label}, {rows[i]}: {problem}"
-            return modulus, allowable, errors
-        memo: dict[Any, tuple[float, float, str | None, str]] = {}
+            noted = [i for i, t in enumerate(table) if t[2] is not None or t[4] is not None]
+            if noted:
+                for i in np.flatnonzero(np.isin(inverse, noted)).tolist():
+                    _, _, problem, label, reason = table[inverse[i]]
+                    if problem is not None:
+                        errors[i] = _worded(label, rows[i], problem)
+                    if reason is not None:
+                        why[i] = reason
+            return modulus, allowable, errors, why
+        memo: dict[Any, _MaterialCell] = {}
         found_all = []
         for cell in cells:
             # Texts are memoised by value; numbers by type too, so 1 and True stay apart.
@@ -301,27 +311,34 @@ class _Reader:
             found_all.append(found)
         modulus = np.array([f[0] for f in found_all], dtype=float)
         allowable = np.array([f[1] for f in found_all], dtype=float)
-        for i, (_, _, problem, label) in enumerate(found_all):
+        for i, (_, _, problem, label, reason) in enumerate(found_all):
             if problem is not None:
-                errors[i] = f"{label}, {rows[i]}: {problem}"
-        return modulus, allowable, errors
+                errors[i] = _worded(label, rows[i], problem)
+            if reason is not None:
+                why[i] = reason
+        return modulus, allowable, errors, why
 
-    def _material_cell(self, cell: Any, unit: str | None) -> tuple[float, float, str | None, str]:
-        """(G, allowable from the material or NaN, problem, label) for one cell."""
+    def _material_cell(self, cell: Any, unit: str | None) -> _MaterialCell:
+        """(G, allowable from the material or NaN, problem, label, why no allowable)."""
         is_name = isinstance(cell, str) and not excel_error_text(cell) and not (
             looks_numeric(cell) and (unit is not None or _has_unit(cell)))
         if is_name and cell.strip():
-            material, material_allowable, problem = self.materials.lookup(
+            material, material_allowable, problem, reason = self.materials.lookup(
                 cell, self.material_cache)
             if problem is None and material is not None and not material.shear_modulus > 0:
                 problem = f"material {material.name!r} has no shear modulus"
             if problem is not None or material is None:
-                return math.nan, math.nan, problem, "material"
-            return material.shear_modulus, material_allowable, None, "material"
+                # The problem names the material itself; the row is enough beside it.
+                return math.nan, math.nan, problem, "", None
+            return material.shear_modulus, material_allowable, None, "", reason
         value, problem = self._one(cell, "material", unit)
         if problem is not None and _is_blank(cell):
             problem = "cell is empty; expected a material name or a shear modulus G"
-        return value, math.nan, problem, _LABEL["material"]
+        return value, math.nan, problem, _LABEL["material"], None
+
+
+def _worded(label: str, row: str, problem: str) -> str:
+    return f"{label}, {row}: {problem}" if label else f"{row}: {problem}"
 
 
 def _all_plain_numbers(cells: Any) -> bool:
@@ -464,7 +481,7 @@ def _read_group(by_column: list[tuple[Any, ...]], by_key: dict[tuple[str, int], 
             all_cells = by_column[column.index]
             cells[f] = all_cells if every_row else [all_cells[r] for r in take]
     material = by_key[("material", group)] if ("material", group) in by_key else None
-    modulus, material_allowable, found = reader.material_column(
+    modulus, material_allowable, found, no_allowable = reader.material_column(
         cells["material"], material.unit if material else None, labels)
     errors.update(found)
     values["material"] = modulus
@@ -484,7 +501,11 @@ def _read_group(by_column: list[tuple[Any, ...]], by_key: dict[tuple[str, int], 
         values["allowable"] = np.where(missing, material_allowable, values["allowable"])
         for i in np.flatnonzero(np.isnan(values["allowable"])):
             i = int(i)
-            if i not in errors:
+            if i in errors:
+                continue
+            if i in no_allowable:
+                errors[i] = f"{labels[i]}: {no_allowable[i]}"
+            else:
                 errors[i] = (f"allowable, {labels[i]}: cell is empty and the material gives "
                              "none; give the allowable shear stress (e.g. from TWS_ALLOWABLE)")
     for f in ("material", "outer", "inner") + (("allowable",) if need_allowable else ()):

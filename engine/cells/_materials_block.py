@@ -13,19 +13,15 @@ from typing import Any
 import numpy as np
 
 from twistshare.engine.core import (
-    ALLOWABLE_ERRORS,
-    AllowableFlag,
     AllowableRule,
     Material,
-    allowable_flags,
     allowable_shear,
-    describe,
     find_material,
     normalise_name,
-    split_flags,
 )
 from twistshare.engine.units import UnitProblem, excel_error_text, parse_value, split_header
 
+from ._allowable_checks import RULE_WORDS, allowable_refusal, is_steel
 from ._values import CellError, read_flag, read_rule
 
 __all__ = ["MaterialsBlock", "read_materials", "header_key"]
@@ -99,35 +95,42 @@ class MaterialsBlock:
     allowables : mapping of normalised name to float, Pa
         Given directly, or from the row's rule, strengths and factor of safety.
     problems : mapping of normalised name to str
-        Rows that could not be read; a layer naming one shows the message.
+        Rows that cannot be used; a layer naming one shows the message.
+    allowable_problems : mapping of normalised name to str
+        Usable rows that give no allowable: why, for a layer that needs one and gives none.
     """
 
     materials: Mapping[str, Material] = field(default_factory=dict)
     allowables: Mapping[str, float] = field(default_factory=dict)
     problems: Mapping[str, str] = field(default_factory=dict)
+    allowable_problems: Mapping[str, str] = field(default_factory=dict)
 
-    def lookup(self, name: str, cache: dict[str, Any]) -> tuple[Material | None, float, str | None]:
-        """(material, allowable or NaN, problem) for a name: this block first, then the library.
+    def lookup(self, name: str, cache: dict[str, Any]) -> Found:
+        """(material, allowable or NaN, problem, why no allowable) for a name.
 
-        `cache` is a per-call memo (library look-ups build the library each time).
+        This block first, then the library. `cache` is a per-call memo.
         """
         key = normalise_name(name)
         if key in cache:
             return cache[key]
         if key in self.problems:
-            found: tuple[Material | None, float, str | None] = (None, math.nan, self.problems[key])
+            found: Found = (None, math.nan, self.problems[key], None)
         elif key in self.materials:
-            found = (self.materials[key], self.allowables.get(key, math.nan), None)
+            found = (self.materials[key], self.allowables.get(key, math.nan), None,
+                     self.allowable_problems.get(key))
         else:
             material = _library_material(key)
             if material is None:
                 where = "the materials block or " if self.materials or self.problems else ""
                 found = (None, math.nan,
-                         f"no material named {name.strip()!r} in {where}the built-in library")
+                         f"no material named {name.strip()!r} in {where}the built-in library", None)
             else:
-                found = (material, math.nan, None)
+                found = (material, math.nan, None, None)
         cache[key] = found
         return found
+
+
+Found = tuple[Material | None, float, str | None, str | None]
 
 
 @lru_cache(maxsize=256)
@@ -146,6 +149,11 @@ def read_materials(block: Any) -> MaterialsBlock:
     Columns are found by header name, any order, units in the headers (``G [GPa]``):
     Material, G, E, Poisson ratio, Density, Yield strength, Ultimate strength,
     Allowable shear, Allowable rule, Factor of safety, Keyway. Other columns are ignored.
+
+    A row naming a built-in material takes the library's values for the groups it leaves
+    wholly blank (E and ν; Sy and Su; density; G unless the row's own E and ν give it), never
+    one value of a group beside the row's other. A row with no allowable and no rule gets
+    the shafting code rule if it is a steel; otherwise it has no allowable.
 
     Raises
     ------
@@ -179,6 +187,8 @@ def read_materials(block: Any) -> MaterialsBlock:
     materials: dict[str, Material] = {}
     allowables: dict[str, float] = {}
     problems: dict[str, str] = {}
+    allowable_problems: dict[str, str] = {}
+    first_row: dict[str, int] = {}
     for row_number, row in enumerate(block[1:], start=2):  # the header is row 1
         row = list(row)
         name_cell = row[columns["name"][0]] if columns["name"][0] < len(row) else None
@@ -186,66 +196,178 @@ def read_materials(block: Any) -> MaterialsBlock:
         if not name:
             continue
         key = normalise_name(name)
-        if key in materials or key in problems:
-            problems[key] = f"material {name!r} appears twice in the materials block"
+        if key in first_row:
+            problems[key] = (f"material {name!r} appears twice in the materials block (rows "
+                             f"{first_row[key]} and {row_number})")
             materials.pop(key, None)
+            allowables.pop(key, None)
+            allowable_problems.pop(key, None)
             continue
+        first_row[key] = row_number
         try:
-            values = _read_row(row, columns, row_number)
+            values = _read_row(row, columns)
             rule = values.pop("rule", None)
             factor = values.pop("factor_of_safety", math.nan)
             keyway = values.pop("keyway", False)
             allowable = values.pop("allowable", math.nan)
-            try:
-                material = Material(name, **values)
-            except ValueError as error:
-                detail = str(error).removeprefix(f"material {name!r}: ")
-                raise CellError(f"materials, row {row_number}", detail) from None
-            if math.isnan(allowable) and rule is not None and rule != AllowableRule.GIVEN:
-                allowable = _allowable_by_rule(material, rule, factor, keyway, row_number)
+            material, own_strengths = _row_material(name, key, values)
+            allowable, why = _row_allowable(material, rule, allowable, factor, keyway,
+                                            own_strengths)
         except CellError as error:
-            problems[key] = f"{name!r} in the materials block cannot be used ({error.where}: " \
-                            f"{error.what})"
+            what = f"{error.where}: {error.what}" if error.where else error.what
+            problems[key] = f"material {name!r} (materials block, row {row_number}): {what}"
             continue
         materials[key] = material
         if not math.isnan(allowable):
             allowables[key] = allowable
+        elif why is not None:
+            allowable_problems[key] = f"material {name!r} (materials block, row {row_number}): {why}"
     return MaterialsBlock(MappingProxyType(materials), MappingProxyType(allowables),
-                          MappingProxyType(problems))
+                          MappingProxyType(problems), MappingProxyType(allowable_problems))
 
 
-def _read_row(row: list[Any], columns: dict[str, tuple[int, str | None, str | None]],
-              row_number: int) -> dict[str, Any]:
+def _read_row(row: list[Any], columns: dict[str, tuple[int, str | None, str | None]]
+              ) -> dict[str, Any]:
+    """The row's values, SI; NaN for a blank cell. Raises CellError for an unusable cell."""
     values: dict[str, Any] = {}
     for field_name, (index, kind, unit) in columns.items():
         if field_name == "name":
             continue
         cell = row[index] if index < len(row) else None
-        where = f"materials, {_LABELS[field_name]}, row {row_number}"
+        label = _LABELS[field_name]
         if kind == "rule":
             if cell is not None and _cell_text(cell) != "" or excel_error_text(cell):
-                values["rule"] = read_rule(cell, where)
+                values["rule"] = read_rule(cell, label)
             continue
         if kind == "flag":
-            values["keyway"] = read_flag(cell, where)
+            values["keyway"] = read_flag(cell, label)
             continue
         if cell is None or (isinstance(cell, str) and not cell.strip()):
             values[field_name] = math.nan
             continue
         try:
-            values[field_name] = parse_value(cell, kind, unit)
+            value = parse_value(cell, kind, unit)
         except UnitProblem as problem:
-            raise CellError(where, str(problem)) from None
+            raise CellError("", f"{label}: {problem}") from None
+        if field_name != "poisson_ratio" and not (math.isfinite(value) and value > 0):
+            raise CellError("", f"{label} must be greater than zero; got {cell!r}")
+        values[field_name] = value
     return values
 
 
-def _allowable_by_rule(material: Material, rule: AllowableRule, factor: float, keyway: bool,
-                       row_number: int) -> float:
-    factor = 1.0 if math.isnan(factor) and rule == AllowableRule.SHAFTING_CODE else factor
-    flags = int(allowable_flags(int(rule), material.yield_strength, material.ultimate_strength,
-                                factor, keyway))
-    if flags & int(ALLOWABLE_ERRORS):
-        first = next(f for f in split_flags(flags, AllowableFlag) if f & ALLOWABLE_ERRORS)
-        raise CellError(f"materials, row {row_number}", describe(first))
-    return float(np.asarray(allowable_shear(int(rule), material.yield_strength,
-                                            material.ultimate_strength, factor, keyway)))
+_GROUPS = (("youngs_modulus", "poisson_ratio"), ("yield_strength", "ultimate_strength"),
+           ("density",))
+
+
+def _row_material(name: str, key: str, values: dict[str, float]
+                  ) -> tuple[Material, frozenset[str]]:
+    """The row's Material, completed from the library where it names a built-in one.
+
+    Returns the material and which of Sy, Su the row itself gives (for messages).
+    """
+    given = frozenset(k for k, v in values.items() if not math.isnan(v))
+    library = _library_material(key)
+    values = dict(values)
+    if library is not None:
+        # A group is filled only when the row gives none of it, so a row's Sy is never
+        # paired with the library's Su (the workbook bridge's rule too).
+        for group in _GROUPS:
+            if not given.intersection(group):
+                values.update({k: getattr(library, k) for k in group})
+        own_elastic = {"youngs_modulus", "poisson_ratio"} <= given
+        if "shear_modulus" not in given and (not own_elastic or not library.isotropic):
+            # An orthotropic material's G is not E/2(1+ν): the library's G, never derived.
+            values["shear_modulus"] = library.shear_modulus
+        isotropic = library.isotropic
+    else:
+        # Only the derivation G = E/2(1+ν) needs isotropy; a row giving its own G may be of
+        # a wound composite, whose Poisson ratio can exceed 0.5.
+        isotropic = "shear_modulus" not in given
+    nu = values.get("poisson_ratio", math.nan)
+    if not math.isnan(nu) and not nu > -1.0:
+        raise CellError("", f"Poisson ratio must be greater than -1; got {nu:g}")
+    needs_derivation = math.isnan(values.get("shear_modulus", math.nan))
+    if isotropic and nu > 0.5:
+        if needs_derivation and not math.isnan(values.get("youngs_modulus", math.nan)):
+            raise CellError("", f"Poisson ratio {nu:g} is above 0.5: G = E/2(1+ν) holds for "
+                                "an isotropic material only; give G")
+        raise CellError("", f"Poisson ratio {nu:g} is above 0.5, the bound for an isotropic "
+                            "material; check it")
+    try:
+        material = Material(name, isotropic=isotropic, **values)
+    except ValueError as error:
+        raise CellError("", str(error).removeprefix(f"material {name!r}: ")) from None
+    if not material.shear_modulus > 0:
+        raise CellError("", "no shear modulus: give G, or E and Poisson ratio"
+                            + ("" if library is not None else
+                               ", or name a built-in library material"))
+    return material, given & {"yield_strength", "ultimate_strength"}
+
+
+_STRENGTH_WORDS = MappingProxyType(
+    {"yield_strength": "yield strength", "ultimate_strength": "ultimate strength"})
+
+
+def _pairing_note(material: Material, own_strengths: frozenset[str], missing: list[str]) -> str:
+    """Why the library's strength was not used beside the row's other one, if that is so."""
+    if len(own_strengths) != 1 or not missing or own_strengths & set(missing):
+        return ""
+    if _library_material(normalise_name(material.name)) is None:
+        return ""
+    (own,) = own_strengths
+    return (f" (the row gives only the {_STRENGTH_WORDS[own]}; the library's typical "
+            f"{_STRENGTH_WORDS[missing[0]]} is not paired with it)")
+
+
+def _row_allowable(material: Material, rule: AllowableRule | None, allowable: float,
+                   factor: float, keyway: bool, own_strengths: frozenset[str]
+                   ) -> tuple[float, str | None]:
+    """(allowable or NaN, why there is none): the row's allowable by the rule it names.
+
+    Raises
+    ------
+    CellError
+        Where the row's inputs contradict each other or the rule (an FS or keyway the rule
+        does not use, FS below 1, Su below Sy, a rule that cannot be evaluated): a cell
+        cannot show a number and a warning together.
+    """
+    factor_typed = not math.isnan(factor)
+    if not math.isnan(allowable):
+        if rule is not None and rule != AllowableRule.GIVEN:
+            raise CellError("", f"an allowable shear and the {RULE_WORDS[rule]} rule are both "
+                                "given; keep one")
+        if factor_typed:
+            raise CellError("", "factor of safety is not used when the allowable shear is given "
+                                "directly (it should already include it); leave it blank")
+        if keyway:
+            raise CellError("", "keyway is not used when the allowable shear is given directly "
+                                "(it should already allow for the keyway); leave it blank")
+        return allowable, None
+    if rule == AllowableRule.GIVEN:
+        return math.nan, "the allowable rule is 'given' but no allowable shear is given"
+    default_rule = rule is None
+    if default_rule:
+        if factor_typed:
+            raise CellError("", "a factor of safety is given but no allowable rule: name the "
+                                "rule it applies to (max shear or distortion energy)")
+        if not is_steel(material.name):
+            return math.nan, ("no allowable given; the shafting code rule is for steel shafting "
+                              "— give an allowable or a rule with a factor of safety")
+        rule = AllowableRule.SHAFTING_CODE
+    sy, su = material.yield_strength, material.ultimate_strength
+    refusal = allowable_refusal(rule, sy, su, factor, keyway, factor_typed=factor_typed)
+    if refusal is not None:
+        needed = ("yield_strength", "ultimate_strength") \
+            if rule == AllowableRule.SHAFTING_CODE else ("yield_strength",)
+        missing = [k for k in needed if math.isnan(getattr(material, k))]
+        note = _pairing_note(material, own_strengths, missing)
+        if missing and default_rule:
+            # Missing data, not a contradiction: the row still serves results that need no
+            # allowable (share, stress, twist).
+            return math.nan, (
+                "no allowable given; the shafting code rule (used for steel when no rule is "
+                f"given) needs the {' and '.join(_STRENGTH_WORDS[k] for k in missing)}{note}")
+        raise CellError("", refusal + note)
+    return float(np.asarray(allowable_shear(int(rule), sy, su,
+                                            math.nan if rule == AllowableRule.SHAFTING_CODE
+                                            else factor, keyway))), None

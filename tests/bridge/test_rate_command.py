@@ -180,10 +180,10 @@ class TestRateCatalogue:
             for j in range(exp["layers"]):
                 n = j + 1
                 assert got[f"L{n} share [%]"] == pytest.approx(100 * float(r.share[0, j]), rel=1e-9), (pid, n)
-                assert got[f"L{n} capacity [N·m]"] == pytest.approx(float(r.capacity[0, j]), rel=1e-9), (pid, n)
-                assert got[f"L{n} stress at outer [MPa]"] == pytest.approx(
+                assert got[f"L{n} capacity (section torque) [N·m]"] == pytest.approx(float(r.capacity[0, j]), rel=1e-9), (pid, n)
+                assert got[f"L{n} nominal stress at outer [MPa]"] == pytest.approx(
                     float(r.stress_outer[0, j]) / 1e6, rel=1e-9), (pid, n)
-                assert got[f"L{n} utilisation [%]"] == pytest.approx(
+                assert got[f"L{n} utilisation with Kt [%]"] == pytest.approx(
                     100 * float(r.utilisation[0, j]), rel=1e-9), (pid, n)
             assert (got["Status"] == "FAILS") == (float(r.margin[0]) < 0), pid
 

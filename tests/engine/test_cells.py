@@ -400,7 +400,7 @@ class TestMaterials:
 
     def test_problems(self):
         assert_warning(TWS_SHARE([["Broken", "40 mm", 0]], None, self.MATERIALS),
-                       "'Broken' in the materials block cannot be used")
+                       "material 'Broken' (materials block, row 4)", "G must be greater than zero")
         assert_warning(TWS_LAYER_CAPACITY([[STAINLESS, "40 mm", 0, None]]),
                        "allowable", "the material gives none")
         assert_warning(TWS_SHARE([["Unobtainium", "40 mm", 0]], None, self.MATERIALS),
@@ -481,7 +481,8 @@ class TestBadInputNeverANumber:
         assert_warning(TWS_ALLOWABLE("given", "310 MPa"), "typed directly")
         assert_warning(TWS_ALLOWABLE("max shear", "310 MPa"), "factor of safety", "empty")
         assert_warning(TWS_ALLOWABLE("max shear", "310 MPa", None, 2, True), "keyway")
-        assert_warning(TWS_ALLOWABLE("shafting code", "310 MPa", "570 MPa", 2), "not applied")
+        assert_warning(TWS_ALLOWABLE("shafting code", "310 MPa", "570 MPa", 2),
+                       "not used by the shafting code rule")
         assert_warning(TWS_ALLOWABLE("shafting code", "310 MPa"), "ultimate strength")
         assert_warning(TWS_ALLOWABLE("Rankine", "310 MPa", None, 2), "rule", "'Rankine'")
         assert_warning(TWS_ALLOWABLE("max shear", "310 MPa", None, 2, "maybe"), "yes or no")
@@ -558,3 +559,291 @@ class TestCatalogue:
     def test_names_are_ours(self):
         for entry in list_functions():
             assert entry["name"].startswith("TWS_") and entry["name"].isupper()
+
+
+# --- Allowables, library fall-back, isotropy and the sign of the torque -----------------------
+
+MPA = 1e6
+GPA = 1e9
+SOLID_40_J = math.pi / 32 * 0.040**4  # J = π/32·D⁴ (Roark's, torsion of circular sections)
+MAT_HEADER = ["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Yield strength [MPa]",
+              "Ultimate strength [MPa]", "Allowable shear [MPa]", "Allowable rule",
+              "Factor of safety", "Keyway"]
+
+
+def materials_row(name, g=None, e=None, nu=None, sy=None, su=None, allowable=None, rule=None,
+                  fs=None, keyway=None):
+    """A materials block of one row (header first), as xlwings passes it."""
+    return [MAT_HEADER, [name, g, e, nu, sy, su, allowable, rule, fs, keyway]]
+
+
+def solid_capacity(name, materials):
+    """TWS_LAYER_CAPACITY of one solid 40 mm layer of `name`, allowable from the material."""
+    result = TWS_LAYER_CAPACITY([[name, "40 mm", 0, None]], None, materials)
+    return result[0][0] if isinstance(result, list) else result
+
+
+def solid_twist_rate(name, materials):
+    """TWS_TWIST_RATE [rad/m] of one solid 40 mm layer of `name` at 1000 N·m."""
+    return TWS_TWIST_RATE([[name, "40 mm", 0]], "1000 N·m", "rad/m", materials)
+
+
+class TestMaterialsBlockRefusesWhatTheRuleIgnores:
+    """A materials-block row whose allowable the engine would flag is refused, not rated.
+
+    The engine's notes (allowable_flags) leave a number in place; a cell cannot show a number
+    and a warning together, so the row is refused with the material, the input and the rule.
+    """
+
+    @pytest.mark.parametrize(
+        "row, words",
+        [
+            # The shafting code rule embeds its own allowance: an FS on top is ignored
+            # (ASME code for transmission shafting as quoted in machine-design texts, from
+            # memory). FS 1 is refused too, as TWS_ALLOWABLE refuses it.
+            (dict(sy=300, su=500, rule="shafting code", fs=2),
+             ["factor of safety is not used by the shafting code rule",
+              "carries its own allowance", "leave it blank"]),
+            (dict(sy=300, su=500, rule="shafting code", fs=1),
+             ["factor of safety is not used by the shafting code rule"]),
+            # The 0.75 keyway factor belongs to the shafting code rule only (same source).
+            (dict(sy=300, rule="max shear", fs=2, keyway="yes"),
+             ["keyway is not used by the max shear rule", "Kt"]),
+            (dict(sy=300, rule="distortion energy", fs=2, keyway=True),
+             ["keyway is not used by the distortion energy rule"]),
+            # FS below 1 puts the allowable above the shear yield strength (common practice).
+            (dict(sy=300, rule="max shear", fs=0.5),
+             ["factor of safety 0.5 is below 1", "max shear"]),
+            # The ultimate strength of a metal is not below its yield strength (common practice).
+            (dict(sy=300, su=200, rule="max shear", fs=2),
+             ["ultimate strength 200 MPa is below the yield strength 300 MPa"]),
+            (dict(sy=300, su=200, rule="shafting code"),
+             ["ultimate strength 200 MPa is below the yield strength 300 MPa"]),
+            # Contradictions between the row's own cells.
+            (dict(sy=300, allowable=90, rule="max shear", fs=2),
+             ["an allowable shear and the max shear rule are both given"]),
+            (dict(allowable=90, fs=2), ["factor of safety is not used when the allowable"]),
+            (dict(sy=300, su=500, fs=2), ["a factor of safety is given but no allowable rule"]),
+        ],
+    )
+    def test_row_refused(self, row, words):
+        materials = materials_row("MPD shaft steel", g=80, **row)
+        for result in (solid_capacity("MPD shaft steel", materials),
+                       TWS_SHARE([["MPD shaft steel", "40 mm", 0]], None, materials)):
+            assert_warning(result, "material 'MPD shaft steel' (materials block, row 2)", *words)
+
+    @pytest.mark.parametrize(
+        "rule, sy, su, fs, keyway",
+        [("shafting code", "300 MPa", "500 MPa", 2, None),
+         ("max shear", "300 MPa", None, 2, "yes"),
+         ("max shear", "300 MPa", None, 0.5, None),
+         ("max shear", "300 MPa", "200 MPa", 2, None)],
+    )
+    def test_tws_allowable_refuses_the_same_inputs(self, rule, sy, su, fs, keyway):
+        assert_warning(TWS_ALLOWABLE(rule, sy, su, fs, keyway))
+
+    def test_the_same_rows_without_the_offending_input_are_rated(self):
+        # Controls for the refusals above. min(0.30·Sy, 0.18·Su) (shafting code rule);
+        # 0.5·Sy/FS (maximum-shear-stress theory, textbook); T = τ·J/r (Roark's).
+        for row, tau in (
+            (dict(sy=300, su=500, rule="shafting code"), min(0.30 * 300, 0.18 * 500) * MPA),
+            (dict(sy=300, su=500, rule="shafting code", keyway="yes"),
+             0.75 * min(0.30 * 300, 0.18 * 500) * MPA),
+            (dict(sy=300, rule="max shear", fs=1), 0.5 * 300 * MPA),
+            (dict(sy=300, su=500, rule="distortion energy", fs=2),
+             300 * MPA / (math.sqrt(3) * 2)),
+            (dict(allowable=90, rule="given"), 90 * MPA),
+            (dict(allowable=90), 90 * MPA),
+        ):
+            materials = materials_row("MPD shaft steel", g=80, **row)
+            assert solid_capacity("MPD shaft steel", materials) == pytest.approx(
+                tau * SOLID_40_J / 0.020, rel=1e-12), row
+
+
+class TestAllowableFunctionRefusals:
+    """TWS_ALLOWABLE refuses FS < 1 and Su < Sy, and says a missing Su is missing."""
+
+    def test_factor_of_safety_below_one(self):
+        assert_warning(TWS_ALLOWABLE("max shear", "310 MPa", None, 0.5),
+                       "factor of safety 0.5 is below 1")
+        assert_warning(TWS_ALLOWABLE("distortion energy", "310 MPa", None, 0.99), "below 1")
+        # FS = 1 is the shear yield strength itself: 0.5·Sy (Tresca, textbook).
+        assert TWS_ALLOWABLE("max shear", "310 MPa", None, 1) == pytest.approx(155.0, rel=1e-12)
+
+    def test_ultimate_below_yield(self):
+        assert_warning(TWS_ALLOWABLE("shafting code", "310 MPa", "300 MPa"),
+                       "ultimate strength 300 MPa is below the yield strength 310 MPa")
+        assert_warning(TWS_ALLOWABLE("max shear", "310 MPa", "300 MPa", 2), "below the yield")
+        # Su equal to Sy is not below it: min(0.30·310, 0.18·310) = 55.8 MPa.
+        assert TWS_ALLOWABLE("shafting code", "310 MPa", "310 MPa") == pytest.approx(
+            0.18 * 310, rel=1e-12)
+
+    def test_missing_ultimate_strength_is_called_missing(self):
+        result = TWS_ALLOWABLE("shafting code", "310 MPa")
+        assert_warning(result, "the shafting code rule needs the ultimate strength")
+        assert "positive" not in result
+        assert_warning(TWS_ALLOWABLE("shafting code", "310 MPa", ""), "needs the ultimate")
+        assert_warning(TWS_ALLOWABLE("shafting code", "310 MPa", "-5 MPa"),
+                       "ultimate strength must be greater than zero")
+
+
+class TestMaterialsBlockLibraryFallBack:
+    """A materials-block row naming a built-in material, with blanks: the bridge's rule.
+
+    Groups the row leaves wholly blank come from the library (E and ν; Sy and Su; density;
+    G); with no allowable and no rule, steels take the shafting code rule, others are refused.
+    """
+
+    def test_steel_with_blank_strengths_takes_the_shafting_code_rule(self):
+        # AISI 1045 hot rolled: Sy 310 MPa, Su 570 MPa (Shigley's Mechanical Engineering
+        # Design, table of hot-rolled and cold-drawn steels, from memory);
+        # min(0.30·Sy, 0.18·Su) = 93 MPa; T = τ·J/r (Roark's).
+        materials = materials_row(STEEL)
+        assert solid_capacity(STEEL, materials) == pytest.approx(
+            min(0.30 * 310, 0.18 * 570) * MPA * SOLID_40_J / 0.020, rel=1e-12)
+        # Stainless 316 annealed: Sy 205 MPa, Su 515 MPa (ASTM A276 minima, from memory).
+        materials = materials_row(STAINLESS)
+        assert solid_capacity(STAINLESS, materials) == pytest.approx(
+            min(0.30 * 205, 0.18 * 515) * MPA * SOLID_40_J / 0.020, rel=1e-12)
+
+    def test_keyway_with_library_strengths(self):
+        # ×0.75 with a keyway (shafting code rule, as above).
+        materials = materials_row(STEEL, keyway="yes")
+        assert solid_capacity(STEEL, materials) == pytest.approx(
+            0.75 * 93 * MPA * SOLID_40_J / 0.020, rel=1e-12)
+
+    def test_blank_row_takes_the_library_shear_modulus(self):
+        # G of carbon steel 79.3 GPa (Shigley's, table of physical constants, from memory);
+        # θ' = T/(G·J) (Roark's).
+        assert solid_twist_rate(STEEL, materials_row(STEEL)) == pytest.approx(
+            1000.0 / (79.3 * GPA * SOLID_40_J), rel=1e-12)
+
+    def test_a_rule_named_takes_the_library_strengths(self):
+        # 0.5·Sy/FS with the library's Sy 310 MPa (Tresca, textbook; Sy as above).
+        materials = materials_row(STEEL, rule="max shear", fs=2)
+        assert solid_capacity(STEEL, materials) == pytest.approx(
+            0.5 * 310 / 2 * MPA * SOLID_40_J / 0.020, rel=1e-12)
+
+    @pytest.mark.parametrize("name", ["Phosphor bronze", "Aluminium 6061-T6",
+                                      "Aluminium bronze C95400 as cast", "MPD bronze"])
+    def test_not_a_steel_needs_an_allowable(self, name):
+        # The transmission-shafting code rule is a rule for steel shafting (common practice).
+        materials = materials_row(name, g=40)
+        assert_warning(solid_capacity(name, materials),
+                       f"material {name!r}", "no allowable given",
+                       "the shafting code rule is for steel shafting",
+                       "give an allowable or a rule with a factor of safety")
+        # Results that need no allowable still work, and an allowable typed in the layer
+        # block is used.
+        assert TWS_SHARE([[name, "40 mm", 0]], None, materials) == [[1.0]]
+        capacity = TWS_LAYER_CAPACITY([[name, "40 mm", 0, "50 MPa"]], None, materials)
+        assert capacity[0][0] == pytest.approx(50 * MPA * SOLID_40_J / 0.020, rel=1e-12)
+
+    @pytest.mark.parametrize("given, missing", [(dict(sy=300), "ultimate strength"),
+                                                (dict(su=500), "yield strength")])
+    def test_one_strength_is_never_paired_with_the_library_other(self, given, missing):
+        materials = materials_row(STEEL, **given)
+        assert_warning(solid_capacity(STEEL, materials), f"needs the {missing}",
+                       "not paired with it")
+        # The same row with both strengths: min(0.30·300, 0.18·500) = 90 MPa, not the
+        # library-paired 93 MPa or 0.18·570/0.30·300 mixtures.
+        materials = materials_row(STEEL, sy=300, su=500)
+        assert solid_capacity(STEEL, materials) == pytest.approx(
+            90 * MPA * SOLID_40_J / 0.020, rel=1e-12)
+
+    def test_library_material_not_in_the_block_still_needs_an_allowable(self):
+        # Unchanged: without a row, the layer must give its allowable.
+        assert_warning(TWS_LAYER_CAPACITY([[STEEL, "40 mm", 0, None]]), "the material gives none")
+
+
+class TestIsotropicShearModulus:
+    """G = E/2(1+ν) only for isotropic materials, and only with ν ≤ 0.5."""
+
+    CARBON = "Carbon/epoxy tube 45 wound"
+
+    def test_orthotropic_library_material_keeps_its_g(self):
+        # The library's ±45° wound tube: G 35 GPa by classical lamination theory; its E and ν
+        # do not determine G. A row giving E and ν (even ν ≤ 0.5) must not derive
+        # E/2(1+ν) = 17.7/2.6 = 6.8 GPa from them.
+        carbon_g = find_material(self.CARBON).shear_modulus
+        assert carbon_g == pytest.approx(35 * GPA)
+        for row in (dict(e=17.7, nu=0.3), dict(e=17.7, nu=0.77), dict()):
+            materials = materials_row(self.CARBON, allowable=60, **row)
+            assert solid_twist_rate(self.CARBON, materials) == pytest.approx(
+                1000.0 / (carbon_g * SOLID_40_J), rel=1e-12), row
+        materials = materials_row(self.CARBON, g=30, e=17.7, nu=0.77)
+        assert solid_twist_rate(self.CARBON, materials) == pytest.approx(
+            1000.0 / (30 * GPA * SOLID_40_J), rel=1e-12)
+
+    def test_isotropic_row_derives_g(self):
+        # G = E/(2(1+ν)) for an isotropic material (Timoshenko & Goodier, Theory of
+        # Elasticity); θ' = T/(G·J) (Roark's).
+        materials = materials_row("MPD bronze", e=110, nu=0.34, allowable=40)
+        assert solid_twist_rate("MPD bronze", materials) == pytest.approx(
+            1000.0 / (110 * GPA / 2.68 * SOLID_40_J), rel=1e-12)
+        # A library steel with the row's own E and ν: derived from those, not the library G.
+        materials = materials_row(STEEL, e=210, nu=0.3)
+        assert solid_twist_rate(STEEL, materials) == pytest.approx(
+            1000.0 / (210 * GPA / 2.6 * SOLID_40_J), rel=1e-12)
+
+    def test_poisson_ratio_above_half_is_refused_for_the_derivation(self):
+        # ν ≤ 0.5 bounds an isotropic material (positive strain energy; Timoshenko & Goodier).
+        materials = materials_row("MPD wrap", e=17.7, nu=0.77, allowable=60)
+        assert_warning(TWS_SHARE([["MPD wrap", "40 mm", 0]], None, materials),
+                       "material 'MPD wrap'", "Poisson ratio 0.77 is above 0.5",
+                       "isotropic material only", "give G")
+        # With its own G the row is usable: no derivation is made.
+        materials = materials_row("MPD wrap", g=30, e=17.7, nu=0.77, allowable=60)
+        assert solid_twist_rate("MPD wrap", materials) == pytest.approx(
+            1000.0 / (30 * GPA * SOLID_40_J), rel=1e-12)
+
+    def test_layer_block_of_several_layers_uses_the_derived_g(self):
+        # Share G_i·J_i/ΣGJ with the block's G from E and ν (BRIEF §2, twist compatibility).
+        materials = materials_row("MPD bronze", e=110, nu=0.34, allowable=40)
+        share = TWS_SHARE([[STEEL, "40 mm", 0], ["MPD bronze", "50 mm", "40 mm"]], None,
+                          materials)
+        g1, g2 = G_STEEL, 110 * GPA / 2.68
+        j1, j2 = SOLID_40_J, math.pi / 32 * (0.05**4 - 0.04**4)
+        assert [share[0][0], share[1][0]] == pytest.approx(
+            [g1 * j1 / (g1 * j1 + g2 * j2), g2 * j2 / (g1 * j1 + g2 * j2)], rel=1e-12)
+
+
+class TestSignOfTheTorque:
+    """τ and φ are odd in T (τ = T·r/J, φ = T·L/GJ; Roark's): the signed results keep the
+    torque's sign; capacities and margins rate its magnitude (common practice)."""
+
+    def test_stresses_and_twist_keep_the_sign(self):
+        positive = engine_rating(torque=1000.0, length=0.85)
+        assert values_of(TWS_STRESS(BLOCK, "-1000 N·m")) == pytest.approx(
+            list(-positive.stress_outer[0] / MPA), rel=1e-12)
+        theta = positive.twist_rate[0]
+        assert TWS_STRESS_AT(BLOCK, "-1 kN·m", "15 mm") == pytest.approx(
+            -G_STEEL * 0.015 * theta / MPA, rel=1e-12)
+        assert TWS_STRESS_AT(BLOCK, "-1000 N·m", "20 mm", 2) == pytest.approx(
+            -positive.stress_inner[0, 1] / MPA, rel=1e-12)
+        assert TWS_TWIST_ANGLE(BLOCK, "-1000 N·m", "850 mm", "rad") == pytest.approx(
+            -1000.0 * 0.85 / positive.sum_gj[0], rel=1e-12)
+        assert TWS_TWIST_RATE(BLOCK, f"{-1000 / LBF_IN!r} lbf·in", "rad/m") == pytest.approx(
+            -theta, rel=1e-12)
+
+    def test_margin_and_limits_rate_the_magnitude(self):
+        assert TWS_MARGIN(BLOCK, "-1000 N·m") == TWS_MARGIN(BLOCK, "1000 N·m")
+        assert TWS_MARGIN(BLOCK, "-1000 N·m") > 0
+
+    def test_each_part_keeps_its_own_sign(self):
+        table = TestManyParts.TABLE[:4]
+        torques = [["Torque [N·m]"], [-1000], [None], [500]]
+        stress = TWS_STRESS(table, torques)
+        expected = engine_rating(torque=1000.0).stress_outer[0] / MPA
+        assert [stress[1][0], stress[2][0]] == pytest.approx(list(-expected), rel=1e-12)
+        assert stress[3][0] > 0
+        rates = TWS_TWIST_RATE(table, torques)
+        assert rates[1][0] < 0 and rates[1][0] == rates[2][0] and rates[3][0] > 0
+
+    def test_argument_help_says_so(self):
+        by_name = {f["name"]: f for f in list_functions()}
+        for name in ("TWS_STRESS", "TWS_STRESS_AT", "TWS_TWIST_ANGLE", "TWS_TWIST_RATE"):
+            torque = next(a for a in by_name[name]["arguments"] if a["name"] == "torque")
+            assert "sign" in torque["description"], name
+        torque = next(a for a in by_name["TWS_MARGIN"]["arguments"] if a["name"] == "torque")
+        assert "magnitude" in torque["description"]
