@@ -117,11 +117,13 @@ def merge_comments_part(text: str, comments: Mapping[str, str], author: str) -> 
 def _shape(shape_id: int, ref: str, text: str) -> str:
     col, row = split_ref(ref)
     c0, r0 = col - 1, row - 1
-    lines = sum(max(1, math.ceil(len(line) / 38)) for line in text.split("\n"))
+    # The box is sized to its text (about 50 characters a line, 15 pt a line) so long notes such
+    # as a library value's source show whole; Excel reads the anchor, LibreOffice the style.
+    lines = sum(max(1, math.ceil(len(line) / 50)) for line in text.split("\n"))
     height = min(40, max(4, lines + 1))
-    anchor = f"{c0 + 1}, 15, {max(r0 - 1, 0)}, 4, {c0 + 4}, 15, {max(r0 - 1, 0) + height}, 4"
+    anchor = f"{c0 + 1}, 15, {max(r0 - 1, 0)}, 4, {c0 + 5}, 15, {max(r0 - 1, 0) + height}, 4"
     return (f'<v:shape id="_x0000_s{shape_id}" type="#_x0000_t202" '
-            'style="position:absolute;margin-left:60pt;margin-top:2pt;width:190pt;height:80pt;'
+            f'style="position:absolute;margin-left:60pt;margin-top:2pt;width:260pt;height:{height * 15}pt;'
             'z-index:1;visibility:hidden" fillcolor="#fdf8e4" o:insetmode="auto">'
             '<v:fill color2="#fdf8e4"/><v:shadow on="t" color="black" obscured="t"/>'
             '<v:path o:connecttype="none"/><v:textbox style="mso-direction-alt:auto">'
