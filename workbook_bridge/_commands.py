@@ -222,7 +222,8 @@ def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display,
     summ = writer.add_sheet("Twistshare summary", srows, column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
     wrows = _caution_rows() + warnings_rows(result.findings)
-    writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False)
+    writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False,
+                     print_fit_width=True)
     if result.materials is not None and result.materials.by_name:
         writer.add_sheet("Twistshare materials", materials_rows(result.materials, display),
                          column_widths=[30, 9, 10, 14, 38, 14, 14, 10, 8, 60], header_height=32)
@@ -314,7 +315,8 @@ def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool
     try:
         with BookWriter(book_path) as writer:
             wrows = _caution_rows() + warnings_rows(result.findings)
-            writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False)
+            writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False,
+                     print_fit_width=True)
             _write_comments(writer, result, result.findings)
             previous = write_book(writer, out, in_place)
     except (OoxmlError, BookUnusable) as exc:

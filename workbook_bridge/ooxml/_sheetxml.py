@@ -19,7 +19,7 @@ _AFTER_LEGACY = ("legacyDrawingHF", "drawingHF", "picture", "oleObjects", "contr
 _AFTER_DRAWING = ("legacyDrawing",) + _AFTER_LEGACY
 
 
-def sheet_head(*, tab_color: str | None, fit_one_page: bool, freeze_header: bool,
+def sheet_head(*, tab_color: str | None, fit_one_page: bool | str | None, freeze_header: bool,
                column_widths: Sequence[float | None] | None, dimension: str | None) -> str:
     """Everything of a new worksheet before its rows (ends with '<sheetData>')."""
     parts = [XML_DECL, f'<worksheet xmlns="{NS_MAIN}" xmlns:r="{NS_REL}">']
@@ -48,11 +48,13 @@ def sheet_head(*, tab_color: str | None, fit_one_page: bool, freeze_header: bool
     return "".join(parts)
 
 
-def sheet_tail(*, fit_one_page: bool, drawing_rel: str | None, legacy_rel: str | None) -> str:
+def sheet_tail(*, fit_one_page: bool | str | None, drawing_rel: str | None, legacy_rel: str | None) -> str:
     """Everything of a new worksheet after its rows (starts with '</sheetData>')."""
     parts = ["</sheetData>",
              '<pageMargins left="0.5" right="0.5" top="0.6" bottom="0.6" header="0.3" footer="0.3"/>']
-    if fit_one_page:
+    if fit_one_page == "width":  # every column across, as many pages down as it takes
+        parts.append('<pageSetup orientation="landscape" fitToWidth="1" fitToHeight="0"/>')
+    elif fit_one_page:
         parts.append('<pageSetup orientation="portrait" fitToWidth="1" fitToHeight="1"/>')
     if drawing_rel:
         parts.append(f'<drawing r:id="{drawing_rel}"/>')

@@ -108,7 +108,7 @@ class _NewSheet:
     handle: SheetHandle
     body: BinaryIO
     head: str
-    fit_one_page: bool
+    fit_one_page: str | None  # "page", "width" or None
     comments: dict[str, str] = field(default_factory=dict)
     author: str = "twistshare"
     charts: list[tuple[tuple[int, int], tuple[int, int], ScatterChart | BarChart]] = field(default_factory=list)
@@ -266,7 +266,8 @@ class BookWriter:
                   column_widths: Sequence[float | None] | None = None,
                   column_styles: Sequence[str | None] | None = None,
                   freeze_header: bool = True, tab_color: str | None = None,
-                  print_fit_one_page: bool = False, header_height: float | None = None) -> SheetHandle:
+                  print_fit_one_page: bool = False, header_height: float | None = None,
+                  print_fit_width: bool = False) -> SheetHandle:
         """Add a worksheet after the book's own sheets, streaming ``rows`` into it.
 
         Parameters
@@ -286,6 +287,8 @@ class BookWriter:
             ARGB hex such as 'FF1F3A4D'.
         print_fit_one_page : bool
             Scale the sheet to print on one page.
+        print_fit_width : bool
+            Print landscape with every column on the page width (as many pages down as needed).
         header_height : float, optional
             Height of row 1 in points (room for wrapped header text).
 
@@ -314,10 +317,11 @@ class BookWriter:
             raise
         part = free_part("xl/worksheets/sheet{}.xml", self._used)
         dimension = f"A1:{column_letters(widest)}{last_row}" if widest and last_row else None
-        head = sheet_head(tab_color=tab_color.upper() if tab_color else None, fit_one_page=print_fit_one_page,
+        fit = "page" if print_fit_one_page else "width" if print_fit_width else None
+        head = sheet_head(tab_color=tab_color.upper() if tab_color else None, fit_one_page=fit,
                           freeze_header=freeze_header, column_widths=column_widths, dimension=dimension)
         handle = SheetHandle(actual, part, last_row, widest)
-        self._new.append(_NewSheet(handle, body, head, print_fit_one_page))
+        self._new.append(_NewSheet(handle, body, head, fit))
         return handle
 
     def _new_sheet(self, sheet: SheetHandle | str) -> _NewSheet | None:
