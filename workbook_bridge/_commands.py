@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import errno
+import math
 import os
 import shutil
 import sys
@@ -149,6 +150,22 @@ def _caution_rows() -> list[list]:
     return [[Cell("Caution", "title")]] + [[Cell(c, "caution_line")] for c in CAUTIONS] + [[]]
 
 
+_MESSAGE_WIDTH = 110  # characters
+
+
+def _add_warnings_sheet(writer: BookWriter, findings: list[Finding]) -> None:
+    """The findings as rows; messages wrap in their column, each row as tall as its message."""
+    rows = _caution_rows() + warnings_rows(findings)
+    heights = {}
+    for n, row in enumerate(rows, start=1):
+        msg = row[5] if len(row) > 5 and isinstance(row[5], str) else None
+        if msg and len(msg) > _MESSAGE_WIDTH:
+            heights[n] = 15.0 * math.ceil(len(msg) / (_MESSAGE_WIDTH * 0.95))
+    writer.add_sheet("Twistshare warnings", rows, column_widths=[12, 7, 13, 6, 8, _MESSAGE_WIDTH],
+                     freeze_header=False, print_fit_width=True, column_styles=[None] * 5 + ["wrap"],
+                     row_heights=heights)
+
+
 def _write_comments(writer: BookWriter, result: BookRating, findings: list[Finding]) -> int:
     n = 0
     for sheet, cells in comment_map(result, findings).items():
@@ -221,9 +238,7 @@ def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display,
     srows, layout = summary_rows(result, display, profile_part)
     summ = writer.add_sheet("Twistshare summary", srows, column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
-    wrows = _caution_rows() + warnings_rows(result.findings)
-    writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False,
-                     print_fit_width=True)
+    _add_warnings_sheet(writer, result.findings)
     if result.materials is not None and result.materials.by_name:
         writer.add_sheet("Twistshare materials", materials_rows(result.materials, display),
                          column_widths=[30, 9, 10, 14, 38, 14, 14, 10, 8, 60], header_height=32)
@@ -314,9 +329,7 @@ def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool
         return _fail(str(exc))
     try:
         with BookWriter(book_path) as writer:
-            wrows = _caution_rows() + warnings_rows(result.findings)
-            writer.add_sheet("Twistshare warnings", wrows, column_widths=[12, 7, 13, 6, 8, 110], freeze_header=False,
-                     print_fit_width=True)
+            _add_warnings_sheet(writer, result.findings)
             _write_comments(writer, result, result.findings)
             previous = write_book(writer, out, in_place)
     except (OoxmlError, BookUnusable) as exc:

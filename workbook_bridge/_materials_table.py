@@ -264,10 +264,11 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) ->
                 fill("shear_modulus")
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
-        if math.isnan(g) and not (math.isnan(e) or math.isnan(nu)) and nu > 0.5 and problem is None:
+        derive = math.isnan(g) and "shear_modulus" not in given and not (math.isnan(e) or math.isnan(nu))
+        if derive and nu > 0.5 and problem is None:
             problem = (f"material {name!r}: Poisson ratio {nu:.3g} is above 0.5, impossible for an isotropic "
                        "material, so G cannot be derived from E and the ratio: give G")
-        elif math.isnan(g) and not (math.isnan(e) or math.isnan(nu)):
+        elif derive:
             g = float(shear_modulus_from_elastic(e, nu))
             findings.append(Finding(
                 Severity.NOTE, grid.name, cells.get("shear_modulus", here),

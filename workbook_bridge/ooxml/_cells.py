@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 import numbers
 from dataclasses import dataclass
-from typing import Any, Callable, Iterable, Sequence
+from typing import Mapping, Any, Callable, Iterable, Sequence
 
 from ._xmltext import MAX_COLUMN, MAX_ROW, column_letters, escape_text
 
@@ -76,7 +76,8 @@ def cell_xml(pre: str, style_attr: str, value: Any, where: Callable[[], str]) ->
 def stream_rows(rows: Iterable[Sequence[Any]], write: Callable[[bytes], Any],
                 style_attr_of: Callable[[str], str], column_style_attrs: Sequence[str],
                 first_row: int = 1, flush_every: int = 2000,
-                first_row_height: float | None = None) -> tuple[int, int]:
+                first_row_height: float | None = None,
+                row_heights: Mapping[int, float] | None = None) -> tuple[int, int]:
     """Write <row> elements for ``rows`` through ``write``; return (last row, widest column).
 
     ``style_attr_of`` turns a style name into ' s="N"'; ``column_style_attrs[i]`` is the attribute
@@ -133,8 +134,11 @@ def stream_rows(rows: Iterable[Sequence[Any]], write: Callable[[bytes], Any],
                     add(xml)
         if cells:
             widest = max(widest, n)
-            if first_row_height is not None and row_number == first_row:
-                append(f'<row r="{rs}" ht="{float(first_row_height):g}" customHeight="1">')
+            height = first_row_height if row_number == first_row else None
+            if row_heights:
+                height = row_heights.get(row_number, height)
+            if height is not None:
+                append(f'<row r="{rs}" ht="{float(height):g}" customHeight="1">')
             else:
                 append(f'<row r="{rs}">')
             append("".join(cells))

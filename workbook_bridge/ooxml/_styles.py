@@ -46,6 +46,7 @@ _CATALOG = MappingProxyType({
     "fail": StyleSpec(bold=True, color="FF9C1C12", fill="FFF6D3CF"),
     "warn": StyleSpec(color="FF7A4E00", fill="FFFCEBC4"),
     "number": StyleSpec(number_format="0.000"),
+    "wrap": StyleSpec(wrap=True, vertical="top"),
     "fixed1": StyleSpec(number_format="0.0"),
     "fixed3": StyleSpec(number_format="0.000"),
     "sci": StyleSpec(number_format="0.000E+00"),

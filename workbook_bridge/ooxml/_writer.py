@@ -267,7 +267,7 @@ class BookWriter:
                   column_styles: Sequence[str | None] | None = None,
                   freeze_header: bool = True, tab_color: str | None = None,
                   print_fit_one_page: bool = False, header_height: float | None = None,
-                  print_fit_width: bool = False) -> SheetHandle:
+                  print_fit_width: bool = False, row_heights: Mapping[int, float] | None = None) -> SheetHandle:
         """Add a worksheet after the book's own sheets, streaming ``rows`` into it.
 
         Parameters
@@ -289,6 +289,8 @@ class BookWriter:
             Scale the sheet to print on one page.
         print_fit_width : bool
             Print landscape with every column on the page width (as many pages down as needed).
+        row_heights : mapping of int to float, optional
+            Heights in points by 1-based row number (room for wrapped text).
         header_height : float, optional
             Height of row 1 in points (room for wrapped header text).
 
@@ -311,7 +313,7 @@ class BookWriter:
         body = tempfile.TemporaryFile(prefix="twistshare-rows-")
         try:
             last_row, widest = stream_rows(rows, body.write, self._style_attr, col_attrs,
-                                           first_row_height=header_height)
+                                           first_row_height=header_height, row_heights=row_heights)
         except BaseException:
             body.close()
             raise
