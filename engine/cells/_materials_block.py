@@ -85,6 +85,10 @@ _LABELS = MappingProxyType(
 )
 
 
+# A name looked up: (material, allowable or NaN, problem, why the material gives no allowable).
+Found = tuple[Material | None, float, str | None, str | None]
+
+
 @dataclass(frozen=True)
 class MaterialsBlock:
     """The user's materials, by normalised name, with the allowable each implies.
@@ -129,8 +133,6 @@ class MaterialsBlock:
         cache[key] = found
         return found
 
-
-Found = tuple[Material | None, float, str | None, str | None]
 
 
 @lru_cache(maxsize=256)
