@@ -15,6 +15,7 @@ from twistshare.engine.core import (
     allowable_flags,
     allowable_shear,
     find_material,
+    is_steel,
     shear_modulus_from_elastic,
 )
 
@@ -119,12 +120,6 @@ def normalise_name(name: str) -> str:
 
 def _nan_if_none(x: float | None) -> float:
     return math.nan if x is None else float(x)
-
-
-def is_steel(name: str) -> bool:
-    """True for the steels: the transmission-shafting code rule was written for steel shafting."""
-    n = name.lower()
-    return any(w in n for w in ("steel", "aisi", "stainless", "sae "))
 
 
 _CODE_RULE_FOR_STEEL = (

@@ -11,6 +11,7 @@ import math
 from collections.abc import Mapping
 from types import MappingProxyType
 
+from twistshare.engine.core import is_steel  # noqa: F401 - re-exported for the block reader
 from twistshare.engine.core import (
     AllowableFlag,
     AllowableRule,
@@ -37,13 +38,6 @@ FACTOR_IGNORED_BY_CODE = (
 
 # The same words as the workbook bridge's rule: the transmission-shafting code rule was
 # written for steel shafting (common practice).
-_STEEL_WORDS = ("steel", "aisi", "stainless", "sae ")
-
-
-def is_steel(name: str) -> bool:
-    """True for a material name that says it is a steel (steel, AISI, stainless, SAE)."""
-    lowered = name.lower()
-    return any(word in lowered for word in _STEEL_WORDS)
 
 
 def _stress(value: float) -> str:

@@ -102,6 +102,19 @@ class Material:
         object.__setattr__(self, "sources", MappingProxyType(sources))
 
 
+_STEEL_WORDS = ("steel", "aisi", "stainless", "sae ")
+
+
+def is_steel(name: str) -> bool:
+    """True for a material name that says it is a steel (steel, AISI, stainless, SAE).
+
+    The classic transmission-shafting code rule min(0.30·Sy, 0.18·Su) was written for steel
+    shafting; callers use this to decide where that rule may stand in for a missing allowable.
+    """
+    lowered = name.lower()
+    return any(word in lowered for word in _STEEL_WORDS)
+
+
 def normalise_name(name: str) -> str:
     """Key used to match material names: case-folded, runs of whitespace made one space."""
     return re.sub(r"\s+", " ", str(name)).strip().casefold()

@@ -5,7 +5,7 @@ import math
 
 import pytest
 
-from twistshare.engine.core import Material, find_material, material_library, normalise_name
+from twistshare.engine.core import Material, find_material, is_steel, material_library, normalise_name
 
 LIBRARY = material_library()
 PROPERTY_FIELDS = (
@@ -136,3 +136,17 @@ class TestMaterialValidation:
 
     def test_none_reads_as_unknown(self):
         assert math.isnan(Material("X", yield_strength=None).yield_strength)  # type: ignore[arg-type]
+
+
+class TestIsSteel:
+    """is_steel decides where the steel-shafting code rule may stand in (common practice)."""
+
+    @pytest.mark.parametrize("name", ["AISI 1045 hot rolled", "Stainless 316 annealed", "MPD core steel Q2",
+                                      "SAE 4140"])
+    def test_steels(self, name):
+        assert is_steel(name)
+
+    @pytest.mark.parametrize("name", ["Aluminium 6061-T6", "Ti-6Al-4V annealed", "Phosphor bronze",
+                                      "Carbon/epoxy tube 45 wound", "Grey cast iron class 30"])
+    def test_not_steels(self, name):
+        assert not is_steel(name)
