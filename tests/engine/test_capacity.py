@@ -6,6 +6,7 @@ import numpy as np
 import pytest
 
 from twistshare.engine.core import (
+    Criterion,
     Duty,
     LayerStack,
     layer_capacity,
@@ -57,11 +58,19 @@ def test_twist_angle_capacity_inverts_twist(limit_deg, length):
 def test_twist_per_length_capacity_and_rule_of_thumb():
     """Line-shaft stiffness rule of thumb, about 1 deg of twist in 20 diameters
     (common practice, from memory): for a 50 mm steel shaft the per-length limit is
-    1 deg / 1.0 m, and the capacity is theta'_lim * G J."""
+    1 deg per 1.0 m. By hand: GJ = 79.3e9 * pi/32 * 0.05**4 = 48 664 N*m^2, so the
+    capacity is 0.0174533 rad/m * 48 664 = 849.3 N*m; rated at that torque the shaft
+    twists exactly at the limit and the margin is zero."""
     diameter = 0.05
     gj = 79.3e9 * polar_moment(diameter)
     limit = math.radians(1.0) / (20 * diameter)
-    assert twist_per_length_capacity(limit, gj) == pytest.approx(limit * gj, rel=1e-15)
+    cap = twist_per_length_capacity(limit, gj)
+    assert cap == pytest.approx(849.3, abs=0.1)
+    stack = LayerStack.from_layers([diameter], [0.0], [79.3e9], [1e12])  # stress never governs
+    r = rate(stack, Duty.from_arrays(torque=cap, length=3.0, twist_limit_per_length=limit))
+    assert float(r.twist_rate[0]) == pytest.approx(limit, rel=1e-12)
+    assert float(r.margin[0]) == pytest.approx(0.0, abs=1e-12)
+    assert int(r.governing_criterion[0]) == int(Criterion.TWIST_PER_LENGTH)
 
 
 def test_no_limit_means_infinite_capacity():

@@ -67,7 +67,9 @@ def test_splitting_a_layer_changes_no_limit(part, data):
     assert pieces.sum_gj[0] == pytest.approx(whole.sum_gj[0], rel=1e-9)
     assert pieces.governing_capacity[0] == pytest.approx(whole.governing_capacity[0], rel=1e-9)
     assert pieces.capacity[0, slot + 1] == pytest.approx(whole.capacity[0, slot], rel=1e-9)
-    assert pieces.capacity[0, slot] > whole.capacity[0, slot] * (1 - 1e-12)
+    # same ΣGJ, G, τa and Kt: the capacity goes as 1/r_o, so the inner piece's is higher by D_o/cut
+    assert pieces.capacity[0, slot] == pytest.approx(whole.capacity[0, slot] * hi / cut, rel=1e-9)
+    assert pieces.capacity[0, slot] > whole.capacity[0, slot]
 
 
 @SETTINGS
