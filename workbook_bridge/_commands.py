@@ -233,8 +233,9 @@ def _add_rating_sheets(writer: BookWriter, result: BookRating, display: Display,
     parts = result.parts
     if parts is not None and parts.count:
         rows, widths, col_styles = results_rows(result, display, _first_errors(result.findings))
-        writer.add_sheet("Twistshare results", rows, column_widths=widths, column_styles=col_styles,
-                         tab_color="FF1F3A4D", header_height=32)
+        res = writer.add_sheet("Twistshare results", rows, column_widths=widths, column_styles=col_styles,
+                               tab_color="FF1F3A4D", header_height=32)
+        writer.set_print_titles(res, columns=2, rows=1)  # part id and status on every printed page
     srows, layout = summary_rows(result, display, profile_part)
     summ = writer.add_sheet("Twistshare summary", srows, column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)

@@ -50,3 +50,21 @@ def test_text_stays_text(book, tmp_path):
         w.write(out)
     c = openpyxl.load_workbook(out)["Materials"]["B2"]
     assert c.value == "=1+1" and c.data_type == "s"
+
+
+def test_print_titles_repeat_the_part_columns(book, tmp_path):
+    """Print titles are the workbook defined name _xlnm.Print_Titles (ECMA-376 Part 1, 18.2.6)."""
+    out = tmp_path / "out.xlsx"
+    with BookWriter(book) as w:
+        h = w.add_sheet("Twistshare results", [["Part", "Status", "x"], ["P1", "ok", 1.0]])
+        w.set_print_titles(h, columns=2, rows=1)
+        w.write(out)
+    ws = openpyxl.load_workbook(out)["Twistshare results"]
+    assert ws.print_title_cols.replace("$", "") == "A:B" and ws.print_title_rows.replace("$", "") == "1:1"
+
+
+def test_print_titles_need_something_to_repeat(book):
+    with BookWriter(book) as w:
+        h = w.add_sheet("S", [["a"]])
+        with pytest.raises(ValueError):
+            w.set_print_titles(h)

@@ -113,6 +113,7 @@ class _NewSheet:
     author: str = "twistshare"
     charts: list[tuple[tuple[int, int], tuple[int, int], ScatterChart | BarChart]] = field(default_factory=list)
     print_area: str | None = None
+    print_titles: str | None = None
 
 
 @dataclass
@@ -429,6 +430,22 @@ class BookWriter:
         quoted = "'" + target.handle.name.replace("'", "''") + "'"
         target.print_area = f"{quoted}!${column_letters(c1)}${r1}:${column_letters(c2)}${r2}"
 
+    def set_print_titles(self, sheet: SheetHandle, *, columns: int = 0, rows: int = 0) -> None:
+        """Repeat the first ``columns`` columns and the first ``rows`` rows on every printed page."""
+        self._check_open()
+        target = self._new_sheet(sheet)
+        if target is None:
+            raise WriteRefused(f"print titles are set on sheets this writer added; {getattr(sheet, 'name', sheet)!r} is not one")
+        if columns < 0 or rows < 0 or not (columns or rows):
+            raise ValueError(f"print titles need columns or rows > 0: columns={columns!r}, rows={rows!r}")
+        quoted = "'" + target.handle.name.replace("'", "''") + "'"
+        parts = []
+        if columns:
+            parts.append(f"{quoted}!$A:${column_letters(columns)}")
+        if rows:
+            parts.append(f"{quoted}!$1:${rows}")
+        target.print_titles = ",".join(parts)
+
     # -- share ---------------------------------------------------------------------------------
     def replace_formulas(self, sheet_name: str, values: Mapping[str, Any], *,
                          create_missing: bool = False) -> dict[str, str]:
@@ -642,6 +659,8 @@ class BookWriter:
             sheet_entries.append((new.handle.name, next_id, rel_id))
             if new.print_area:
                 defined_names.append(("_xlnm.Print_Area", position, new.print_area))
+            if new.print_titles:
+                defined_names.append(("_xlnm.Print_Titles", position, new.print_titles))
             next_id += 1
             position += 1
             sheet_rels: list[tuple[str, str, str]] = []
