@@ -14,6 +14,7 @@ from twistshare.engine.core import (
     AllowableRule,
     allowable_flags,
     allowable_shear,
+    complete_from_library,
     find_material,
     is_steel,
     shear_modulus_from_elastic,
@@ -236,27 +237,13 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Finding]) ->
         problem: str | None = None
         if any(is_bad(k) for k in num):
             problem = f"material {name!r} has unusable properties (see the comments on its row)"
-        given = {k for k in num if not math.isnan(vals[k]) or is_bad(k)}
-
-        def fill(k: str) -> None:
-            lv = getattr(lib, k, None)
-            if lv is None or not math.isfinite(float(lv)):
-                return
-            vals[k] = float(lv)
-            if k in cells:
-                out.filled.append(FilledCell(grid.name, cells[k], lib.name, k, float(lv),
-                                             lib.sources.get(k, "built-in library")))
-
+        given = frozenset(k for k in num if not math.isnan(vals[k]) or is_bad(k))
         if lib is not None:
-            # A group is filled only when the book gives none of it, so a user's value is never
-            # paired with the library's (a user's Sy with the library's Su, say).
-            for group in (("youngs_modulus", "poisson_ratio"), ("yield_strength", "ultimate_strength"), ("density",)):
-                if not any(k in given for k in group):
-                    for k in group:
-                        fill(k)
-            own_elastic = {"youngs_modulus", "poisson_ratio"} <= given
-            if "shear_modulus" not in given and (not own_elastic or not lib.isotropic):
-                fill("shear_modulus")
+            vals, filled = complete_from_library(vals, lib, given)
+            for k in filled:
+                if k in cells:
+                    out.filled.append(FilledCell(grid.name, cells[k], lib.name, k, vals[k],
+                                                 lib.sources.get(k, "built-in library")))
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
         derive = math.isnan(g) and "shear_modulus" not in given and not (math.isnan(e) or math.isnan(nu))

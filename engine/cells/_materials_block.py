@@ -16,6 +16,7 @@ from twistshare.engine.core import (
     AllowableRule,
     Material,
     allowable_shear,
+    complete_from_library,
     find_material,
     normalise_name,
 )
@@ -257,10 +258,6 @@ def _read_row(row: list[Any], columns: dict[str, tuple[int, str | None, str | No
     return values
 
 
-_GROUPS = (("youngs_modulus", "poisson_ratio"), ("yield_strength", "ultimate_strength"),
-           ("density",))
-
-
 def _row_material(name: str, key: str, values: dict[str, float]
                   ) -> tuple[Material, frozenset[str]]:
     """The row's Material, completed from the library where it names a built-in one.
@@ -271,15 +268,8 @@ def _row_material(name: str, key: str, values: dict[str, float]
     library = _library_material(key)
     values = dict(values)
     if library is not None:
-        # A group is filled only when the row gives none of it, so a row's Sy is never
-        # paired with the library's Su (the workbook bridge's rule too).
-        for group in _GROUPS:
-            if not given.intersection(group):
-                values.update({k: getattr(library, k) for k in group})
-        own_elastic = {"youngs_modulus", "poisson_ratio"} <= given
-        if "shear_modulus" not in given and (not own_elastic or not library.isotropic):
-            # An orthotropic material's G is not E/2(1+ν): the library's G, never derived.
-            values["shear_modulus"] = library.shear_modulus
+        # by whole groups, and never an isotropic G for a wound tube (the bridge's rule too)
+        values, _filled = complete_from_library(values, library, given)
         isotropic = library.isotropic
     else:
         # Only the derivation G = E/2(1+ν) needs isotropy; a row giving its own G may be of

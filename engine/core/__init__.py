@@ -46,7 +46,14 @@ from ._diagnoses import (
     split_flags,
 )
 from ._governing import factor_of_safety, governing_limit, margin
-from ._materials import Material, find_material, is_steel, material_library, normalise_name
+from ._materials import (
+    Material,
+    complete_from_library,
+    find_material,
+    is_steel,
+    material_library,
+    normalise_name,
+)
 from ._rating import Duty, Rating, rate
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
@@ -103,6 +110,7 @@ __all__ = [
     # materials
     "Material",
     "material_library",
+    "complete_from_library",
     "find_material",
     "is_steel",
     "normalise_name",

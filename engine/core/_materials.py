@@ -14,7 +14,8 @@ from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from types import MappingProxyType
 
-__all__ = ["Material", "material_library", "find_material", "normalise_name"]
+__all__ = ["Material", "material_library", "find_material", "normalise_name", "is_steel",
+           "complete_from_library"]
 
 _FIELDS = (
     "youngs_modulus",
@@ -331,6 +332,59 @@ def material_library() -> Mapping[str, Material]:
         A fresh read-only mapping on every call; nothing in it can be changed.
     """
     return MappingProxyType({m.name: m for m in _library_entries()})
+
+
+# Properties that belong together: the library fills a group only where the caller gives none of
+# it, so a user's value is never paired with the library's (a user's Sy with a typical Su).
+_FILL_GROUPS = (("youngs_modulus", "poisson_ratio"), ("yield_strength", "ultimate_strength"), ("density",))
+
+
+def complete_from_library(
+    values: Mapping[str, float], library: Material, given: frozenset[str] | None = None
+) -> tuple[dict[str, float], tuple[str, ...]]:
+    """A user's partial properties completed from a library material, group by group.
+
+    Parameters
+    ----------
+    values : mapping of property name to float, SI
+        The user's values; NaN where blank.
+    library : Material
+        The built-in material the user's row names.
+    given : frozenset of str, optional
+        The properties the user gave (default: those not NaN). A caller may count an unusable
+        cell as given so that the library does not quietly stand in for it.
+
+    Returns
+    -------
+    values : dict
+        The completed values.
+    filled : tuple of str
+        The properties taken from the library.
+
+    Notes
+    -----
+    G is taken from the library where the user gives none, unless the user's own E and ν give
+    it for an isotropic material; for an orthotropic one (a wound tube) G = E/2(1+ν) does not
+    hold, so the library's G is always used.
+    """
+    given = frozenset(k for k, v in values.items() if not math.isnan(v)) if given is None else given
+    out = dict(values)
+    filled: list[str] = []
+
+    def fill(key: str) -> None:
+        value = getattr(library, key, None)
+        if value is not None and math.isfinite(float(value)):
+            out[key] = float(value)
+            filled.append(key)
+
+    for group in _FILL_GROUPS:
+        if not given.intersection(group):
+            for key in group:
+                fill(key)
+    own_elastic = {"youngs_modulus", "poisson_ratio"} <= given
+    if "shear_modulus" not in given and (not own_elastic or not library.isotropic):
+        fill("shear_modulus")
+    return out, tuple(filled)
 
 
 def find_material(

@@ -5,7 +5,14 @@ import math
 
 import pytest
 
-from twistshare.engine.core import Material, find_material, is_steel, material_library, normalise_name
+from twistshare.engine.core import (
+    Material,
+    complete_from_library,
+    find_material,
+    is_steel,
+    material_library,
+    normalise_name,
+)
 
 LIBRARY = material_library()
 PROPERTY_FIELDS = (
@@ -150,3 +157,30 @@ class TestIsSteel:
                                       "Carbon/epoxy tube 45 wound", "Grey cast iron class 30"])
     def test_not_steels(self, name):
         assert not is_steel(name)
+
+
+class TestCompleteFromLibrary:
+    """complete_from_library fills whole groups only, and never an isotropic G for a wound tube."""
+
+    NAN = float("nan")
+
+    def test_blank_groups_are_filled(self):
+        lib = find_material("AISI 1045 hot rolled")
+        values, filled = complete_from_library({"yield_strength": self.NAN, "ultimate_strength": self.NAN}, lib)
+        assert values["yield_strength"] == lib.yield_strength
+        assert set(filled) >= {"yield_strength", "ultimate_strength", "shear_modulus"}
+
+    def test_a_users_strength_is_not_paired_with_the_librarys(self):
+        lib = find_material("AISI 1045 hot rolled")
+        values, filled = complete_from_library({"yield_strength": 400e6, "ultimate_strength": self.NAN}, lib)
+        assert values["yield_strength"] == 400e6 and "ultimate_strength" not in filled
+
+    def test_own_e_and_nu_keep_g_open_for_an_isotropic_material(self):
+        lib = find_material("AISI 1045 hot rolled")
+        _, filled = complete_from_library({"youngs_modulus": 200e9, "poisson_ratio": 0.3}, lib)
+        assert "shear_modulus" not in filled
+
+    def test_wound_tube_always_takes_the_librarys_g(self):
+        lib = find_material("Carbon/epoxy tube 45 wound")
+        values, filled = complete_from_library({"youngs_modulus": 17.7e9, "poisson_ratio": 0.77}, lib)
+        assert "shear_modulus" in filled and values["shear_modulus"] == lib.shear_modulus
