@@ -194,39 +194,33 @@ def read_parts(
     torque = vals("torque")
     power, speed = vals("power"), vals("speed")
     from_power = np.asarray(torque_from_power(power, speed, sf), dtype=float)
-    duty_source = []
-    t_out = np.full(n, np.nan)
-    for i in range(n):
-        has_t, has_p = not math.isnan(torque[i]), not (math.isnan(power[i]) and math.isnan(speed[i]))
-        if has_t:
-            t_out[i] = torque[i] * sf[i]
-            duty_source.append("torque")
-            if has_p and math.isfinite(from_power[i]) and abs(from_power[i] - t_out[i]) > 0.01 * abs(t_out[i]):
-                c = spot.column("torque")
-                findings.append(Finding(
-                    Severity.WARNING, grid.name, cell_ref(rows[i], c.index), f"part {ids[i]}: torque and "
-                    f"power at speed are both given and disagree ({t_out[i]:.6g} N·m against "
-                    f"{from_power[i]:.6g} N·m); the torque is used", part=ids[i]))
-        elif has_p:
-            duty_source.append("power")
-            if math.isfinite(from_power[i]):
-                t_out[i] = from_power[i]
-            elif not error[i]:
-                miss = "speed" if math.isnan(speed[i]) else "power" if math.isnan(power[i]) else "speed"
-                c = spot.column(miss)
-                why = "is missing" if math.isnan(vals(miss)[i]) else "must be above zero"
-                findings.append(Finding(
-                    Severity.ERROR, grid.name, cell_ref(rows[i], c.index) if c else None,
-                    f"part {ids[i]}: the duty is a power at a speed but the {miss} {why}", part=ids[i]))
-                error[i] = True
-        else:
-            duty_source.append("none")
-            if not error[i]:
-                c = spot.column("torque") or spot.column("power")
-                findings.append(Finding(
-                    Severity.ERROR, grid.name, cell_ref(rows[i], c.index) if c else None,
-                    f"part {ids[i]}: no duty: give a torque, or a power and a speed", part=ids[i]))
-                error[i] = True
+    has_t = ~np.isnan(torque)
+    has_p = ~has_t & ~(np.isnan(power) & np.isnan(speed))
+    t_out = np.where(has_t, torque * sf, np.where(has_p, from_power, np.nan))
+    duty_source = np.where(has_t, "torque", np.where(has_p, "power", "none")).tolist()
+    with np.errstate(invalid="ignore"):
+        disagree = has_t & ~np.isnan(power) & np.isfinite(from_power) & (np.abs(from_power - t_out) > 0.01 * np.abs(t_out))
+    tcol = spot.column("torque")
+    for i in np.flatnonzero(disagree):
+        findings.append(Finding(
+            Severity.WARNING, grid.name, cell_ref(rows[i], tcol.index), f"part {ids[i]}: torque and "
+            f"power at speed are both given and disagree ({t_out[i]:.6g} N·m against "
+            f"{from_power[i]:.6g} N·m); the torque is used", part=ids[i]))
+    for i in np.flatnonzero(has_p & ~np.isfinite(from_power) & ~error):
+        miss = "power" if math.isnan(power[i]) and not math.isnan(speed[i]) else "speed"
+        c = spot.column(miss)
+        why = "is missing" if math.isnan(vals(miss)[i]) else "must be above zero"
+        findings.append(Finding(
+            Severity.ERROR, grid.name, cell_ref(rows[i], c.index) if c else None,
+            f"part {ids[i]}: the duty is a power at a speed but the {miss} {why}", part=ids[i]))
+        error[i] = True
+    no_duty = ~has_t & ~has_p & ~error
+    c = spot.column("torque") or spot.column("power")
+    for i in np.flatnonzero(no_duty):
+        findings.append(Finding(
+            Severity.ERROR, grid.name, cell_ref(rows[i], c.index) if c else None,
+            f"part {ids[i]}: no duty: give a torque, or a power and a speed", part=ids[i]))
+    error |= no_duty
 
     if layers_grid is not None and layers_spot is not None:
         lay = _layers_from_rows(layers_grid, layers_spot, ids, findings)
@@ -238,61 +232,69 @@ def read_parts(
     g = np.full((P, L), np.nan)
     tau = np.full((P, L), np.nan)
     rule = np.zeros((P, L), dtype=np.int8)  # AllowableRule per layer; travels with the rating
-    noted: set = set()
-    cache: dict[str, tuple] = {}
     grids = {grid.name: grid}
     if layers_grid is not None:
         grids[layers_grid.name] = layers_grid
-    for i in range(P):
-        for j in range(L):
-            if not present[i, j]:
-                continue
-            name = mats[i][j]
-            if name is None:
-                sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
-                src = grids.get(sheet)
-                if cell is not None and src is not None and src.error_at(*parse_ref(cell)) is not None:
-                    error[i] = True  # the error value is reported on its cell already
-                    continue
-                if cell is not None and src is not None and parse_ref(cell) in src.uncached:
-                    findings.append(Finding(Severity.ERROR, sheet, cell,
-                                            f"part {ids[i]}, layer {j + 1}: material: the cell's formula has no "
-                                            "saved result (the book was written by a program that does not "
-                                            "calculate): open and save it in Excel or LibreOffice, then run again",
-                                            part=ids[i], layer=j + 1))
-                    error[i] = True
-                    continue
-                findings.append(Finding(Severity.ERROR, sheet, cell,
-                                        f"part {ids[i]}, layer {j + 1}: no material given", part=ids[i], layer=j + 1))
-                error[i] = True
-                continue
-            got = cache.get(name)
-            if got is None:
-                got = cache[name] = materials.lookup(name)
-            m, problem = got
+    where_i, where_j = np.nonzero(present)
+    named_i, named_j, named = [], [], []
+    for i, j in zip(where_i.tolist(), where_j.tolist()):
+        name = mats[i][j]
+        if name is not None:
+            named_i.append(i)
+            named_j.append(j)
+            named.append(name)
+            continue
+        sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
+        src = grids.get(sheet)
+        error[i] = True
+        if cell is not None and src is not None and src.error_at(*parse_ref(cell)) is not None:
+            continue  # the error value is reported on its cell already
+        if cell is not None and src is not None and parse_ref(cell) in src.uncached:
+            findings.append(Finding(Severity.ERROR, sheet, cell,
+                                    f"part {ids[i]}, layer {j + 1}: material: the cell's formula has no "
+                                    "saved result (the book was written by a program that does not "
+                                    "calculate): open and save it in Excel or LibreOffice, then run again",
+                                    part=ids[i], layer=j + 1))
+            continue
+        findings.append(Finding(Severity.ERROR, sheet, cell,
+                                f"part {ids[i]}, layer {j + 1}: no material given", part=ids[i], layer=j + 1))
+    if named:
+        # Each distinct name is looked up once; the arrays are filled through the inverse index.
+        unique, first, inverse = np.unique(np.array(named, dtype=object), return_index=True, return_inverse=True)
+        found = [materials.lookup(str(name)) for name in unique]
+        ni, nj = np.array(named_i), np.array(named_j)
+        ok = np.array([m is not None for m, _ in found])[inverse]
+
+        def pick(attr: str) -> np.ndarray:
+            return np.array([getattr(m, attr) if m is not None else np.nan for m, _ in found])
+
+        g[ni[ok], nj[ok]] = pick("shear_modulus")[inverse][ok]
+        tau[ni[ok], nj[ok]] = pick("allowable_shear")[inverse][ok]
+        rule[ni[ok], nj[ok]] = np.array([int(m.rule) if m is not None else 0 for m, _ in found])[inverse][ok]
+        for k in np.flatnonzero(~ok):
+            i, j = int(ni[k]), int(nj[k])
+            sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
+            findings.append(Finding(Severity.ERROR, sheet, cell,
+                                    f"part {ids[i]}, layer {j + 1}: {found[inverse[k]][1]}", part=ids[i], layer=j + 1))
+            error[i] = True
+        for u, (m, _) in enumerate(found):
             if m is None:
-                sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
-                findings.append(Finding(Severity.ERROR, sheet, cell, f"part {ids[i]}, layer {j + 1}: {problem}",
-                                        part=ids[i], layer=j + 1))
-                error[i] = True
                 continue
-            g[i, j] = m.shear_modulus
-            tau[i, j] = m.allowable_shear
-            rule[i, j] = int(m.rule)
-            if m.note and name not in noted:
-                noted.add(name)
+            if m.note:  # once per material, where it is first used
+                i, j = int(ni[first[u]]), int(nj[first[u]])
                 sheet, cell = layer_cells.get((i, j, "material"), (grid.name, None))
                 findings.append(Finding(Severity.WARNING, sheet, cell, f"part {ids[i]}, layer {j + 1}: {m.note}",
                                         part=ids[i], layer=j + 1))
-            if m.keyway and kt[i, j] > 1.0 and ("kt", name) not in noted:
-                noted.add(("kt", name))  # once per material: the first part that shows it
+            with_kt = np.flatnonzero((inverse == u) & (kt[ni, nj] > 1.0)) if m.keyway else ()
+            if len(with_kt):  # once per material: the first part that shows it
+                i, j = int(ni[with_kt[0]]), int(nj[with_kt[0]])
                 sheet, cell = layer_cells.get((i, j, "kt"), (grid.name, None))
                 findings.append(Finding(
                     Severity.WARNING, sheet, cell,
                     f"part {ids[i]}, layer {j + 1}: Kt {kt[i, j]:.3g} and the keyway factor 0.75 of material "
-                    f"{name!r} are both applied (here and on every layer of that material with a Kt); the "
-                    "shafting code's keyway factor already allows for a keyway, so if Kt describes the same "
-                    "keyway it is counted twice (conservative)", part=ids[i], layer=j + 1))
+                    f"{unique[u]!r} are both applied (here and on every layer of that material "
+                    "with a Kt); the shafting code's keyway factor already allows for a keyway, so if Kt describes "
+                    "the same keyway it is counted twice (conservative)", part=ids[i], layer=j + 1))
     system = _system_of(spot, ("outer_diameter", "length", "torque"))
     if layers_spot is not None and system == "SI":
         system = _system_of(layers_spot, ("outer_diameter",))
@@ -301,6 +303,41 @@ def read_parts(
         vals("twist_limit_angle"), vals("twist_limit_per_length"), error, mats, duty_source,
         layer_cells, part_cells, system, rule,
     )
+
+
+def _place_layer(got: dict[str, NumericColumn], src: int, p: int, j: int, pid: str, cells: CellRefs,
+                 sheet: str, arrays: tuple[np.ndarray, ...], findings: list[Finding]) -> None:
+    """Put one layer's diameters and Kt (row ``src`` of the columns read) into part ``p``, slot ``j``.
+
+    Both layouts end here, so a missing diameter reads the same whichever way the book is laid out.
+    """
+    od, idd, kt, bad = arrays
+    layer = j + 1
+    if any(col.bad[src] for col in got.values()):
+        bad[p] = True
+    o = got.get("outer_diameter")
+    if o is None or o.empty[src]:
+        if not bad[p]:
+            findings.append(Finding(Severity.ERROR, *cells.get((p, j, "outer_diameter"), (sheet, None)),
+                                    f"part {pid}, layer {layer}: outer diameter is missing", part=pid, layer=layer))
+        bad[p] = True
+    else:
+        od[p, j] = o.values[src]
+    inn = got.get("inner_diameter")
+    if inn is None or inn.empty[src]:
+        if j == 0:
+            idd[p, j] = 0.0  # a blank bore on the innermost layer means a solid core
+        else:
+            if not bad[p]:
+                findings.append(Finding(Severity.ERROR, *cells.get((p, j, "inner_diameter"), (sheet, None)),
+                                        f"part {pid}, layer {layer}: inner diameter is missing; "
+                                        f"expected the outer diameter of layer {layer - 1}", part=pid, layer=layer))
+            bad[p] = True
+    else:
+        idd[p, j] = inn.values[src]
+    k = got.get("kt")
+    if k is not None and not k.empty[src] and not k.bad[src]:
+        kt[p, j] = k.values[src]
 
 
 def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
@@ -353,35 +390,7 @@ def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
                 findings.append(Finding(Severity.ERROR, *cells[(i, j, "material")],
                                         f"part {ids[i]}, layer {layer}: material: {err}", part=ids[i], layer=layer))
                 bad[i] = True
-            for key in _LAYER_KEYS:
-                col = got.get(key)
-                if col is not None and col.bad[i]:
-                    bad[i] = True
-            o = got.get("outer_diameter")
-            if o is None or o.empty[i]:
-                if not bad[i]:
-                    findings.append(Finding(Severity.ERROR, *cells.get((i, j, "outer_diameter"), (grid.name, None)),
-                                            f"part {ids[i]}, layer {layer}: outer diameter is missing",
-                                            part=ids[i], layer=layer))
-                bad[i] = True
-            else:
-                od[i, j] = o.values[i]
-            inn = got.get("inner_diameter")
-            if inn is None or inn.empty[i]:
-                if layer == 1:
-                    idd[i, j] = 0.0  # a blank bore on the innermost layer means a solid core
-                else:
-                    if not bad[i]:
-                        findings.append(Finding(Severity.ERROR, *cells.get((i, j, "inner_diameter"), (grid.name, None)),
-                                                f"part {ids[i]}, layer {layer}: inner diameter is missing; "
-                                                f"expected the outer diameter of layer {layer - 1}",
-                                                part=ids[i], layer=layer))
-                    bad[i] = True
-            else:
-                idd[i, j] = inn.values[i]
-            k = got.get("kt")
-            if k is not None and not k.empty[i] and not k.bad[i]:
-                kt[i, j] = k.values[i]
+            _place_layer(got, i, i, j, ids[i], cells, grid.name, (od, idd, kt, bad), findings)
     return od, idd, kt, present, mats, cells, bad
 
 
@@ -410,8 +419,10 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
     mats: list[list[str | None]] = [[None] * L for _ in range(n)]
     cells = CellRefs(grid.name, rows)  # each layer has its own row: references set one by one
 
+    row_index = {r: i for i, r in enumerate(rows)}
+
     def who(r: int) -> str:
-        i = rows.index(r)
+        i = row_index[r]
         return f"part {keys[i]}, layer {layer_no[i]}" if layer_no[i] else f"part {keys[i]}"
 
     got = {key: read_numeric(grid, c, rows, who, findings, spot.header_row, header_seen)
@@ -460,33 +471,9 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
                 findings.append(Finding(Severity.ERROR, grid.name, cell_ref(r, mcol.index),
                                         f"part {pid}, layer {j + 1}: material: {err}", part=pid, layer=j + 1))
                 bad[p] = True
-        for key, nc in got.items():
+        for key in got:
             cells[(p, j, key)] = (grid.name, cell_ref(r, spot.column(key).index))
-            if nc.bad[i]:
-                bad[p] = True
-        o = got.get("outer_diameter")
-        if o is None or o.empty[i]:
-            if not bad[p]:
-                findings.append(Finding(Severity.ERROR, *cells.get((p, j, "outer_diameter"), (grid.name, None)),
-                                        f"part {pid}, layer {j + 1}: outer diameter is missing", part=pid, layer=j + 1))
-            bad[p] = True
-        else:
-            od[p, j] = o.values[i]
-        inn = got.get("inner_diameter")
-        if inn is None or inn.empty[i]:
-            if j == 0:
-                idd[p, j] = 0.0
-            else:
-                if not bad[p]:
-                    findings.append(Finding(Severity.ERROR, *cells.get((p, j, "inner_diameter"), (grid.name, None)),
-                                            f"part {pid}, layer {j + 1}: inner diameter is missing", part=pid,
-                                            layer=j + 1))
-                bad[p] = True
-        else:
-            idd[p, j] = inn.values[i]
-        k = got.get("kt")
-        if k is not None and not k.empty[i] and not k.bad[i]:
-            kt[p, j] = k.values[i]
+        _place_layer(got, i, p, j, pid, cells, grid.name, (od, idd, kt, bad), findings)
     for p in range(n):
         if not present[p].any() and not bad[p]:
             findings.append(Finding(Severity.ERROR, None, None,
