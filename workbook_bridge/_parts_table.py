@@ -305,39 +305,48 @@ def read_parts(
     )
 
 
-def _place_layer(got: dict[str, NumericColumn], src: int, p: int, j: int, pid: str, cells: CellRefs,
-                 sheet: str, arrays: tuple[np.ndarray, ...], findings: list[Finding]) -> None:
-    """Put one layer's diameters and Kt (row ``src`` of the columns read) into part ``p``, slot ``j``.
+def _place_layers(got: dict[str, NumericColumn], src: np.ndarray, p: np.ndarray, j: np.ndarray,
+                  ids: list[str], cells: CellRefs, sheet: str, arrays: tuple[np.ndarray, ...],
+                  findings: list[Finding]) -> None:
+    """Put layers' diameters and Kt into the part arrays: column row ``src[k]`` -> part ``p[k]``, slot ``j[k]``.
 
-    Both layouts end here, so a missing diameter reads the same whichever way the book is laid out.
+    Both layouts end here (a layer group column by column, or the one-row-per-layer table in one
+    go), so a missing diameter reads the same whichever way the book is laid out. Later entries
+    see the ``bad`` marks of earlier steps, as a reader would: one message per part and cause.
     """
     od, idd, kt, bad = arrays
-    layer = j + 1
-    if any(col.bad[src] for col in got.values()):
-        bad[p] = True
+    if not len(src):
+        return
+    for col in got.values():
+        bad[p[col.bad[src]]] = True
+
+    def report(mask: np.ndarray, what: str, key: str, extra) -> None:
+        for k in np.flatnonzero(mask & ~bad[p]):
+            i, jj = int(p[k]), int(j[k])
+            findings.append(Finding(Severity.ERROR, *cells.get((i, jj, key), (sheet, None)),
+                                    f"part {ids[i]}, layer {jj + 1}: {what} is missing{extra(jj)}",
+                                    part=ids[i], layer=jj + 1))
+
     o = got.get("outer_diameter")
-    if o is None or o.empty[src]:
-        if not bad[p]:
-            findings.append(Finding(Severity.ERROR, *cells.get((p, j, "outer_diameter"), (sheet, None)),
-                                    f"part {pid}, layer {layer}: outer diameter is missing", part=pid, layer=layer))
-        bad[p] = True
-    else:
-        od[p, j] = o.values[src]
+    missing = o.empty[src] if o is not None else np.ones(len(src), bool)
+    report(missing, "outer diameter", "outer_diameter", lambda jj: "")
+    bad[p[missing]] = True
+    if o is not None:
+        od[p[~missing], j[~missing]] = o.values[src[~missing]]
     inn = got.get("inner_diameter")
-    if inn is None or inn.empty[src]:
-        if j == 0:
-            idd[p, j] = 0.0  # a blank bore on the innermost layer means a solid core
-        else:
-            if not bad[p]:
-                findings.append(Finding(Severity.ERROR, *cells.get((p, j, "inner_diameter"), (sheet, None)),
-                                        f"part {pid}, layer {layer}: inner diameter is missing; "
-                                        f"expected the outer diameter of layer {layer - 1}", part=pid, layer=layer))
-            bad[p] = True
-    else:
-        idd[p, j] = inn.values[src]
+    missing = inn.empty[src] if inn is not None else np.ones(len(src), bool)
+    solid = missing & (j == 0)  # a blank bore on the innermost layer means a solid core
+    idd[p[solid], j[solid]] = 0.0
+    missing &= j > 0
+    report(missing, "inner diameter", "inner_diameter", lambda jj: f"; expected the outer diameter of layer {jj}")
+    bad[p[missing]] = True
+    if inn is not None:
+        given = ~inn.empty[src]
+        idd[p[given], j[given]] = inn.values[src[given]]
     k = got.get("kt")
-    if k is not None and not k.empty[src] and not k.bad[src]:
-        kt[p, j] = k.values[src]
+    if k is not None:
+        take = ~k.empty[src] & ~k.bad[src]
+        kt[p[take], j[take]] = k.values[src[take]]
 
 
 def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
@@ -371,26 +380,34 @@ def _layers_from_groups(grid, spot, rows, ids, findings, header_seen):
         names = read_text(grid, mcol.index, rows) if mcol else [None] * n
         if mcol:
             cells.column((j, "material"), mcol.index)
-        for i in range(n):
-            used = names[i] is not None or any(not got[k].empty[i] for k in got if k != "kt")
-            if not used:
-                k = got.get("kt")
-                if k is not None and not k.empty[i]:
-                    # templates often pre-fill Kt for every layer slot; a Kt alone is not a layer
-                    findings.append(Finding(Severity.WARNING, *cells[(i, j, "kt")],
-                                            f"part {ids[i]}, layer {layer}: Kt is given but the layer has no "
-                                            "material and no diameters; the slot is ignored",
-                                            part=ids[i], layer=layer))
-                continue
-            present[i, j] = True
+        # Whole columns at once; findings only for the rows that need one.
+        named = np.fromiter((x is not None for x in names), bool, n)
+        used = named.copy()
+        for key, col in got.items():
+            if key != "kt":
+                used |= ~col.empty
+        k = got.get("kt")
+        if k is not None:
+            # templates often pre-fill Kt for every layer slot; a Kt alone is not a layer
+            for i in np.flatnonzero(~used & ~k.empty):
+                findings.append(Finding(Severity.WARNING, *cells[(i, j, "kt")],
+                                        f"part {ids[i]}, layer {layer}: Kt is given but the layer has no "
+                                        "material and no diameters; the slot is ignored", part=ids[i], layer=layer))
+        present[:, j] = used
+        for i in np.flatnonzero(named).tolist():
             mats[i][j] = names[i]
-            err = error_problem(grid, rows[i], mcol.index, "a material name") if mcol else None
-            if err is not None:
-                mats[i][j] = None
-                findings.append(Finding(Severity.ERROR, *cells[(i, j, "material")],
-                                        f"part {ids[i]}, layer {layer}: material: {err}", part=ids[i], layer=layer))
-                bad[i] = True
-            _place_layer(got, i, i, j, ids[i], cells, grid.name, (od, idd, kt, bad), findings)
+        if mcol is not None and grid.errors:
+            for i in np.flatnonzero(used).tolist():
+                err = error_problem(grid, rows[i], mcol.index, "a material name")
+                if err is not None:
+                    mats[i][j] = None
+                    findings.append(Finding(Severity.ERROR, *cells[(i, j, "material")],
+                                            f"part {ids[i]}, layer {layer}: material: {err}", part=ids[i],
+                                            layer=layer))
+                    bad[i] = True
+        rows_used = np.flatnonzero(used)
+        _place_layers(got, rows_used, rows_used, np.full(len(rows_used), j), ids, cells, grid.name,
+                      (od, idd, kt, bad), findings)
     return od, idd, kt, present, mats, cells, bad
 
 
@@ -418,6 +435,7 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
     bad = np.zeros(n, dtype=bool)
     mats: list[list[str | None]] = [[None] * L for _ in range(n)]
     cells = CellRefs(grid.name, rows)  # each layer has its own row: references set one by one
+    placed: list[tuple[int, int, int]] = []  # (row in this table, part, slot)
 
     row_index = {r: i for i, r in enumerate(rows)}
 
@@ -473,7 +491,10 @@ def _layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings
                 bad[p] = True
         for key in got:
             cells[(p, j, key)] = (grid.name, cell_ref(r, spot.column(key).index))
-        _place_layer(got, i, p, j, pid, cells, grid.name, (od, idd, kt, bad), findings)
+        placed.append((i, p, j))
+    if placed:
+        src, part, slot = (np.array(x) for x in zip(*placed))
+        _place_layers(got, src, part, slot, ids, cells, grid.name, (od, idd, kt, bad), findings)
     for p in range(n):
         if not present[p].any() and not bad[p]:
             findings.append(Finding(Severity.ERROR, None, None,
