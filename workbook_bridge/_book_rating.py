@@ -24,7 +24,7 @@ from ._reading import BookUnusable, OpenBook
 from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS
 from ._tables import TableSpot, locate_table
 
-__all__ = ["BookRating", "rate_open_book", "validate_open_book", "BookUnusable"]
+__all__ = ["BookRating", "rate_open_book", "BookUnusable"]
 
 
 @dataclass
@@ -41,10 +41,6 @@ class BookRating:
     parts_spot: TableSpot | None = None
     layers_spot: TableSpot | None = None
     materials_spot: TableSpot | None = None
-
-    @property
-    def errors(self) -> list[Finding]:
-        return [f for f in self.findings if f.severity is Severity.ERROR]
 
 
 def _spot(book: OpenBook, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -168,12 +164,10 @@ def _unknown_headers(grid, spot: TableSpot, fields, layer_groups: bool, what: st
     because ignoring it would drop a criterion without a word.
     """
     import difflib
-    import re
 
     from twistshare.engine.units import split_header
 
-    from ._grid import cell_ref
-    from ._schema import LAYER_FIELDS
+    from ._schema import LAYER_FIELDS, split_layer_group
 
     labels = sorted({lab for f in fields for lab in f.labels if len(lab) > 2})
     layer_labels = sorted({lab for f in LAYER_FIELDS for lab in f.labels if len(lab) > 2})
@@ -182,10 +176,10 @@ def _unknown_headers(grid, spot: TableSpot, fields, layer_groups: bool, what: st
         label, unit = split_header(header)
         key = " ".join(label.strip().lower().split())
         suggestion = None
-        m = re.match(r"^(?:layer|l)\s*(\d{1,2})\s*[:\-]?\s+(.+)$", key) if layer_groups else None
+        m = split_layer_group(key) if layer_groups else None
         if m:
-            near = difflib.get_close_matches(m.group(2), layer_labels, n=1, cutoff=0.75)
-            suggestion = f"Layer {m.group(1)} {near[0]}" if near else None
+            near = difflib.get_close_matches(m[1], layer_labels, n=1, cutoff=0.75)
+            suggestion = f"Layer {m[0]} {near[0]}" if near else None
         else:
             near = difflib.get_close_matches(key, labels, n=1, cutoff=0.75)
             suggestion = near[0][:1].upper() + near[0][1:] if near else None
@@ -285,11 +279,6 @@ def _refuse_conflicting_parts(pgrid: SheetGrid, pspot: TableSpot, lgrid, lspot, 
             i = by_id.get(keys.get(r))
             if i is not None:
                 parts.input_error[i] = True
-
-
-def validate_open_book(book: OpenBook) -> BookRating:
-    """Read and check the book's tables without rating (the engine's input checks still run)."""
-    return rate_open_book(book)
 
 
 def rate_open_book(book: OpenBook) -> BookRating:

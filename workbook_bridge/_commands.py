@@ -166,12 +166,9 @@ def _add_warnings_sheet(writer: BookWriter, findings: list[Finding]) -> None:
                      row_heights=heights)
 
 
-def _write_comments(writer: BookWriter, result: BookRating, findings: list[Finding]) -> int:
-    n = 0
+def _write_comments(writer: BookWriter, result: BookRating, findings: list[Finding]) -> None:
     for sheet, cells in comment_map(result, findings).items():
         writer.add_comments(sheet, cells)
-        n += len(cells)
-    return n
 
 
 def _report(result: BookRating, out: Path | None, quiet: bool, verb: str) -> None:
@@ -198,15 +195,21 @@ def _exit_code(result: BookRating) -> int:
     return EXIT_PART_ERRORS if any(f.severity is Severity.ERROR for f in result.findings) else EXIT_OK
 
 
+def _open_for_rating(book_path: Path, out: Path):
+    """The checks both `rate` and `check` make before reading a table; raises with the reason."""
+    info, book = prepare(book_path)
+    refuse_rated_book(info, book_path)
+    check_output_name(info, out)
+    check_output_place(out)
+    return book
+
+
 def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str = "book", quiet: bool = False,
              profile_part: str | None = None) -> int:
     progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
     try:
         progress.step("check package")
-        info, book = prepare(book_path)
-        refuse_rated_book(info, book_path)
-        check_output_name(info, out)
-        check_output_place(out)
+        book = _open_for_rating(book_path, out)
         progress.step("read tables")
         result = rate_open_book(book)
     except (OoxmlError, BookUnusable) as exc:
@@ -321,11 +324,7 @@ def _add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Di
 
 def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
     try:
-        info, book = prepare(book_path)
-        refuse_rated_book(info, book_path)
-        check_output_name(info, out)
-        check_output_place(out)
-        result = rate_open_book(book)
+        result = rate_open_book(_open_for_rating(book_path, out))
     except (OoxmlError, BookUnusable) as exc:
         return _fail(str(exc))
     try:

@@ -196,12 +196,10 @@ def lowest_margins(book, count: int = 10) -> list[int]:
     r = book.rating
     if r is None or book.rated is None or not book.rated.any():
         return []
-    m = np.where(book.rated, np.asarray(r.margin, dtype=float), np.inf)
+    rated = np.flatnonzero(book.rated)
+    m = np.asarray(r.margin, dtype=float)[rated]
     m = np.where(np.isnan(m), np.inf, m)
-    k = min(count, int(book.rated.sum()))
-    idx = np.argpartition(m, k - 1)[:k] if k < m.size else np.arange(m.size)
-    idx = idx[np.argsort(m[idx], kind="stable")]
-    return [int(i) for i in idx if math.isfinite(m[i]) or book.rated[i]][:k]
+    return rated[np.argsort(m, kind="stable")[:count]].tolist()
 
 
 def criterion_counts(book) -> list[tuple[str, int]]:

@@ -114,16 +114,21 @@ def match_header(header: object, fields: tuple[Field, ...]) -> tuple[Field, str 
     return None
 
 
+def split_layer_group(label: str) -> tuple[int, str] | None:
+    """``layer 2 outer diameter`` (already lower-cased) -> (2, "outer diameter"), else None."""
+    m = _LAYER_GROUP.match(_norm(label))
+    return (int(m.group(1)), m.group(2)) if m else None
+
+
 def match_layer_group_header(header: object) -> tuple[int, Field, str | None] | None:
     """Match ``Layer 2 outer diameter [mm]`` -> (2, outer-diameter field, "mm")."""
     if not isinstance(header, str):
         return None
     label, unit = split_header(header)
-    m = _LAYER_GROUP.match(_norm(label))
-    if not m:
+    got = split_layer_group(label)
+    if got is None:
         return None
-    layer = int(m.group(1))
-    rest = m.group(2)
+    layer, rest = got
     for field in LAYER_FIELDS:
         if rest in field.labels:
             return layer, field, unit

@@ -188,5 +188,4 @@ def share_book(book_path: Path, out: Path, *, in_place: bool = False, quiet: boo
     if problems:
         msg += f" ({problems} could not be evaluated: see their comments)"
     print(msg, file=sys.stdout)
-    del quiet
     return EXIT_PART_ERRORS if problems else EXIT_OK

@@ -14,6 +14,7 @@ Examples
 
 from typing import Any
 
+from . import _functions
 from ._declare import describe_function
 from ._functions import (
     TWS_ALLOWABLE,
@@ -29,20 +30,7 @@ from ._functions import (
     TWS_TWIST_RATE,
 )
 
-__all__ = [
-    "TWS_SHARE",
-    "TWS_LAYER_CAPACITY",
-    "TWS_GOVERNING_LIMIT",
-    "TWS_GOVERNS",
-    "TWS_STRESS",
-    "TWS_STRESS_AT",
-    "TWS_TWIST_ANGLE",
-    "TWS_TWIST_RATE",
-    "TWS_MARGIN",
-    "TWS_TORQUE_FROM_POWER",
-    "TWS_ALLOWABLE",
-    "list_functions",
-]
+__all__ = [*_functions.__all__, "list_functions"]
 
 
 def list_functions() -> list[dict[str, Any]]:
