@@ -237,9 +237,15 @@ def error_problem(grid: SheetGrid, row: int, col: int, expected: str) -> str | N
 def read_text(grid: SheetGrid, col: int, rows: Sequence[int]) -> list[str | None]:
     """Text of a column, stripped; whole numbers shown without a decimal point; None when empty."""
     out: list[str | None] = []
+    grid_rows, errors = grid.rows, grid.errors
     for r in rows:
+        row = grid_rows[r]
+        raw = row[col] if col < len(row) else None
+        if type(raw) is str and not errors:  # the common case, read straight from the grid
+            out.append(raw.strip() or None)
+            continue
         raw = grid.value(r, col)
-        if raw is None or (r, col) in grid.errors:
+        if raw is None or (r, col) in errors:
             out.append(None if raw is None else str(raw))
         elif isinstance(raw, float) and raw.is_integer():
             out.append(str(int(raw)))
