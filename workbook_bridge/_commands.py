@@ -7,7 +7,6 @@ import math
 import os
 import shutil
 import sys
-import time
 from collections import defaultdict
 from pathlib import Path
 
@@ -19,7 +18,7 @@ from ._progress import Progress
 from ._reading import BookUnusable, open_book
 from ._result_tables import CAUTIONS, Styled, materials_rows, results_rows, warnings_rows
 from ._summary_sheet import summary_rows
-from .ooxml import BarChart, BookWriter, Cell, OoxmlError, ScatterChart, SeriesData, inspect_package
+from .ooxml import BarChart, BookWriter, Cell, OoxmlError, ScatterChart, SeriesData, backup_path, inspect_package
 
 __all__ = ["run_rate", "run_check", "run_share", "run_demo", "run_functions", "prepare", "RESULT_SHEETS"]
 
@@ -82,14 +81,9 @@ def keep_previous(out: Path, in_place: bool) -> str | None:
     """An existing file under the output name is kept as a timestamped backup, never lost."""
     if in_place or not out.exists():
         return None
-    stamp = time.strftime("%Y%m%d-%H%M%S")
-    backup = out.with_name(f"{out.name}.bak-{stamp}")
-    n = 1
-    while backup.exists():
-        n += 1
-        backup = out.with_name(f"{out.name}.bak-{stamp}-{n}")
+    backup = backup_path(str(out))
     shutil.copy2(out, backup)
-    return str(backup)
+    return backup
 
 
 def write_book(writer: BookWriter, out: Path, in_place: bool) -> str | None:

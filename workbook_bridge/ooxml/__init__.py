@@ -8,6 +8,7 @@ other member copied with identical bytes.
 from ._cells import Cell
 from ._charts import BarChart, ScatterChart, SeriesData, range_ref
 from ._errors import OoxmlError, PackageRefused, WriteRefused
+from ._naming import backup_path
 from ._package import Limits
 from ._safety import HUGE_ROWS, DefinedName, ExternalLink, PackageInfo, SheetInfo, TableInfo, inspect_package
 from ._styles import STYLE_NAMES
@@ -17,5 +18,5 @@ __all__ = [
     "BarChart", "BookWriter", "Cell", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
     "OoxmlError", "PackageInfo", "PackageRefused", "STYLE_NAMES", "ScatterChart", "SeriesData",
     "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
-    "range_ref",
+    "backup_path", "range_ref",
 ]

@@ -2,12 +2,14 @@
 
 from __future__ import annotations
 
+import datetime as _dt
+import os
 import re
 from typing import Iterable
 
 from ._errors import WriteRefused
 
-__all__ = ["check_sheet_name", "unique_sheet_name", "free_part"]
+__all__ = ["check_sheet_name", "unique_sheet_name", "free_part", "backup_path"]
 
 _BAD = re.compile(r"[\[\]:*?/\\]")
 MAX_SHEET_NAME = 31
@@ -60,4 +62,15 @@ def free_part(template: str, used_lower: set[str]) -> str:
         n += 1
     name = template.format(n)
     used_lower.add(name.lower())
+    return name
+
+
+def backup_path(path: str) -> str:
+    """A free name beside ``path`` for a copy of it: ``<name>.bak-YYYYmmdd-HHMMSS[-n]``."""
+    stamp = _dt.datetime.now().strftime("%Y%m%d-%H%M%S")
+    name = f"{path}.bak-{stamp}"
+    n = 2
+    while os.path.exists(name):
+        name = f"{path}.bak-{stamp}-{n}"
+        n += 1
     return name

@@ -17,7 +17,6 @@ type) only when formulas are replaced: it lists formula cells, and Excel rebuild
 
 from __future__ import annotations
 
-import datetime as _dt
 import os
 import re
 import shutil
@@ -33,7 +32,7 @@ from ._charts import BarChart, ScatterChart, anchor_cell, chart_xml, drawing_xml
 from ._comments import (SEPARATOR, comment_refs, merge_comments_part, merge_vml, new_comments_part,
                         new_vml, vml_blocks, vml_note_cells)
 from ._errors import PackageRefused, WriteRefused
-from ._naming import free_part, unique_sheet_name
+from ._naming import backup_path, free_part, unique_sheet_name
 from ._opc import (CT, RT, add_overrides, append_rels, new_rels, next_rel_id, parse_content_types, parse_rels,
                    rels_path_of, relative_target, remove_overrides, remove_rels, tag_attributes)
 from ._package import Limits, Package
@@ -557,7 +556,7 @@ class BookWriter:
         plan = self._plan()
         backup = None
         if in_place:
-            backup = self._backup_name()
+            backup = backup_path(self._source)
             shutil.copy2(self._source, backup)
         self._write_zip(out, plan)
         self.close()
@@ -566,15 +565,6 @@ class BookWriter:
         copied = tuple(n for n in self._pkg.names if n not in plan.changed and n not in plan.removed)
         return WriteReport(out, backup, changed, tuple(n for n, _ in plan.added), removed, copied,
                            tuple(warnings), time.perf_counter() - started)
-
-    def _backup_name(self) -> str:
-        stamp = _dt.datetime.now().strftime("%Y%m%d-%H%M%S")
-        name = f"{self._source}.bak-{stamp}"
-        n = 2
-        while os.path.exists(name):
-            name = f"{self._source}.bak-{stamp}-{n}"
-            n += 1
-        return name
 
     def _write_zip(self, out: str, plan: "_Plan") -> None:
         folder = os.path.dirname(out) or "."
