@@ -50,6 +50,8 @@ from typing import Mapping
 import numpy as np
 import pint
 
+from .errors import InputRefused
+
 __all__ = [
     "KINDS",
     "UnitProblem",
@@ -59,7 +61,6 @@ __all__ = [
     "split_header",
     "unit_system",
     "display_unit",
-    "excel_error_text",
 ]
 
 KINDS: tuple[str, ...] = (
@@ -126,29 +127,7 @@ _DISPLAY: Mapping[tuple[str, str], str] = MappingProxyType(
     }
 )
 
-# Excel's error values as they arrive from a cell (as text, or as the COM integer codes the
-# Windows host hands over when errors are not converted to text).
-_EXCEL_ERRORS: frozenset[str] = frozenset(
-    {
-        "#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#GETTING_DATA",
-        "#SPILL!", "#CALC!", "#FIELD!", "#BLOCKED!", "#CONNECT!", "#BUSY!", "#UNKNOWN!",
-        "#EXTERNAL!", "#PYTHON!",
-    }
-)
-_EXCEL_ERROR_CODES: Mapping[int, str] = MappingProxyType(
-    {
-        -2146826281: "#DIV/0!",
-        -2146826246: "#N/A",
-        -2146826259: "#NAME?",
-        -2146826288: "#NULL!",
-        -2146826252: "#NUM!",
-        -2146826265: "#REF!",
-        -2146826273: "#VALUE!",
-    }
-)
-
-
-class UnitProblem(ValueError):
+class UnitProblem(InputRefused):
     """A unit or a value that cannot be read as the kind asked for.
 
     Attributes
@@ -611,23 +590,6 @@ _THOUSANDS_COMMA = re.compile(r"\s*[+-]?\d{1,3}(?:,\d{3})+(?!\d)")
 _SPACED_DIGITS = re.compile(r"\s*[+-]?\d{1,3}(?:[ \u00a0\u202f\u2009]\d{3})+(?!\d)")
 
 
-def excel_error_text(value: object) -> str | None:
-    """The Excel error a cell value stands for (``"#N/A"``), or None if it is not one.
-
-    Parameters
-    ----------
-    value : object
-        A cell value as a host hands it over: error text such as ``"#DIV/0!"``, or one of the
-        integer error codes the Windows COM interface uses.
-    """
-    if isinstance(value, str):
-        stripped = value.strip()
-        return stripped.upper() if stripped.upper() in _EXCEL_ERRORS else None
-    if isinstance(value, int) and not isinstance(value, bool):
-        return _EXCEL_ERROR_CODES.get(value)
-    return None
-
-
 def _format_number(value: float) -> str:
     return f"{value:g}"
 
@@ -655,7 +617,7 @@ def parse_value(text_or_number: object, kind: str, default_unit: str | None = No
     Raises
     ------
     UnitProblem
-        Empty cell, Excel error value, text that is not a number and a unit, a comma in the
+        Empty cell, a spreadsheet error value (``#N/A``), text that is not a number and a unit, a comma in the
         number (``"12,5 mm"``, ``"1,200 N·m"``), NaN or infinity, a yes/no value, a date, a
         bare number with no unit to go by, or a unit problem (see `si_factor`).
 
@@ -668,10 +630,9 @@ def parse_value(text_or_number: object, kind: str, default_unit: str | None = No
     """
     _check_kind_name(kind)
     value = text_or_number
-    error = excel_error_text(value)
-    if error is not None:
-        raise UnitProblem(error, kind, "an Excel error value",
-                          message=f"cell holds the error {error}")
+    if isinstance(value, str) and value.strip().startswith("#") and value.strip()[1:2].isalpha():
+        raise UnitProblem(value.strip().upper(), kind, "a spreadsheet error value",
+                          message=f"cell holds the error {value.strip().upper()}")
     if value is None:
         raise UnitProblem("", kind, "empty", message=f"cell is empty; expected {_KIND_PHRASE[kind]}")
     if isinstance(value, (bool, np.bool_)):

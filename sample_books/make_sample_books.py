@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from twistshare.workbook_bridge._sample_books import write_all
+from twistshare.sample_books import write_all
 
 
 def main() -> None:

@@ -1,9 +1,10 @@
 """The engine's worksheet-function surface: ``TWS_...`` functions for spreadsheet cells.
 
-Each function is declared with xlwings' decorators (one-line descriptions for the function
-help), reads its cells through the one unit registry (`twistshare.engine.units`), calls the
-engine core and converts the result. A cell that cannot be computed shows a short message
-starting with ``⚠`` instead of a number.
+Each function reads its arguments through the intake (the same rule per field as a workbook
+table's column), calls the engine core and converts the result. A cell that cannot be computed
+shows a short message starting with ``⚠`` instead of a number. `registry()` describes every
+function for the spreadsheet hosts (`hosts.xlwings_udfs` for Excel; LibreOffice Calc), which
+are generated from it.
 
 Examples
 --------
@@ -15,7 +16,6 @@ Examples
 from typing import Any
 
 from . import _functions
-from ._declare import describe_function
 from ._functions import (
     TWS_ALLOWABLE,
     TWS_GOVERNING_LIMIT,
@@ -27,10 +27,16 @@ from ._functions import (
     TWS_STRESS_AT,
     TWS_TORQUE_FROM_POWER,
     TWS_TWIST_ANGLE,
-    TWS_TWIST_RATE,
+    TWS_TWIST_PER_LENGTH,
 )
+from ._registry import CATEGORY, Argument, CellFunction, function_spec
 
-__all__ = [*_functions.__all__, "list_functions"]
+__all__ = [*_functions.__all__, "registry", "list_functions", "CellFunction", "Argument", "CATEGORY"]
+
+
+def registry() -> tuple[CellFunction, ...]:
+    """Every cell function as the hosts offer it, in a stable order (fresh on every call)."""
+    return tuple(function_spec(getattr(_functions, name)) for name in _functions.__all__)
 
 
 def list_functions() -> list[dict[str, Any]]:
@@ -39,8 +45,8 @@ def list_functions() -> list[dict[str, Any]]:
     Returns
     -------
     list of dict
-        Fresh on every call. Keys: ``name``, ``description``, ``returns``, ``arguments``
-        (a list of dicts with ``name``, ``description``, ``unit``, ``optional``).
+        Fresh on every call. Keys: ``name``, ``description``, ``returns``, ``shape``,
+        ``arguments`` (a list of dicts with ``name``, ``description``, ``unit``, ``block``,
+        ``optional``).
     """
-    functions = globals()
-    return [describe_function(functions[name]) for name in __all__ if name.startswith("TWS_")]
+    return [spec.as_dict() for spec in registry()]

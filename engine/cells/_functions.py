@@ -1,10 +1,11 @@
-"""The worksheet functions: read the cells, call the engine core, give back cell values.
+"""The worksheet functions: read the arguments through the intake, call the core, give back cells.
 
-Nothing is computed here: units go through `twistshare.engine.units`, physics through
-`twistshare.engine.core`; these functions only fit shapes and convert units.
+Nothing is computed here: every argument is read by the intake's rule for its field (the same
+rule a workbook table's column follows), physics is the engine core's, words are the intake's.
+These functions only fit shapes and convert units.
 
-The names are upper case because Excel shows the Python name as the function's name. The
-parameters carry no type hints on purpose: xlwings reads a parameter's hint as the
+The names are upper case because the spreadsheet shows the Python name as the function's name.
+The parameters carry no type hints on purpose: xlwings reads a parameter's hint as the
 converter to apply to the cell value.
 """
 
@@ -18,32 +19,20 @@ from numpy.typing import NDArray
 
 from twistshare.engine.core import (
     AllowableRule,
-    Criterion,
     Duty,
-    PartFlag,
-    Rating,
-    allowable_shear,
-    rate,
+    RadiusPlace,
+    layer_at_radius,
     shear_stress_at,
     torque_from_power,
 )
+from twistshare.engine.intake import field_by_key, governs_text
+from twistshare.engine.intake._allowable_rule import allowable_of
 
-from ._allowable_checks import allowable_refusal
-from ._declare import Argument, cell_function
-from ._layer_block import LayerBlock, read_layers
-from ._materials_block import read_materials
-from ._shapes import per_part, rating_problems, spill_layers, spill_parts, unit_label
-from ._values import (
-    WARNING_SIGN,
-    CellError,
-    is_empty,
-    read_flag,
-    read_layer_number,
-    read_number,
-    read_quantity,
-    read_rule,
-    result_factor,
-)
+from ._arguments import WARNING_SIGN, CellError, is_empty, read_field, read_flag, read_layer_number, read_rule, \
+    result_factor
+from ._blocks import Block, read_block
+from ._registry import Argument, cell_function
+from ._spill import merge, per_part, rate_block, spill_layers, spill_parts, unit_label
 
 __all__ = [
     "TWS_SHARE",
@@ -53,16 +42,19 @@ __all__ = [
     "TWS_STRESS",
     "TWS_STRESS_AT",
     "TWS_TWIST_ANGLE",
-    "TWS_TWIST_RATE",
+    "TWS_TWIST_PER_LENGTH",
     "TWS_MARGIN",
     "TWS_TORQUE_FROM_POWER",
     "TWS_ALLOWABLE",
 ]
 
+_TORQUE, _LENGTH_F = field_by_key("torque"), field_by_key("length")
+_ANGLE_F, _PER_LENGTH_F = field_by_key("twist_limit_angle"), field_by_key("twist_limit_per_length")
+
 _LAYERS = Argument(
     "layers",
-    "Layer block, innermost first: material or G, outer D, inner D, allowable, Kt; "
-    "optional header row with units, e.g. 'Outer diameter [mm]'",
+    "Layer block, innermost first: material or G, outer D, inner D, allowable (optional where the "
+    "material gives one), Kt; optional header row with units, e.g. 'Outer diameter [mm]'",
     block=True,
 )
 _LAYERS_NO_ALLOWABLE = Argument(
@@ -77,13 +69,9 @@ _MATERIALS = Argument(
     "names not found there come from the built-in library",
     block=True,
 )
-_TORQUE_UNITS = "torque: N·m, kN·m, lbf·in, lbf·ft"
-_TORQUE_MAGNITUDE = Argument(
-    "torque", "Applied torque, e.g. '1200 N·m', or a column beside the block; its magnitude "
-    "is rated (a negative torque gives the same margin)", unit=_TORQUE_UNITS)
-_TORQUE_SIGNED = Argument(
-    "torque", "Applied torque, e.g. '1200 N·m', or a column beside the block; the result "
-    "takes its sign (stress and twist are odd in the torque)", unit=_TORQUE_UNITS)
+_TORQUE_ARG = Argument(
+    "torque", "Applied torque, e.g. '1200 N·m', or a column beside the block (zero or more)",
+    unit="torque: N·m, kN·m, lbf·in, lbf·ft")
 _LENGTH = Argument("length", "Length over which the layers twist together, e.g. '850 mm' "
                    "(optional)", unit="length: mm, m, in, ft")
 _TWIST_LIMIT = Argument("twist_limit", "Largest total twist allowed over the length, e.g. "
@@ -97,52 +85,28 @@ def _result(default: str, kind_words: str, examples: str) -> Argument:
                     unit=f"{kind_words}: {examples}")
 
 
-def _block(layers: Any, materials: Any, need_allowable: bool = True) -> LayerBlock:
-    return read_layers(layers, read_materials(materials), need_allowable)
-
-
-def _merge(*problem_lists: list[str | None]) -> list[str | None]:
-    merged = list(problem_lists[0])
-    for problems in problem_lists[1:]:
-        merged = [a if a is not None else b for a, b in zip(merged, problems)]
-    return merged
-
-
-def _duty_and_rating(block: LayerBlock, torque: Any = None, length: Any = None,
-                     twist_limit: Any = None, twist_limit_per_length: Any = None,
-                     torque_required: bool = False, length_required: bool = False
-                     ) -> tuple[Rating, list[str | None]]:
-    """Rate the block's parts with the duty arguments; per-part problems, worded."""
-    n = block.n_parts
-    nan = np.full(n, math.nan)
-    problems: list[list[str | None]] = []
-    values = []
-    for value, kind, where, required in (
-        (torque, "torque", "torque", torque_required),
-        (length, "length", "length", length_required),
-        (twist_limit, "angle", "twist limit", False),
-        (twist_limit_per_length, "angle_per_length", "twist limit per length", False),
+def _duty(block: Block, torque: Any = None, length: Any = None, twist_limit: Any = None,
+          twist_limit_per_length: Any = None, *, torque_required: bool = False,
+          length_required: bool = False) -> tuple[Duty, list[str | None]]:
+    """The duty of every part of the block from the arguments; per-part problems, worded."""
+    values, problems = [], []
+    for value, field, where, required in (
+        (torque, _TORQUE, "torque", torque_required),
+        (length, _LENGTH_F, "length", length_required),
+        (twist_limit, _ANGLE_F, "twist limit", False),
+        (twist_limit_per_length, _PER_LENGTH_F, "twist limit per length", False),
     ):
-        if value is None and not required:
-            values.append(nan)
-            continue
-        got, found = per_part(value, kind, block, where, required)
+        got, found = per_part(None if value is None and not required else value, field, block, where, required)
         values.append(got)
         problems.append(found)
-    rating = rate(block.stack, Duty.from_arrays(*values))
-    extra = _merge(*problems) if problems else None
-    return rating, rating_problems(block, rating, extra)
+    return Duty.from_arrays(*values), merge(*problems)
 
 
-def _torque_sign(rating: Rating) -> NDArray[np.float64]:
-    """-1 for parts whose torque is negative, else +1 (per part).
-
-    The core rates the magnitude and notes the sign (`PartFlag.TORQUE_NEGATIVE`). Stress and
-    twist are odd in T, so the signed results carry the torque's sign; capacities and
-    margins are the same either way and stay as rated.
-    """
-    negative = (np.asarray(rating.part_flags) & int(PartFlag.TORQUE_NEGATIVE)) != 0
-    return np.where(negative, -1.0, 1.0)
+def _rated(layers, materials, need_allowable=True, **duty):
+    block = read_block(layers, materials, need_allowable)
+    duty_arrays, extra = _duty(block, **duty)
+    rating, problems = rate_block(block, duty_arrays, extra)
+    return block, rating, problems
 
 
 def _title(name: str, result_unit: Any, kind: str) -> str:
@@ -151,8 +115,7 @@ def _title(name: str, result_unit: Any, kind: str) -> str:
 
 
 def _values(array: NDArray[np.float64], factor: float) -> list[object]:
-    return [float(v / factor) if not math.isnan(v) else f"{WARNING_SIGN} not computed"
-            for v in array]
+    return [float(v / factor) if not math.isnan(v) else f"{WARNING_SIGN} not computed" for v in array]
 
 
 @cell_function(
@@ -161,6 +124,7 @@ def _values(array: NDArray[np.float64], factor: float) -> list[object]:
     _result("a fraction", "plain number", "'%' for per cent"),
     _MATERIALS,
     returns="one share per layer; fractions of 1 unless result_unit is '%'",
+    shape="one per layer",
 )
 def TWS_SHARE(layers, result_unit=None, materials=None):
     """Share of the torque each layer carries, ``G_i J_i / ΣGJ``.
@@ -168,7 +132,7 @@ def TWS_SHARE(layers, result_unit=None, materials=None):
     Parameters
     ----------
     layers : list of lists
-        The layer block (see `read_layers` for its shapes).
+        The layer block (see `read_block` for its shapes).
     result_unit : str, optional
         ``"%"`` for per cent; default a fraction of 1.
     materials : list of lists, optional
@@ -180,10 +144,8 @@ def TWS_SHARE(layers, result_unit=None, materials=None):
         One share per layer (spills); a ``⚠`` message if it cannot be computed.
     """
     factor = result_factor(result_unit, "dimensionless")
-    block = _block(layers, materials, need_allowable=False)
-    rating, problems = _duty_and_rating(block)
-    return spill_layers(block, rating.share, factor, problems,
-                        _title("share", result_unit, "dimensionless"))
+    block, rating, problems = _rated(layers, materials, need_allowable=False)
+    return spill_layers(block, rating.share, factor, problems, _title("share", result_unit, "dimensionless"))
 
 
 @cell_function(
@@ -193,18 +155,12 @@ def TWS_SHARE(layers, result_unit=None, materials=None):
     _result("N·m", "torque", "N·m, kN·m, lbf·in, lbf·ft"),
     _MATERIALS,
     returns="one capacity per layer, in result_unit",
+    shape="one per layer",
 )
 def TWS_LAYER_CAPACITY(layers, result_unit=None, materials=None):
     """Section torque at which each layer reaches its allowable, ``τa ΣGJ / (G ro Kt)``.
 
-    Parameters
-    ----------
-    layers : list of lists
-        The layer block (see `read_layers` for its shapes).
-    result_unit : str, optional
-        A torque unit; default N·m.
-    materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
+    Parameters are those of `TWS_SHARE`; `result_unit` is a torque unit (default N·m).
 
     Returns
     -------
@@ -212,14 +168,12 @@ def TWS_LAYER_CAPACITY(layers, result_unit=None, materials=None):
         One capacity per layer (spills), or a ``⚠`` message.
     """
     factor = result_factor(result_unit, "torque")
-    block = _block(layers, materials)
-    rating, problems = _duty_and_rating(block)
-    return spill_layers(block, rating.capacity, factor, problems,
-                        _title("capacity", result_unit, "torque"))
+    block, rating, problems = _rated(layers, materials)
+    return spill_layers(block, rating.capacity, factor, problems, _title("capacity", result_unit, "torque"))
 
 
 @cell_function(
-    "Governing limit: the smallest capacity of every layer's stress and the twist limits",
+    "Governing limit: the smallest capacity of every criterion (each layer's stress, the twist limits)",
     _LAYERS,
     _LENGTH,
     _TWIST_LIMIT,
@@ -227,6 +181,7 @@ def TWS_LAYER_CAPACITY(layers, result_unit=None, materials=None):
     _result("N·m", "torque", "N·m, kN·m, lbf·in, lbf·ft"),
     _MATERIALS,
     returns="the governing torque of the part (one per part for a block of several parts)",
+    shape="one per part",
 )
 def TWS_GOVERNING_LIMIT(layers, length=None, twist_limit=None, twist_limit_per_length=None,
                         result_unit=None, materials=None):
@@ -235,14 +190,13 @@ def TWS_GOVERNING_LIMIT(layers, length=None, twist_limit=None, twist_limit_per_l
     Parameters
     ----------
     layers : list of lists
-        The layer block (see `read_layers` for its shapes).
+        The layer block (see `read_block` for its shapes).
     length : str or number with its unit, optional
     twist_limit : str, angle, optional
     twist_limit_per_length : str, angle per length, optional
     result_unit : str, optional
         A torque unit; default N·m.
     materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
 
     Returns
     -------
@@ -250,34 +204,24 @@ def TWS_GOVERNING_LIMIT(layers, length=None, twist_limit=None, twist_limit_per_l
         One value per part, or a ``⚠`` message.
     """
     factor = result_factor(result_unit, "torque")
-    block = _block(layers, materials)
-    rating, problems = _duty_and_rating(block, None, length, twist_limit, twist_limit_per_length)
+    block, rating, problems = _rated(layers, materials, length=length, twist_limit=twist_limit,
+                                     twist_limit_per_length=twist_limit_per_length)
     return spill_parts(block, _values(rating.governing_capacity, factor), problems,
                        _title("governing limit", result_unit, "torque"))
 
 
-def _governs_text(criterion: int, layer: int) -> str:
-    if criterion == Criterion.LAYER_STRESS:
-        return f"layer {layer + 1} stress"
-    if criterion == Criterion.TWIST_ANGLE:
-        return "twist angle"
-    if criterion == Criterion.TWIST_PER_LENGTH:
-        return "twist per length"
-    return f"{WARNING_SIGN} not rated"
-
-
 @cell_function(
-    "What governs: 'layer 2 stress', 'twist angle' or 'twist per length'",
+    "What governs: 'layer 2 stress (material)', 'twist angle limit' or 'twist per length limit'",
     _LAYERS,
     _LENGTH,
     _TWIST_LIMIT,
     _TWIST_PER_LENGTH,
     _MATERIALS,
-    returns="a short text per part",
+    returns="a short text per part, worded as the rated workbook's 'Governs' column",
+    shape="one per part",
 )
-def TWS_GOVERNS(layers, length=None, twist_limit=None, twist_limit_per_length=None,
-                materials=None):
-    """What governs the part: ``"layer 2 stress"``, ``"twist angle"`` or ``"twist per length"``.
+def TWS_GOVERNS(layers, length=None, twist_limit=None, twist_limit_per_length=None, materials=None):
+    """What governs the part, in the words of the results sheet's ``Governs`` column.
 
     Parameters are those of `TWS_GOVERNING_LIMIT` without the result unit.
 
@@ -286,10 +230,12 @@ def TWS_GOVERNS(layers, length=None, twist_limit=None, twist_limit_per_length=No
     str or list of lists
         One text per part.
     """
-    block = _block(layers, materials)
-    rating, problems = _duty_and_rating(block, None, length, twist_limit, twist_limit_per_length)
-    texts = [_governs_text(int(c), int(k))
-             for c, k in zip(rating.governing_criterion, rating.governing_layer)]
+    block, rating, problems = _rated(layers, materials, length=length, twist_limit=twist_limit,
+                                     twist_limit_per_length=twist_limit_per_length)
+    names = block.parts.materials
+    texts = [governs_text(int(c), int(k), names[i][int(k)] if int(k) >= 0 else None)
+             or f"{WARNING_SIGN} not rated"
+             for i, (c, k) in enumerate(zip(rating.governing_criterion, rating.governing_layer))]
     return spill_parts(block, texts, problems, "governs")
 
 
@@ -297,10 +243,11 @@ def TWS_GOVERNS(layers, length=None, twist_limit=None, twist_limit_per_length=No
     "Shear stress in each layer at its outer radius at a torque, nominal (no Kt) "
     "(spills one value per layer)",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE_SIGNED,
+    _TORQUE_ARG,
     _result("MPa", "stress", "MPa, N/mm², psi, ksi"),
     _MATERIALS,
     returns="one stress per layer, in result_unit",
+    shape="one per layer",
 )
 def TWS_STRESS(layers, torque, result_unit=None, materials=None):
     """Nominal shear stress at each layer's outer radius, ``G ro θ'`` (no Kt).
@@ -308,38 +255,32 @@ def TWS_STRESS(layers, torque, result_unit=None, materials=None):
     Parameters
     ----------
     layers : list of lists
-        The layer block (see `read_layers` for its shapes).
     torque : str, torque
-        ``"1200 N·m"``; or a column beside a block of many parts. A negative
-        torque gives negative stresses (τ is odd in T; the core rates |T|).
+        ``"1200 N·m"``; or a column beside a block of many parts.
     result_unit : str, optional
         A stress unit; default MPa.
     materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
 
     Returns
     -------
     list of lists, or str
-        One stress per layer (spills), or a ``⚠`` message.
     """
     factor = result_factor(result_unit, "stress")
-    block = _block(layers, materials, need_allowable=False)
-    rating, problems = _duty_and_rating(block, torque, torque_required=True)
-    stress = rating.stress_outer * _torque_sign(rating)[:, None]
-    return spill_layers(block, stress, factor, problems,
-                        _title("stress", result_unit, "stress"))
+    block, rating, problems = _rated(layers, materials, need_allowable=False, torque=torque, torque_required=True)
+    return spill_layers(block, rating.stress_outer, factor, problems, _title("stress", result_unit, "stress"))
 
 
 @cell_function(
     "Shear stress at a radius at a torque, nominal (no Kt); on an interface give the layer",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE_SIGNED,
+    _TORQUE_ARG,
     Argument("radius", "Radius from the axis, e.g. '20 mm'", unit="length: mm, m, in"),
     Argument("layer", "Layer number (1 = innermost) the radius belongs to; needed only on an "
              "interface, where the stress jumps (optional)"),
     _result("MPa", "stress", "MPa, N/mm², psi, ksi"),
     _MATERIALS,
     returns="the stress at that radius, in result_unit",
+    shape="one per part",
 )
 def TWS_STRESS_AT(layers, torque, radius, layer=None, result_unit=None, materials=None):
     """Nominal shear stress at a radius, ``G r θ'``, in the layer the radius lies in.
@@ -347,186 +288,134 @@ def TWS_STRESS_AT(layers, torque, radius, layer=None, result_unit=None, material
     Parameters
     ----------
     layers : list of lists
-        The layer block (see `read_layers` for its shapes).
     torque : str, torque
-        Signed: a negative torque gives a negative result (the core rates |T|).
     radius : str, length
     layer : int, optional
         1-based layer number; needed only on an interface, where the stress jumps.
     result_unit : str, optional
         A stress unit; default MPa.
     materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
 
     Returns
     -------
     float, list of lists or str
     """
     factor = result_factor(result_unit, "stress")
-    block = _block(layers, materials, need_allowable=False)
-    rating, problems = _duty_and_rating(block, torque, torque_required=True)
-    radii, radius_problems = per_part(radius, "length", block, "radius", required=True)
-    problems = _merge(problems, radius_problems)
-    chosen = read_layer_number(layer, block.stack.n_layers, "layer")
-    stack = block.stack
-    slot, slot_problems = _radius_slots(block, radii, chosen)
-    problems = _merge(problems, slot_problems)
-    parts = np.arange(block.n_parts)
-    modulus = stack.shear_modulus[parts, slot]
-    stress = shear_stress_at(radii, modulus, rating.twist_rate * _torque_sign(rating))
+    block, rating, problems = _rated(layers, materials, need_allowable=False, torque=torque, torque_required=True)
+    radii, radius_problems = per_part(radius, _LENGTH_F, block, "radius", required=True)
+    stack = block.parts
+    chosen = read_layer_number(layer, stack.present.shape[1], "layer")
+    slot, place = layer_at_radius(stack.outer_diameter, stack.inner_diameter, stack.present, radii, chosen)
+    problems = merge(problems, radius_problems, _radius_problems(block, radii, slot, place, chosen))
+    modulus = stack.shear_modulus[np.arange(block.n_parts), slot]
+    stress = shear_stress_at(radii, modulus, rating.twist_per_length)
     return spill_parts(block, _values(np.atleast_1d(stress), factor), problems,
                        _title("stress", result_unit, "stress"))
 
 
-def _radius_slots(block: LayerBlock, radii: NDArray[np.float64], chosen: int | None
-                  ) -> tuple[NDArray[np.intp], list[str | None]]:
-    """The layer each radius lies in, or why there is none (outside, or on an interface)."""
-    stack = block.stack
-    r_in = stack.inner_diameter / 2.0
-    r_out = stack.outer_diameter / 2.0
-    tol = 1e-9 * np.nanmax(np.abs(r_out), axis=1, initial=0.0)[:, None]
-    with np.errstate(invalid="ignore"):
-        inside = stack.present & (r_in - tol <= radii[:, None]) & (radii[:, None] <= r_out + tol)
-    problems: list[str | None] = [None] * block.n_parts
-    slots = np.zeros(block.n_parts, dtype=np.intp)
-    for part in range(block.n_parts):
-        if block.part_problem[part] is not None or math.isnan(radii[part]):
+def _radius_problems(block: Block, radii: NDArray[np.float64], slot: NDArray[np.intp],
+                     place: NDArray[np.int8], chosen: int | None) -> list[str | None]:
+    out: list[str | None] = [None] * block.n_parts
+    for part in np.flatnonzero(place != RadiusPlace.IN_LAYER).tolist():
+        if math.isnan(radii[part]):
             continue
-        found = np.flatnonzero(inside[part])
-        shown = _length_text(radii[part], block.system)
-        prefix = f"radius, {block.part_labels[part]}" if block.multi_part else "radius"
-        if chosen is not None:
-            if chosen not in found:
-                problems[part] = (f"{prefix}: {shown} is not in layer {chosen + 1}")
-            slots[part] = chosen
-        elif found.size == 0:
-            problems[part] = f"{prefix}: {shown} is outside the section"
-        elif found.size > 1:
-            problems[part] = (
-                f"{prefix}: {shown} is on the interface of layers {found[0] + 1} and "
-                f"{found[-1] + 1}, where the stress jumps; give the layer"
-            )
+        shown = f"{radii[part] / 0.0254:g} in" if block.system == "US" else f"{radii[part] / 1e-3:g} mm"
+        label = block.part_label(part)
+        prefix = f"radius, {label}" if label else "radius"
+        if place[part] == RadiusPlace.NOT_IN_LAYER:
+            out[part] = f"{prefix}: {shown} is not in layer {chosen + 1}"
+        elif place[part] == RadiusPlace.OUTSIDE:
+            out[part] = f"{prefix}: {shown} is outside the section"
         else:
-            slots[part] = found[0]
-    return slots, problems
-
-
-def _length_text(value: float, system: str) -> str:
-    return f"{value / 0.0254:g} in" if system == "US" else f"{value / 1e-3:g} mm"
+            out[part] = (f"{prefix}: {shown} is on the interface of layers {slot[part] + 1} and "
+                         f"{slot[part] + 2}, where the stress jumps; give the layer")
+    return out
 
 
 @cell_function(
     "Twist angle over the length at a torque, phi = T·L / ΣGJ",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE_SIGNED,
+    _TORQUE_ARG,
     Argument("length", "Length over which the layers twist together, e.g. '850 mm'",
              unit="length: mm, m, in, ft"),
     _result("°", "angle", "°, deg, rad"),
     _MATERIALS,
     returns="the twist angle, in result_unit",
+    shape="one per part",
 )
 def TWS_TWIST_ANGLE(layers, torque, length, result_unit=None, materials=None):
     """Twist angle over the length, ``φ = T L / ΣGJ``.
-
-    Parameters
-    ----------
-    layers : list of lists
-        The layer block (see `read_layers` for its shapes).
-    torque : str, torque
-        Signed: a negative torque gives a negative result (the core rates |T|).
-    length : str, length
-    result_unit : str, optional
-        An angle unit; default °.
-    materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
 
     Returns
     -------
     float, list of lists or str
     """
     factor = result_factor(result_unit, "angle")
-    block = _block(layers, materials, need_allowable=False)
-    rating, problems = _duty_and_rating(block, torque, length, torque_required=True,
-                                        length_required=True)
-    return spill_parts(block, _values(rating.twist_angle * _torque_sign(rating), factor),
-                       problems,
+    block, rating, problems = _rated(layers, materials, need_allowable=False, torque=torque, length=length,
+                                     torque_required=True, length_required=True)
+    return spill_parts(block, _values(rating.twist_angle, factor), problems,
                        _title("twist angle", result_unit, "angle"))
 
 
 @cell_function(
     "Twist per length at a torque, common to every layer: theta' = T / ΣGJ",
     _LAYERS_NO_ALLOWABLE,
-    _TORQUE_SIGNED,
+    _TORQUE_ARG,
     _result("°/m", "angle per length", "°/m, rad/m, °/ft"),
     _MATERIALS,
-    returns="the twist rate, in result_unit",
+    returns="the twist per length, in result_unit",
+    shape="one per part",
 )
-def TWS_TWIST_RATE(layers, torque, result_unit=None, materials=None):
+def TWS_TWIST_PER_LENGTH(layers, torque, result_unit=None, materials=None):
     """Twist per length common to every layer, ``θ' = T / ΣGJ``.
-
-    Parameters
-    ----------
-    layers : list of lists
-        The layer block (see `read_layers` for its shapes).
-    torque : str, torque
-        Signed: a negative torque gives a negative result (the core rates |T|).
-    result_unit : str, optional
-        An angle-per-length unit; default °/m.
-    materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
 
     Returns
     -------
     float, list of lists or str
     """
     factor = result_factor(result_unit, "angle_per_length")
-    block = _block(layers, materials, need_allowable=False)
-    rating, problems = _duty_and_rating(block, torque, torque_required=True)
-    return spill_parts(block, _values(rating.twist_rate * _torque_sign(rating), factor),
-                       problems,
-                       _title("twist rate", result_unit, "angle_per_length"))
+    block, rating, problems = _rated(layers, materials, need_allowable=False, torque=torque, torque_required=True)
+    return spill_parts(block, _values(rating.twist_per_length, factor), problems,
+                       _title("twist per length", result_unit, "angle_per_length"))
 
 
 @cell_function(
-    "Margin left at a torque: governing limit / |torque| - 1",
+    "Margin left at a torque, in per cent as the rated workbook shows it: governing limit / torque - 1",
     _LAYERS,
-    _TORQUE_MAGNITUDE,
+    _TORQUE_ARG,
     _LENGTH,
     _TWIST_LIMIT,
     _TWIST_PER_LENGTH,
-    _result("a fraction", "plain number", "'%' for per cent"),
+    _result("%", "plain number", "'%', or '1' for a fraction"),
     _MATERIALS,
-    returns="the margin per part; negative when the torque exceeds the governing limit",
+    returns="the margin per part, in per cent; negative when the torque exceeds the governing limit",
+    shape="one per part",
 )
 def TWS_MARGIN(layers, torque, length=None, twist_limit=None, twist_limit_per_length=None,
                result_unit=None, materials=None):
-    """Margin at a torque, ``governing limit / |T| - 1``.
+    """Margin at a torque, ``governing limit / T - 1``, in per cent unless asked otherwise.
 
     Parameters
     ----------
     layers : list of lists
-        The layer block (see `read_layers` for its shapes).
     torque : str, torque
-        Its magnitude is rated: a negative torque gives the same margin.
     length, twist_limit, twist_limit_per_length : str, optional
         As for `TWS_GOVERNING_LIMIT`.
     result_unit : str, optional
-        ``"%"`` for per cent; default a fraction.
+        ``"%"`` (the default, as the results sheet's ``Margin [%]``) or ``"1"`` for a fraction.
     materials : list of lists, optional
-        A materials block with a header row; the built-in library is searched after it.
 
     Returns
     -------
     float, list of lists or str
     """
-    factor = result_factor(result_unit, "dimensionless")
-    block = _block(layers, materials)
-    rating, problems = _duty_and_rating(block, torque, length, twist_limit,
-                                        twist_limit_per_length, torque_required=True)
+    factor = result_factor("%" if is_empty(result_unit) else result_unit, "dimensionless")
+    block, rating, problems = _rated(layers, materials, torque=torque, length=length, twist_limit=twist_limit,
+                                     twist_limit_per_length=twist_limit_per_length, torque_required=True)
     values = [f"{WARNING_SIGN} torque is zero: no margin to state"
               if isinstance(m, float) and math.isinf(m) else m
               for m in _values(rating.margin, factor)]
-    return spill_parts(block, values, problems, _title("margin", result_unit, "dimensionless"))
+    return spill_parts(block, values, problems, _title("margin", result_unit or "%", "dimensionless"))
 
 
 @cell_function(
@@ -536,6 +425,7 @@ def TWS_MARGIN(layers, torque, length=None, twist_limit=None, twist_limit_per_le
     Argument("service_factor", "Service factor on the demand (optional, default 1)"),
     _result("N·m", "torque", "N·m, kN·m, lbf·in, lbf·ft"),
     returns="the torque, in result_unit",
+    shape="one value",
 )
 def TWS_TORQUE_FROM_POWER(power, speed, service_factor=None, result_unit=None):
     """Torque from power and speed, ``T = SF P / ω``.
@@ -556,15 +446,11 @@ def TWS_TORQUE_FROM_POWER(power, speed, service_factor=None, result_unit=None):
     float or str
     """
     factor = result_factor(result_unit, "torque")
-    watts = read_quantity(power, "power", "power")
-    omega = read_quantity(speed, "speed", "speed")
-    service = read_number(service_factor, "service factor", default=1.0)
-    if not omega > 0:
-        raise CellError("speed", "must be greater than zero")
-    if not service > 0:
-        raise CellError("service factor", "must be greater than zero")
-    torque = float(torque_from_power(watts, omega, service))
-    return torque / factor
+    watts = read_field(power, field_by_key("power"), "power")
+    omega = read_field(speed, field_by_key("speed"), "speed")
+    service = 1.0 if is_empty(service_factor) else read_field(service_factor, field_by_key("service_factor"),
+                                                                "service factor")
+    return float(torque_from_power(watts, omega, service)) / factor
 
 
 @cell_function(
@@ -581,10 +467,11 @@ def TWS_TORQUE_FROM_POWER(power, speed, service_factor=None, result_unit=None):
     Argument("keyway", "TRUE or yes where a keyway is cut (shafting code only)"),
     _result("MPa", "stress", "MPa, N/mm², psi, ksi"),
     returns="the allowable shear stress, in result_unit",
+    shape="one value",
 )
 def TWS_ALLOWABLE(rule, yield_strength, ultimate_strength=None, factor_of_safety=None,
                   keyway=None, result_unit=None):
-    """Allowable shear stress from strength by rule.
+    """Allowable shear stress from strength by rule, decided as a materials table's row is.
 
     Parameters
     ----------
@@ -595,9 +482,8 @@ def TWS_ALLOWABLE(rule, yield_strength, ultimate_strength=None, factor_of_safety
     ultimate_strength : str, stress, optional
         Needed by the shafting code rule; refused below the yield strength (check both).
     factor_of_safety : number, 1, optional
-        Needed by the two theories, at least 1 (below 1 the allowable would exceed the
-        shear yield strength); refused with the shafting code rule, which embeds its own
-        allowance (it would be ignored).
+        Needed by the two theories, at least 1; refused with the shafting code rule, which
+        embeds its own allowance (it would be ignored).
     keyway : bool or yes/no, optional
         Shafting code rule only; refused with the theories (use Kt there).
     result_unit : str, optional
@@ -611,20 +497,16 @@ def TWS_ALLOWABLE(rule, yield_strength, ultimate_strength=None, factor_of_safety
     chosen = read_rule(rule, "rule")
     if chosen == AllowableRule.GIVEN:
         raise CellError("rule", "'given' means the allowable is typed directly; nothing to compute")
-    sy = read_quantity(yield_strength, "stress", "yield strength")
-    su = math.nan if is_empty(ultimate_strength) else read_quantity(
-        ultimate_strength, "stress", "ultimate strength")
-    has_keyway = read_flag(keyway, "keyway")
-    fs_typed = not is_empty(factor_of_safety)
-    if chosen != AllowableRule.SHAFTING_CODE and not has_keyway and not fs_typed:
-        raise CellError("factor of safety", "cell is empty; expected a plain number "
-                        "(give 1 for the shear yield strength itself)")
-    fs = read_number(factor_of_safety, "factor of safety") if fs_typed else math.nan
-    # Notes as well as errors refuse: a cell cannot show a number and a warning together.
-    refusal = allowable_refusal(chosen, sy, su, fs, has_keyway, factor_typed=fs_typed)
-    if refusal is not None:
-        raise CellError("", refusal)
-    allowable = float(allowable_shear(int(chosen), sy, su, fs, has_keyway))
-    if not math.isfinite(allowable):
-        raise CellError("", "could not be computed")
-    return allowable / factor
+    sy = read_field(yield_strength, field_by_key("yield_strength"), "yield strength")
+    su = math.nan if is_empty(ultimate_strength) else read_field(
+        ultimate_strength, field_by_key("ultimate_strength"), "ultimate strength")
+    fs = math.nan if is_empty(factor_of_safety) else read_field(
+        factor_of_safety, field_by_key("factor_of_safety"), "factor of safety")
+    decision = allowable_of(None, chosen, math.nan, sy, su, fs, read_flag(keyway, "keyway"))
+    # Notes as well as a missing input refuse: a cell cannot show a number and a warning together.
+    if decision.missing is not None:
+        raise CellError("", decision.missing)
+    doubts = [note for note in decision.notes if not note.assumed]
+    if doubts:
+        raise CellError("", doubts[0].message)
+    return decision.allowable / factor

@@ -29,7 +29,7 @@ from ._compatibility import (
     shear_stress_at,
     stress_profile,
     torque_share,
-    twist_rate,
+    twist_per_length,
 )
 from ._criteria import AllowableRule, Criterion
 from ._demand import torque_from_power
@@ -45,7 +45,8 @@ from ._diagnoses import (
     is_error,
     split_flags,
 )
-from ._governing import factor_of_safety, governing_limit, margin
+from ._criteria_list import CRITERIA, CriterionCheck, Section, governing_of
+from ._governing import governing_limit, margin, reserve_factor
 from ._materials import (
     Material,
     complete_from_library,
@@ -54,6 +55,7 @@ from ._materials import (
     material_library,
     normalise_name,
 )
+from ._radius import RadiusPlace, layer_at_radius
 from ._rating import Duty, Rating, rate
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
@@ -87,17 +89,23 @@ __all__ = [
     "DEFAULT_CONTACT_REL_TOL",
     # twist compatibility
     "layer_stiffness",
-    "twist_rate",
+    "twist_per_length",
     "torque_share",
     "shear_stress_at",
     "stress_profile",
+    "layer_at_radius",
+    "RadiusPlace",
     # capacities and the governing limit
     "layer_capacity",
     "twist_angle_capacity",
     "twist_per_length_capacity",
     "governing_limit",
     "margin",
-    "factor_of_safety",
+    "reserve_factor",
+    "governing_of",
+    "CRITERIA",
+    "CriterionCheck",
+    "Section",
     # allowables and demand
     "allowable_shear",
     "allowable_flags",

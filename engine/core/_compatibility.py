@@ -1,4 +1,4 @@
-"""Twist compatibility: fully connected layers share one twist rate; torque divides by G*J."""
+"""Twist compatibility: fully connected layers share one twist per length; torque divides by G*J."""
 
 from __future__ import annotations
 
@@ -12,7 +12,7 @@ from ._section import polar_moment
 
 __all__ = [
     "layer_stiffness",
-    "twist_rate",
+    "twist_per_length",
     "torque_share",
     "shear_stress_at",
     "stress_profile",
@@ -37,8 +37,8 @@ def layer_stiffness(
     return scalar_out(as_float(shear_modulus) * polar_moment(outer_diameter, inner_diameter))
 
 
-def twist_rate(torque: ArrayLike, sum_stiffness: ArrayLike) -> Any:
-    """Twist rate common to all layers, ``theta' = T / sum(G*J)``.
+def twist_per_length(torque: ArrayLike, sum_stiffness: ArrayLike) -> Any:
+    """Twist per length common to all layers, ``theta' = T / sum(G*J)``.
 
     Parameters
     ----------
@@ -70,7 +70,7 @@ def torque_share(stiffness: ArrayLike) -> NDArray[np.float64]:
         return gj / gj.sum(axis=-1, keepdims=True)
 
 
-def shear_stress_at(radius: ArrayLike, shear_modulus: ArrayLike, twist_rate: ArrayLike) -> Any:
+def shear_stress_at(radius: ArrayLike, shear_modulus: ArrayLike, twist_per_length: ArrayLike) -> Any:
     """Elastic shear stress at a radius, ``tau = G * r * theta'``.
 
     This is the nominal stress; a stress-concentration factor is applied in the
@@ -81,20 +81,20 @@ def shear_stress_at(radius: ArrayLike, shear_modulus: ArrayLike, twist_rate: Arr
     radius : array_like, m
     shear_modulus : array_like, Pa
         Of the layer the radius lies in.
-    twist_rate : array_like, rad/m
+    twist_per_length : array_like, rad/m
 
     Returns
     -------
     ndarray or scalar, Pa
     """
-    return scalar_out(as_float(shear_modulus) * as_float(radius) * as_float(twist_rate))
+    return scalar_out(as_float(shear_modulus) * as_float(radius) * as_float(twist_per_length))
 
 
 def stress_profile(
     outer_diameter: ArrayLike,
     inner_diameter: ArrayLike,
     shear_modulus: ArrayLike,
-    twist_rate: float,
+    twist_per_length: float,
     points_per_layer: int = 2,
     present: ArrayLike | None = None,
 ) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
@@ -109,7 +109,7 @@ def stress_profile(
     outer_diameter : (L,) array_like, m
     inner_diameter : (L,) array_like, m
     shear_modulus : (L,) array_like, Pa
-    twist_rate : float, rad/m
+    twist_per_length : float, rad/m
     points_per_layer : int
         At least 2 (both faces of the layer).
     present : (L,) array_like of bool, optional
@@ -139,5 +139,5 @@ def stress_profile(
     r_in = inner[keep, np.newaxis] / 2.0
     r_out = outer[keep, np.newaxis] / 2.0
     radius = r_in + (r_out - r_in) * fraction
-    stress = modulus[keep, np.newaxis] * radius * float(twist_rate)
+    stress = modulus[keep, np.newaxis] * radius * float(twist_per_length)
     return radius.ravel(), stress.ravel()

@@ -1,4 +1,4 @@
-"""Governing limit: the smallest capacity of all criteria, what it is, and the margin left."""
+"""Governing limit of the three torsion criteria, the margin left and the reserve factor."""
 
 from __future__ import annotations
 
@@ -9,8 +9,9 @@ from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_float, scalar_out
 from ._criteria import Criterion
+from ._criteria_list import governing_of
 
-__all__ = ["governing_limit", "margin", "factor_of_safety"]
+__all__ = ["governing_limit", "margin", "reserve_factor"]
 
 
 def governing_limit(
@@ -42,43 +43,18 @@ def governing_limit(
         Governing layer slot, -1 where a twist limit (or nothing) governs.
     """
     layers = as_float(layer_capacities)
-    angle = as_float(twist_angle_capacity)
-    per_length = as_float(twist_per_length_capacity)
-    n_parts, n_layers = layers.shape
-    # Few layer slots, many parts: a loop over slots beats argmin along a short axis.
-    capacity = np.full(n_parts, np.nan)
-    layer = np.full(n_parts, -1, dtype=np.int16)
-    with np.errstate(invalid="ignore"):
-        for slot in range(n_layers):
-            column = layers[:, slot]
-            # Strict '<' keeps the innermost slot on a tie; NaN (absent) never wins.
-            wins = column < capacity
-            wins |= np.isnan(capacity) & ~np.isnan(column)
-            np.copyto(capacity, column, where=wins)
-            np.copyto(layer, slot, where=wins)
-        criterion = np.where(
-            layer >= 0, np.int8(Criterion.LAYER_STRESS), np.int8(Criterion.NONE)
-        ).astype(np.int8)
-        for limit, code in (
-            (angle, Criterion.TWIST_ANGLE),
-            (per_length, Criterion.TWIST_PER_LENGTH),
-        ):
-            # A twist limit must be strictly smaller to take over (ties: lowest criterion).
-            wins = limit < capacity
-            wins |= np.isnan(capacity) & (limit < np.inf)
-            np.copyto(capacity, limit, where=wins)
-            np.copyto(criterion, int(code), where=wins)
-            np.copyto(layer, -1, where=wins)
-        none = ~(capacity < np.inf)
-        if none.any():
-            capacity[none] = np.nan
-            criterion[none] = int(Criterion.NONE)
-            layer[none] = -1
-    return capacity, criterion, layer
+    return governing_of(
+        ((Criterion.LAYER_STRESS, layers),
+         (Criterion.TWIST_ANGLE, as_float(twist_angle_capacity)),
+         (Criterion.TWIST_PER_LENGTH, as_float(twist_per_length_capacity))),
+        layers.shape[0],
+    )
 
 
-def factor_of_safety(capacity: ArrayLike, torque: ArrayLike) -> Any:
-    """Capacity over demand, ``cap / |T|``; infinite at zero torque.
+def reserve_factor(capacity: ArrayLike, torque: ArrayLike) -> Any:
+    """The reserve factor: capacity over demand, ``cap / |T|``; infinite at zero torque.
+
+    Not a factor of safety: that name is kept for the material input inside an allowable.
 
     Parameters
     ----------
@@ -105,4 +81,4 @@ def margin(capacity: ArrayLike, torque: ArrayLike) -> Any:
     -------
     ndarray or scalar, 1
     """
-    return scalar_out(np.asarray(factor_of_safety(capacity, torque)) - 1.0)
+    return scalar_out(np.asarray(reserve_factor(capacity, torque)) - 1.0)

@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass, fields
+from collections.abc import Mapping
+from dataclasses import dataclass, field, fields
+from types import MappingProxyType
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -10,7 +12,7 @@ from numpy.typing import ArrayLike, NDArray
 from ._arrays import as_float, frozen_view
 from ._criteria import Criterion
 from ._diagnoses import LAYER_ERRORS, PART_ERRORS, LayerFlag, PartFlag
-from ._governing import governing_limit
+from ._criteria_list import CRITERIA, Section, governing_of
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -143,7 +145,8 @@ class Rating:
     allowable_rule : (P, L) ndarray of int8
         The :class:`AllowableRule` each layer's allowable came from.
     sum_gj : (P,) ndarray, N*m^2
-    twist_rate : (P,) ndarray, rad/m
+    twist_per_length : (P,) ndarray, rad/m
+        The twist per length common to every layer, ``|T| / sum(G J)``.
     twist_angle : (P,) ndarray, rad
         NaN if no length is given.
     twist_capacity : (P,) ndarray, N*m
@@ -156,12 +159,14 @@ class Rating:
         Layer slot that governs; -1 if a twist limit governs or the part is unrated.
     margin : (P,) ndarray, 1
         ``governing_capacity / |T| - 1``; inf at zero torque, NaN with no torque.
-    factor_of_safety : (P,) ndarray, 1
-        ``governing_capacity / |T|``.
+    reserve_factor : (P,) ndarray, 1
+        ``governing_capacity / |T|`` (limit over demand; not a material's factor of safety).
     part_flags : (P,) ndarray of int32
         :class:`PartFlag` bits.
     valid : (P,) ndarray of bool
         The part was rated (no error flag).
+    criterion_capacity : mapping of Criterion to ndarray, N*m
+        Every criterion's capacity, ``(P,)`` or ``(P, L)``, as `CRITERIA` lists them.
     """
 
     gj: NDArray[np.float64]
@@ -175,20 +180,25 @@ class Rating:
     interface_gap: NDArray[np.float64]
     allowable_rule: NDArray[np.int8]
     sum_gj: NDArray[np.float64]
-    twist_rate: NDArray[np.float64]
+    twist_per_length: NDArray[np.float64]
     twist_angle: NDArray[np.float64]
     twist_capacity: NDArray[np.float64]
     governing_capacity: NDArray[np.float64]
     governing_criterion: NDArray[np.int8]
     governing_layer: NDArray[np.int16]
     margin: NDArray[np.float64]
-    factor_of_safety: NDArray[np.float64]
+    reserve_factor: NDArray[np.float64]
     part_flags: NDArray[np.int32]
     valid: NDArray[np.bool_]
+    criterion_capacity: Mapping[Criterion, NDArray[np.float64]] = field(default_factory=dict)
 
     def __post_init__(self) -> None:
         for item in fields(self):
+            if item.name == "criterion_capacity":
+                continue
             object.__setattr__(self, item.name, frozen_view(np.asarray(getattr(self, item.name))))
+        object.__setattr__(self, "criterion_capacity", MappingProxyType(
+            {Criterion(k): frozen_view(np.asarray(v)) for k, v in self.criterion_capacity.items()}))
 
     @property
     def n_parts(self) -> int:
@@ -198,7 +208,10 @@ class Rating:
     def take(self, rows: int | slice | ArrayLike) -> Rating:
         """A new rating holding only the given parts (an int keeps one part)."""
         index = _rows(rows)
-        return Rating(**{f.name: getattr(self, f.name)[index] for f in fields(self)})
+        values = {f.name: getattr(self, f.name) for f in fields(self)}
+        values = {k: ({c: a[index] for c, a in v.items()} if k == "criterion_capacity" else v[index])
+                  for k, v in values.items()}
+        return Rating(**values)
 
 
 def _flag(words: NDArray[np.int32], condition: NDArray[np.bool_], flag: int) -> None:
@@ -410,30 +423,24 @@ def rate(
 
         half_theta = (0.5 * theta)[:, np.newaxis]
         stress_outer = np.multiply(modulus, do)
-        capacity = np.multiply(stress_outer, stack.stress_concentration)
         stress_outer *= half_theta
         np.multiply(modulus, di, out=stress_inner)
         stress_inner *= half_theta
-
-        np.divide(stack.allowable_shear, capacity, out=capacity)
-        capacity *= (2.0 * sum_gj)[:, np.newaxis]
         if mask_needed:
-            for array in (stress_outer, stress_inner, capacity):
+            for array in (stress_outer, stress_inner):
                 np.copyto(array, nan, where=unused)
+
+        section = Section(stack, duty, gj, sum_gj, unused)
+        capacities = {check.criterion: check.capacity(section) for check in CRITERIA}
+        for code, values in capacities.items():
+            if invalid is not None and values.ndim == 1:
+                values[invalid] = nan
+        capacity = capacities[Criterion.LAYER_STRESS]
         utilisation = torque[:, np.newaxis] / capacity
+        twist_angle = theta * duty.length
+        twist_capacity = np.minimum(capacities[Criterion.TWIST_ANGLE], capacities[Criterion.TWIST_PER_LENGTH])
 
-        length = duty.length
-        twist_angle = theta * length
-        angle_capacity = np.multiply(duty.twist_limit_angle, sum_gj)
-        angle_capacity /= length
-        np.copyto(angle_capacity, np.inf, where=np.isnan(duty.twist_limit_angle))
-        rate_capacity = duty.twist_limit_per_length * sum_gj
-        np.copyto(rate_capacity, np.inf, where=np.isnan(duty.twist_limit_per_length))
-        twist_capacity = np.minimum(angle_capacity, rate_capacity)
-        if invalid is not None:
-            twist_capacity[invalid] = nan
-
-        governing, criterion, layer = governing_limit(capacity, angle_capacity, rate_capacity)
+        governing, criterion, layer = governing_of(tuple(capacities.items()), n_parts)
         if invalid is not None:
             governing[invalid] = nan
             criterion[invalid] = int(Criterion.NONE)
@@ -453,14 +460,15 @@ def rate(
         interface_gap=gap,
         allowable_rule=stack.allowable_rule,
         sum_gj=sum_gj,
-        twist_rate=theta,
+        twist_per_length=theta,
         twist_angle=twist_angle,
         twist_capacity=twist_capacity,
         governing_capacity=governing,
         governing_criterion=criterion,
         governing_layer=layer,
         margin=margin,
-        factor_of_safety=factor,
+        reserve_factor=factor,
         part_flags=part_flags,
         valid=valid,
+        criterion_capacity=capacities,
     )

@@ -68,7 +68,7 @@ def test_twist_per_length_capacity_and_rule_of_thumb():
     assert cap == pytest.approx(849.3, abs=0.1)
     stack = LayerStack.from_layers([diameter], [0.0], [79.3e9], [1e12])  # stress never governs
     r = rate(stack, Duty.from_arrays(torque=cap, length=3.0, twist_limit_per_length=limit))
-    assert float(r.twist_rate[0]) == pytest.approx(limit, rel=1e-12)
+    assert float(r.twist_per_length[0]) == pytest.approx(limit, rel=1e-12)
     assert float(r.margin[0]) == pytest.approx(0.0, abs=1e-12)
     assert int(r.governing_criterion[0]) == int(Criterion.TWIST_PER_LENGTH)
 

@@ -22,9 +22,10 @@ import pytest
 import xlwings
 
 import twistshare.engine.cells as cells
+import twistshare.engine.cells.hosts.xlwings_udfs as udf_host
 
-FUNCTIONS_FILE = Path(cells.__file__).with_name("_functions.py")
-UDF_MODULE = "twistshare.engine.cells"
+HOST_FILE = Path(udf_host.__file__)
+UDF_MODULE = "twistshare.engine.cells.hosts.xlwings_udfs"
 
 
 @pytest.fixture
@@ -44,10 +45,9 @@ def windows_udfs(monkeypatch):
     monkeypatch.setattr(xlwings, "func", udfs.xlfunc, raising=False)
     monkeypatch.setattr(xlwings, "arg", udfs.xlarg, raising=False)
     monkeypatch.setattr(xlwings, "ret", udfs.xlret, raising=False)
-    spec = importlib.util.spec_from_file_location(f"{UDF_MODULE}._functions_windows",
-                                                  FUNCTIONS_FILE)
+    spec = importlib.util.spec_from_file_location(f"{UDF_MODULE}_windows", HOST_FILE)
     module = importlib.util.module_from_spec(spec)
-    module.__package__ = UDF_MODULE
+    module.__package__ = "twistshare.engine.cells.hosts"
     spec.loader.exec_module(module)
     try:
         yield udfs, module
@@ -74,8 +74,9 @@ def test_every_function_has_a_vba_wrapper_with_its_arguments(windows_udfs):
     udfs, module = windows_udfs
     vba = _generated_vba(udfs, module)
     declared = dict(re.findall(r"^Function (TWS_\w+)\(([^)]*)\)", vba, re.MULTILINE))
-    assert sorted(declared) == sorted(module.__all__)
-    for name in module.__all__:
+    names = [spec.name for spec in cells.registry()]
+    assert sorted(declared) == sorted(names)
+    for name in names:
         parameters = inspect.signature(getattr(module, name)).parameters
         expected = ", ".join(
             ("Optional " if p.default is not inspect.Parameter.empty else "") + p.name
@@ -88,7 +89,7 @@ def test_every_function_has_a_vba_wrapper_with_its_arguments(windows_udfs):
 def test_xlwings_records_descriptions_and_options(windows_udfs):
     _, module = windows_udfs
     listed = {f["name"]: f for f in cells.list_functions()}
-    for name in module.__all__:
+    for name in listed:
         info = getattr(module, name).__xlfunc__
         assert info["category"] == "twistshare"
         assert info["ret"]["doc"] == listed[name]["description"]
@@ -105,3 +106,19 @@ def test_windows_copy_computes_like_the_installed_one(windows_udfs):
     _, module = windows_udfs
     block = [["G [GPa]", "OD [mm]", "ID [mm]", "Allowable [MPa]"], [79.3, 40, 0, 100]]
     assert module.TWS_GOVERNING_LIMIT(block) == cells.TWS_GOVERNING_LIMIT(block)
+
+
+@pytest.mark.parametrize(
+    "code, error", [(-2146826246, "#N/A"), (-2146826273, "#VALUE!"), (-2146826281, "#DIV/0!")]
+)
+def test_com_error_codes_reach_the_function_as_their_text(code, error):
+    # The integer codes the Excel COM interface uses for error cells (xlwings' own table).
+    assert udf_host.com_error_text(code) == error
+    shown = udf_host.TWS_TORQUE_FROM_POWER(code, "1450 rpm")
+    assert shown == f"⚠ power: the cell holds the error value {error}; expected a power"
+
+
+def test_host_offers_every_registered_function_under_its_name():
+    for spec in cells.registry():
+        hosted = getattr(udf_host, spec.name)
+        assert inspect.signature(hosted) == inspect.signature(spec.function)

@@ -1,4 +1,4 @@
-"""Twist compatibility: stiffness, twist rate, torque shares, stresses and the stress profile."""
+"""Twist compatibility: stiffness, twist per length, torque shares, stresses and the stress profile."""
 
 import math
 
@@ -14,7 +14,7 @@ from twistshare.engine.core import (
     shear_stress_at,
     stress_profile,
     torque_share,
-    twist_rate,
+    twist_per_length,
 )
 
 DIAMETERS = [0.012, 0.06, 0.25]
@@ -102,8 +102,8 @@ class TestPointFunctions:
         assert shear_stress_at(0.02, 79.3e9, 0.01) == pytest.approx(15.86e6, rel=1e-12)
 
     def test_twist_rate_and_zero_stiffness(self):
-        assert twist_rate(100.0, 50.0) == pytest.approx(2.0)
-        assert np.isinf(twist_rate(100.0, 0.0))
+        assert twist_per_length(100.0, 50.0) == pytest.approx(2.0)
+        assert np.isinf(twist_per_length(100.0, 0.0))
 
 
 class TestStressProfile:
@@ -140,7 +140,7 @@ class TestNumericalIntegration:
         moduli = [79.3e9, 41.4e9, 26.9e9]
         stack = LayerStack.from_layers(outer, inner, moduli, [1e8] * 3)
         rating = rate(stack, Duty.from_arrays(torque=torque))
-        radius, stress = stress_profile(outer, inner, moduli, rating.twist_rate[0], 20_001)
+        radius, stress = stress_profile(outer, inner, moduli, rating.twist_per_length[0], 20_001)
         for slot in range(3):
             r = radius[slot * 20_001:(slot + 1) * 20_001]
             tau = stress[slot * 20_001:(slot + 1) * 20_001]

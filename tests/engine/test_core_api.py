@@ -40,9 +40,9 @@ def test_rate_signature():
 def test_rating_fields_match_contract():
     names = [f for f in core.Rating.__dataclass_fields__]
     for name in ("gj", "share", "layer_torque", "stress_outer", "stress_inner", "capacity",
-                 "utilisation", "layer_flags", "interface_gap", "sum_gj", "twist_rate",
+                 "utilisation", "layer_flags", "interface_gap", "sum_gj", "twist_per_length",
                  "twist_angle", "twist_capacity", "governing_capacity", "governing_criterion",
-                 "governing_layer", "margin", "factor_of_safety", "part_flags", "valid"):
+                 "governing_layer", "margin", "reserve_factor", "part_flags", "valid", "criterion_capacity"):
         assert name in names
 
 

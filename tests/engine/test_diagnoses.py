@@ -48,8 +48,8 @@ def _assert_not_rated(rating, row=0):
     assert rating.part_flags[row] & PartFlag.LAYER_ERROR or rating.part_flags[row] & int(PART_ERRORS)
     for name in ("gj", "share", "layer_torque", "stress_outer", "stress_inner", "capacity", "utilisation"):
         assert np.isnan(getattr(rating, name)[row]).all(), name
-    for name in ("sum_gj", "twist_rate", "twist_angle", "twist_capacity", "governing_capacity",
-                 "margin", "factor_of_safety"):
+    for name in ("sum_gj", "twist_per_length", "twist_angle", "twist_capacity", "governing_capacity",
+                 "margin", "reserve_factor"):
         assert np.isnan(getattr(rating, name)[row]), name
     assert rating.governing_criterion[row] == Criterion.NONE
     assert rating.governing_layer[row] == -1

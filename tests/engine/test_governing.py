@@ -3,7 +3,7 @@
 import numpy as np
 import pytest
 
-from twistshare.engine.core import Criterion, factor_of_safety, governing_limit, margin
+from twistshare.engine.core import Criterion, governing_limit, margin, reserve_factor
 
 INF = np.inf
 NAN = np.nan
@@ -49,9 +49,9 @@ def test_nothing_to_govern_is_none():
     ("capacity", "torque", "fos", "expected_margin"),
     [(200.0, 100.0, 2.0, 1.0), (200.0, -100.0, 2.0, 1.0), (50.0, 100.0, 0.5, -0.5), (10.0, 0.0, INF, INF)],
 )
-def test_margin_and_factor_of_safety(capacity, torque, fos, expected_margin):
+def test_margin_and_reserve_factor(capacity, torque, fos, expected_margin):
     """margin = cap / |T| - 1 and factor of safety = cap / |T| (issue 2 definition)."""
-    assert factor_of_safety(capacity, torque) == fos
+    assert reserve_factor(capacity, torque) == fos
     assert margin(capacity, torque) == expected_margin
 
 

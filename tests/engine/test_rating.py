@@ -32,7 +32,7 @@ class TestWorkedSleevedShaft:
         gj = self.G_STEEL * j_core + self.G_BRONZE * j_sleeve
         theta = 1000.0 / gj
         assert rating.sum_gj[0] == pytest.approx(gj, rel=1e-12)
-        assert rating.twist_rate[0] == pytest.approx(theta, rel=1e-12)
+        assert rating.twist_per_length[0] == pytest.approx(theta, rel=1e-12)
         assert rating.twist_angle[0] == pytest.approx(theta * 1.2, rel=1e-12)
         assert rating.layer_torque[0, 0] == pytest.approx(self.G_STEEL * j_core * theta, rel=1e-12)
         # The stress jumps at the interface in the ratio of the moduli.
@@ -47,7 +47,7 @@ class TestWorkedSleevedShaft:
         assert rating.governing_capacity[0] == pytest.approx(governing, rel=1e-12)
         assert rating.governing_criterion[0] == Criterion.LAYER_STRESS
         assert rating.governing_layer[0] == 1
-        assert rating.factor_of_safety[0] == pytest.approx(governing / 1000.0, rel=1e-12)
+        assert rating.reserve_factor[0] == pytest.approx(governing / 1000.0, rel=1e-12)
         assert rating.margin[0] == pytest.approx(governing / 1000.0 - 1.0, rel=1e-12)
         np.testing.assert_allclose(rating.utilisation[0], 1000.0 / np.array([cap_core, cap_sleeve]), rtol=1e-12)
 
@@ -103,7 +103,7 @@ class TestBatchShapes:
 
     def test_zero_torque_has_infinite_margin(self):
         rating = rate(self._stack(1), Duty.from_arrays(torque=0.0))
-        assert rating.factor_of_safety[0] == math.inf and rating.margin[0] == math.inf
+        assert rating.reserve_factor[0] == math.inf and rating.margin[0] == math.inf
 
     def test_rule_travels_with_result(self):
         stack = LayerStack.from_layers([0.04, 0.05], [0.0, 0.04], [79e9, 40e9], [1e8, 5e7],

@@ -103,7 +103,7 @@ def test_governing_is_the_smallest_capacity(part, torque, length, angle, per_len
     assert all(governing <= c * (1 + 1e-12) for c in candidates)
     assert governing == pytest.approx(min(candidates), rel=1e-12)
     assert governing <= rating.twist_capacity[0]
-    assert rating.factor_of_safety[0] == pytest.approx(governing / torque, rel=1e-12)
+    assert rating.reserve_factor[0] == pytest.approx(governing / torque, rel=1e-12)
 
 
 def _padded(part_list, width):
@@ -127,7 +127,7 @@ def test_one_part_alone_equals_the_same_part_in_a_batch(part_list, data):
         for name in ("gj", "share", "layer_torque", "stress_outer", "stress_inner", "capacity", "utilisation"):
             np.testing.assert_allclose(getattr(batch, name)[row, :n], getattr(alone, name)[0], rtol=1e-14)
             assert np.isnan(getattr(batch, name)[row, n:]).all()
-        for name in ("sum_gj", "twist_rate", "twist_angle", "governing_capacity", "margin",
+        for name in ("sum_gj", "twist_per_length", "twist_angle", "governing_capacity", "margin",
                      "governing_criterion", "governing_layer", "part_flags", "valid"):
             np.testing.assert_allclose(getattr(batch, name)[row], getattr(alone, name)[0], rtol=1e-14)
 

@@ -393,14 +393,6 @@ class TestParseValue:
             parse_value(error, "length", "mm")
         assert str(caught.value) == f"cell holds the error {error.upper()}"
 
-    @pytest.mark.parametrize(
-        "code, error", [(-2146826246, "#N/A"), (-2146826273, "#VALUE!"), (-2146826281, "#DIV/0!")]
-    )
-    def test_excel_error_codes_from_com(self, code, error):
-        # The integer codes the Excel COM interface uses for error cells (xlwings' own table).
-        with pytest.raises(UnitProblem, match=f"cell holds the error {error}"):
-            parse_value(code, "torque", "N·m")
-
     def test_hash_text_that_is_not_an_error(self):
         with pytest.raises(UnitProblem, match="not a number"):
             parse_value("#5", "length", "mm")

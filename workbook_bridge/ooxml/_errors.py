@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+from twistshare.engine.errors import TwistshareError
+
 __all__ = ["OoxmlError", "PackageRefused", "WriteRefused"]
 
 
-class OoxmlError(Exception):
+class OoxmlError(TwistshareError):
     """Base class of every error raised by ``twistshare.workbook_bridge.ooxml``."""
 
 

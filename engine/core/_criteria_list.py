@@ -1,0 +1,135 @@
+"""The criteria a part is rated against, as a list: each gives its capacity, the least governs.
+
+A criterion is a small function of the `Section` (the stack, the duty and the section's
+stiffness) returning the section torque at which it is reached: per part ``(P,)`` or per layer
+slot ``(P, L)``, NaN where it does not apply to a slot, +inf where it sets no limit. Adding one
+is a function here (or in its own module), a `Criterion` member and a line in `CRITERIA`; the
+governing limit, the rating and every output pick it up from the list.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass
+
+import numpy as np
+from numpy.typing import NDArray
+
+from ._criteria import Criterion
+
+__all__ = ["Section", "CriterionCheck", "CRITERIA", "governing_of"]
+
+
+@dataclass(frozen=True)
+class Section:
+    """What every criterion may use, SI; per-layer arrays are NaN in unused slots.
+
+    Attributes
+    ----------
+    stack : LayerStack
+    duty : Duty
+    gj : (P, L) ndarray, N*m^2
+    sum_gj : (P,) ndarray, N*m^2
+        NaN for parts that are not rated.
+    unused : (P, L) ndarray of bool
+        Absent slots and the slots of parts that are not rated.
+    """
+
+    stack: object
+    duty: object
+    gj: NDArray[np.float64]
+    sum_gj: NDArray[np.float64]
+    unused: NDArray[np.bool_]
+
+
+@dataclass(frozen=True)
+class CriterionCheck:
+    """One criterion: what it is, whether it is per layer slot, and its capacity."""
+
+    criterion: Criterion
+    per_layer: bool
+    capacity: Callable[[Section], NDArray[np.float64]]
+
+
+def _layer_stress(section: Section) -> NDArray[np.float64]:
+    """``tau_a,i * sum(G J) / (G_i * r_o,i * Kt_i)``, built in place (the batch is large)."""
+    stack = section.stack
+    capacity = np.multiply(stack.shear_modulus, stack.outer_diameter)
+    capacity *= stack.stress_concentration
+    np.divide(stack.allowable_shear, capacity, out=capacity)
+    capacity *= (2.0 * section.sum_gj)[:, np.newaxis]
+    if section.unused.any():
+        np.copyto(capacity, np.nan, where=section.unused)
+    return capacity
+
+
+def _twist_angle(section: Section) -> NDArray[np.float64]:
+    """``phi_lim * sum(G J) / L``; +inf where no limit is given."""
+    duty = section.duty
+    capacity = np.multiply(duty.twist_limit_angle, section.sum_gj)
+    capacity /= duty.length
+    np.copyto(capacity, np.inf, where=np.isnan(duty.twist_limit_angle))
+    return capacity
+
+
+def _twist_per_length(section: Section) -> NDArray[np.float64]:
+    """``theta'_lim * sum(G J)``; +inf where no limit is given."""
+    limit = section.duty.twist_limit_per_length
+    capacity = limit * section.sum_gj
+    np.copyto(capacity, np.inf, where=np.isnan(limit))
+    return capacity
+
+
+#: Every criterion, in the order ties are broken (lowest first).
+CRITERIA: tuple[CriterionCheck, ...] = (
+    CriterionCheck(Criterion.LAYER_STRESS, True, _layer_stress),
+    CriterionCheck(Criterion.TWIST_ANGLE, False, _twist_angle),
+    CriterionCheck(Criterion.TWIST_PER_LENGTH, False, _twist_per_length),
+)
+
+
+def governing_of(
+    capacities: Sequence[tuple[Criterion, NDArray[np.float64]]], n_parts: int
+) -> tuple[NDArray[np.float64], NDArray[np.int8], NDArray[np.int16]]:
+    """The smallest capacity over a list of criteria, with the criterion and layer giving it.
+
+    Ties go to the criterion listed first, then to the innermost layer, so the answer never
+    depends on floating-point luck in the order of evaluation.
+
+    Parameters
+    ----------
+    capacities : sequence of (Criterion, ndarray)
+        ``(P,)`` per part or ``(P, L)`` per layer slot, N*m; NaN where a slot has none,
+        +inf where a criterion sets no limit.
+    n_parts : int
+
+    Returns
+    -------
+    capacity : (P,) ndarray, N*m
+        NaN where no criterion gives a finite number.
+    criterion : (P,) ndarray of int8
+        ``Criterion.NONE`` where ``capacity`` is NaN.
+    layer : (P,) ndarray of int16
+        Governing layer slot; -1 where a per-part criterion (or nothing) governs.
+    """
+    capacity = np.full(n_parts, np.nan)
+    criterion = np.full(n_parts, int(Criterion.NONE), dtype=np.int8)
+    layer = np.full(n_parts, -1, dtype=np.int16)
+    with np.errstate(invalid="ignore"):
+        for code, values in capacities:
+            # Few layer slots, many parts: a loop over slots beats argmin along a short axis.
+            columns = ((slot, values[:, slot]) for slot in range(values.shape[1])) if values.ndim == 2 \
+                else ((-1, values),)
+            for slot, column in columns:
+                # Strictly smaller takes over; NaN never wins.
+                wins = column < capacity
+                wins |= np.isnan(capacity) & ~np.isnan(column)
+                np.copyto(capacity, column, where=wins)
+                np.copyto(criterion, int(code), where=wins)
+                np.copyto(layer, slot, where=wins)
+        none = ~(capacity < np.inf)
+        if none.any():
+            capacity[none] = np.nan
+            criterion[none] = int(Criterion.NONE)
+            layer[none] = -1
+    return capacity, criterion, layer

@@ -1,0 +1,354 @@
+"""Layers of every part, in either layout: column groups on the part's row, or a row per layer.
+
+Both layouts end in `place_layers`, so a missing diameter reads the same whichever way the
+table is laid out. A layer's material cell holds a material name, or (written with its unit, or
+under a ``G [GPa]`` header) the layer's own shear modulus; a layer's own allowable overrides its
+material's.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from twistshare.engine.units import UnitProblem, parse_value
+
+from ._cellrefs import CellRefs
+from ._columns import NumericColumn, error_problem, read_numeric, read_text
+from ._grid import SheetGrid, cell_ref
+from ._problems import Problem, Severity
+from ._schema import LAYER_FIELDS, Column
+from ._tables import TableSpot
+from ._words import where_text
+
+__all__ = ["LayerArrays", "layers_from_groups", "layers_from_rows", "row_labels"]
+
+_NUMERIC_KEYS = ("outer_diameter", "inner_diameter", "allowable_shear", "kt")
+_MATERIAL = next(f for f in LAYER_FIELDS if f.key == "material")
+# The material column read as a shear modulus (a G header, or a cell written with its unit).
+_MODULUS = replace(_MATERIAL, kind="stress", description="shear modulus G")
+
+
+@dataclass
+class LayerArrays:
+    """The layers of P parts in L slots, SI; NaN where not given, ``bad`` parts not to be rated."""
+
+    outer_diameter: np.ndarray
+    inner_diameter: np.ndarray
+    kt: np.ndarray
+    allowable_shear: np.ndarray  # the layer's own allowable (NaN: its material's)
+    shear_modulus: np.ndarray    # the layer's own G (NaN: its material's)
+    present: np.ndarray
+    materials: list[list[str | None]]
+    cells: CellRefs
+    bad: np.ndarray
+    # For each data row of a row-per-layer table: the part and slot it became (-1: none).
+    source_part: np.ndarray | None = None
+    source_slot: np.ndarray | None = None
+
+    @classmethod
+    def empty(cls, n: int, n_layers: int, cells: CellRefs) -> LayerArrays:
+        shape = (n, max(n_layers, 1))
+        return cls(np.full(shape, np.nan), np.full(shape, np.nan), np.ones(shape), np.full(shape, np.nan),
+                   np.full(shape, np.nan), np.zeros(shape, bool), [[None] * shape[1] for _ in range(n)],
+                   cells, np.zeros(n, bool))
+
+
+def row_labels(ids: list[str | None], rows: list[int], layer: int | None = None):
+    """``who(row)`` naming the part (and layer) of a table row, with a ``tag`` for problems."""
+    index = {r: i for i, r in enumerate(rows)}
+
+    def who(r: int) -> str:
+        i = index.get(r)
+        pid = ids[i] if i is not None else None
+        base = where_text(pid) if pid else f"row {r + 1}"
+        return f"{base}, layer {layer}" if layer else base
+
+    def tag(r: int) -> tuple[str | None, int | None]:
+        i = index.get(r)
+        return (ids[i] if i is not None else None), layer
+
+    who.tag = tag  # lets the column reader tie each problem to its part and layer
+    return who
+
+
+def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, findings: list[Problem],
+                     header_row: int, seen: set) -> tuple[list[str | None], np.ndarray, np.ndarray]:
+    """Names, the layer's own G (NaN where a name is given) and bad marks of a material column."""
+    n = len(rows)
+    if column.unit is not None:
+        moduli = read_numeric(grid, replace(column, field=_MODULUS), rows, who, findings, header_row, seen)
+        return [None] * n, moduli.values, moduli.bad
+    names = read_text(grid, column.index, rows)
+    modulus = np.full(n, np.nan)
+    bad = np.zeros(n, bool)
+    tag = who.tag
+    for i, text in enumerate(names):
+        if text is None or not (text[:1].isdigit() or text[:1] in "+-." and text[1:2].isdigit()):
+            continue
+        # A cell starting with a digit is a modulus written with its unit ("79 GPa"), never a name.
+        r = rows[i]
+        names[i] = None
+        try:
+            value = parse_value(text, "stress")
+        except UnitProblem as exc:
+            bad[i] = True
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, column.index),
+                                    f"{who(r)}: material: {exc}; expected a material name or a shear "
+                                    "modulus G with its unit", *tag(r), code="unit", values=(text,)))
+            continue
+        low, high = _MODULUS.plausible.low, _MODULUS.plausible.high
+        if not low <= value <= high:
+            bad[i] = True
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, column.index),
+                                    f"{who(r)}: shear modulus G: {text!r} is outside the plausible range "
+                                    f"{low / 1e9:g} to {high / 1e9:g} GPa (common practice); check the unit",
+                                    *tag(r), code="plausible", values=(text,)))
+            continue
+        modulus[i] = value
+    return names, modulus, bad
+
+
+def place_layers(got: dict[str, NumericColumn], src: np.ndarray, p: np.ndarray, j: np.ndarray,
+                 ids: list[str], arrays: LayerArrays, sheet: str, findings: list[Problem]) -> None:
+    """Put layers' values into the part arrays: column row ``src[k]`` -> part ``p[k]``, slot ``j[k]``.
+
+    Later entries see the ``bad`` marks of earlier steps, as a reader would: one message per part
+    and cause.
+    """
+    a = arrays
+    if not len(src):
+        return
+    for col in got.values():
+        a.bad[p[col.bad[src]]] = True
+
+    def report(mask: np.ndarray, what: str, key: str, extra) -> None:
+        for k in np.flatnonzero(mask & ~a.bad[p]):
+            i, jj = int(p[k]), int(j[k])
+            findings.append(Problem(Severity.ERROR, *a.cells.get((i, jj, key), (sheet, None)),
+                                    f"{where_text(ids[i], jj + 1)}: {what} is missing{extra(jj)}",
+                                    part=ids[i], layer=jj + 1, code="missing"))
+
+    o = got.get("outer_diameter")
+    missing = o.empty[src] if o is not None else np.ones(len(src), bool)
+    report(missing, "outer diameter", "outer_diameter", lambda jj: "")
+    a.bad[p[missing]] = True
+    if o is not None:
+        a.outer_diameter[p[~missing], j[~missing]] = o.values[src[~missing]]
+    inn = got.get("inner_diameter")
+    missing = inn.empty[src] if inn is not None else np.ones(len(src), bool)
+    solid = missing & (j == 0)  # a blank bore on the innermost layer means a solid core
+    a.inner_diameter[p[solid], j[solid]] = 0.0
+    missing &= j > 0
+    report(missing, "inner diameter", "inner_diameter", lambda jj: f"; expected the outer diameter of layer {jj}")
+    a.bad[p[missing]] = True
+    if inn is not None:
+        given = ~inn.empty[src]
+        a.inner_diameter[p[given], j[given]] = inn.values[src[given]]
+    for key, target in (("kt", a.kt), ("allowable_shear", a.allowable_shear)):
+        col = got.get(key)
+        if col is not None:
+            take = ~col.empty[src] & ~col.bad[src]
+            target[p[take], j[take]] = col.values[src[take]]
+
+
+def layers_from_groups(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: list[str],
+                       findings: list[Problem], header_seen: set) -> LayerArrays:
+    """Layers from ``Layer n ...`` column groups on each part's row."""
+    numbers = spot.layer_numbers
+    n = len(rows)
+    cells = CellRefs(grid.name, rows)
+    out = LayerArrays.empty(n, max(numbers) if numbers else 0, cells)
+    if not numbers:
+        findings.append(Problem(Severity.ERROR, grid.name, cell_ref(spot.header_row, 0),
+                                "the parts table has no layer columns: expected 'Layer 1 material', "
+                                "'Layer 1 outer diameter [mm]', 'Layer 1 inner diameter [mm]', ...",
+                                code="no-layers"))
+        out.bad[:] = True
+        return out
+    for layer in numbers:
+        j = layer - 1
+        who = row_labels(ids, rows, layer)
+        got: dict[str, NumericColumn] = {}
+        for key in _NUMERIC_KEYS:
+            col = spot.column(key, layer)
+            if col is None:
+                continue
+            got[key] = read_numeric(grid, col, rows, who, findings, spot.header_row, header_seen)
+            cells.column((j, key), col.index)
+        mcol = spot.column("material", layer)
+        if mcol is not None:
+            names, modulus, mbad = _material_column(grid, mcol, rows, who, findings, spot.header_row, header_seen)
+            cells.column((j, "material"), mcol.index)
+        else:
+            names, modulus, mbad = [None] * n, np.full(n, np.nan), np.zeros(n, bool)
+        # Whole columns at once; problems only for the rows that need one.
+        used = np.fromiter((x is not None for x in names), bool, n) | ~np.isnan(modulus) | mbad
+        for key, col in got.items():
+            if key != "kt":
+                used |= ~col.empty
+        k = got.get("kt")
+        if k is not None:
+            # templates often pre-fill Kt for every layer slot; a Kt alone is not a layer
+            for i in np.flatnonzero(~used & ~k.empty):
+                findings.append(Problem(Severity.WARNING, *cells[(i, j, "kt")],
+                                        f"part {ids[i]}, layer {layer}: Kt is given but the layer has no "
+                                        "material and no diameters; the slot is ignored", part=ids[i], layer=layer,
+                                        code="stray-kt"))
+        out.present[:, j] = used
+        out.bad |= mbad
+        out.shear_modulus[:, j] = modulus
+        for i in np.flatnonzero(used).tolist():
+            out.materials[i][j] = names[i]
+        if mcol is not None and grid.errors:
+            for i in np.flatnonzero(used).tolist():
+                err = error_problem(grid, rows[i], mcol.index, "a material name")
+                if err is not None:
+                    out.materials[i][j] = None
+                    findings.append(Problem(Severity.ERROR, *cells[(i, j, "material")],
+                                            f"part {ids[i]}, layer {layer}: material: {err}", part=ids[i],
+                                            layer=layer, code="error-value"))
+                    out.bad[i] = True
+        rows_used = np.flatnonzero(used)
+        place_layers(got, rows_used, rows_used, np.full(len(rows_used), j), ids, out, grid.name, findings)
+    return out
+
+
+def _layer_numbers(grid: SheetGrid, spot: TableSpot, rows: list[int], keys: list[str | None],
+                   findings: list[Problem], header_seen: set) -> tuple[list[int | None], NumericColumn | None]:
+    """Each row's layer number: the Layer column's, or (without one) its order within its part."""
+    lcol = spot.column("layer")
+    if lcol is None:
+        count: dict[str | None, int] = {}
+        numbers: list[int | None] = []
+        for key in keys:
+            count[key] = count.get(key, 0) + 1
+            numbers.append(count[key])
+        return numbers, None
+    lay = read_numeric(grid, lcol, rows, row_labels(keys, rows), findings, spot.header_row, header_seen)
+    return [int(v) if math.isfinite(v) and v >= 1 and float(v).is_integer() else None
+            for v in lay.values.tolist()], lay
+
+
+def part_keys(grid: SheetGrid, spot: TableSpot) -> list[str | None]:
+    """The part id of each data row of a row-per-layer table (None where none can be read).
+
+    A blank part cell continues the part above (a table grouped by part, as engineers lay one
+    out); an error value names no part.
+    """
+    pcol = spot.column("part")
+    if pcol is None:
+        return [None] * len(spot.data_rows)
+    rows = list(spot.data_rows)
+    keys = read_text(grid, pcol.index, rows)
+    out: list[str | None] = []
+    above: str | None = None
+    for r, key in zip(rows, keys):
+        if grid.errors and grid.error_at(r, pcol.index):
+            above = None
+            out.append(None)
+            continue
+        if key is None:
+            key = above
+        above = key
+        out.append(key)
+    return out
+
+
+def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings: list[Problem]) -> LayerArrays:
+    """Layers from a table with one row per layer: a Part column, an optional Layer column
+    (without it, the rows of a part are its layers innermost first), and the layer fields."""
+    rows = list(spot.data_rows)
+    pcol, lcol = spot.column("part"), spot.column("layer")
+    keys = part_keys(grid, spot) if pcol is not None else [""] * len(rows)
+    header_seen: set[tuple[str, int]] = set()
+    index = {pid: i for i, pid in enumerate(ids)}
+    layer_no, lay_nc = _layer_numbers(grid, spot, rows, keys, findings, header_seen)
+    n_layers = max([x for x in layer_no if x] or [1])
+    n = len(ids)
+    cells = CellRefs(grid.name, rows)  # each layer has its own row: references set one by one
+    out = LayerArrays.empty(n, n_layers, cells)
+    placed: list[tuple[int, int, int]] = []  # (row in this table, part, slot)
+    row_index = {r: i for i, r in enumerate(rows)}
+
+    def who(r: int) -> str:
+        i = row_index[r]
+        if not keys[i]:  # the one part of a block without a Part column: its row says where
+            return f"row {r + 1}, layer {layer_no[i]}" if layer_no[i] else f"row {r + 1}"
+        return f"part {keys[i]}, layer {layer_no[i]}" if layer_no[i] else f"part {keys[i]}"
+
+    who.tag = lambda r: (keys[row_index[r]], layer_no[row_index[r]])
+    got = {key: read_numeric(grid, c, rows, who, findings, spot.header_row, header_seen)
+           for key in _NUMERIC_KEYS if (c := spot.column(key)) is not None}
+    mcol = spot.column("material")
+    if mcol is not None:
+        names, modulus, mbad = _material_column(grid, mcol, rows, who, findings, spot.header_row, header_seen)
+    else:
+        names, modulus, mbad = [None] * len(rows), np.full(len(rows), np.nan), np.zeros(len(rows), bool)
+    for i, r in enumerate(rows):
+        pid = keys[i]
+        err = error_problem(grid, r, pcol.index, "a part id") if pcol is not None else None
+        if err is not None:
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
+                                    f"{spot.sheet} row {r + 1}: the part id: {err}; the layer is ignored",
+                                    code="error-value"))
+            continue
+        if pid is None:
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
+                                    f"{spot.sheet} row {r + 1}: the layer names no part (a blank part cell "
+                                    "continues the part above, and there is none); the row is ignored",
+                                    code="missing", values=(r + 1,)))
+            continue
+        p = index.get(pid)
+        if p is None:
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
+                                    f"{spot.sheet} row {r + 1}: part {pid} is not in the parts table; "
+                                    "the layer is ignored", code="unknown-part"))
+            continue
+        j = layer_no[i]
+        if j is None:
+            if lay_nc is None or not lay_nc.bad[i]:
+                findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, lcol.index) if lcol else None,
+                                        f"{where_text(pid)}: layer number must be a whole number from 1 (innermost)",
+                                        part=pid, code="layer-number"))
+            out.bad[p] = True
+            continue
+        j -= 1
+        if out.present[p, j]:
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, lcol.index) if lcol else None,
+                                    f"{where_text(pid, j + 1)}: the layer is given twice; the part is not rated",
+                                    part=pid, layer=j + 1, code="layer-twice"))
+            out.bad[p] = True
+            continue
+        out.present[p, j] = True
+        out.materials[p][j] = names[i]
+        out.shear_modulus[p, j] = modulus[i]
+        if mbad[i]:
+            out.bad[p] = True
+        if mcol:
+            cells[(p, j, "material")] = (grid.name, cell_ref(r, mcol.index))
+            err = error_problem(grid, r, mcol.index, "a material name")
+            if err is not None:
+                out.materials[p][j] = None
+                findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, mcol.index),
+                                        f"{where_text(pid, j + 1)}: material: {err}", part=pid, layer=j + 1,
+                                        code="error-value"))
+                out.bad[p] = True
+        for key in got:
+            cells[(p, j, key)] = (grid.name, cell_ref(r, spot.column(key).index))
+        placed.append((i, p, j))
+    out.source_part = np.full(len(rows), -1, dtype=np.intp)
+    out.source_slot = np.full(len(rows), -1, dtype=np.intp)
+    if placed:
+        src, part, slot = (np.array(x) for x in zip(*placed))
+        out.source_part[src], out.source_slot[src] = part, slot
+        place_layers(got, src, part, slot, ids, out, grid.name, findings)
+    for p in range(n):
+        if not out.present[p].any() and not out.bad[p]:
+            findings.append(Problem(Severity.ERROR, None, None,
+                                    f"{where_text(ids[p])}: no layers in the {spot.sheet} table", part=ids[p],
+                                    code="no-layers"))
+            out.bad[p] = True
+    return out

@@ -1,0 +1,294 @@
+"""The parts: ids, duty and layers in engine arrays, with the cell of every input.
+
+One reader for both layouts (a row per part with ``Layer n ...`` column groups, or a row per
+layer) and for both front ends: a workbook's tables, and a cell function's block read as a
+small table. Materials are looked up once per distinct name.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from twistshare.engine.core import Duty, LayerStack
+from twistshare.engine.units import unit_system
+
+from ._cellrefs import CellRefs
+from ._columns import error_problem, read_text
+from ._duty import DutyColumns, read_duty
+from ._grid import SheetGrid, cell_ref, parse_ref
+from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, row_labels
+from ._materials import MaterialSet
+from ._problems import Problem, Severity
+from ._tables import TableSpot
+from ._words import where_text
+
+__all__ = ["PartsInput", "read_parts", "read_layer_table_parts"]
+
+
+@dataclass
+class PartsInput:
+    """Engine-ready arrays for every part, and where each input came from."""
+
+    sheet: str
+    ids: list[str]
+    rows: list[int]  # zero-based row of each part in its table
+    outer_diameter: np.ndarray  # (P, L) m
+    inner_diameter: np.ndarray
+    shear_modulus: np.ndarray  # Pa
+    allowable_shear: np.ndarray  # Pa
+    kt: np.ndarray
+    present: np.ndarray  # (P, L) bool
+    torque: np.ndarray  # (P,) N·m, service factor applied
+    length: np.ndarray
+    twist_limit_angle: np.ndarray
+    twist_limit_per_length: np.ndarray
+    input_error: np.ndarray  # (P,) bool: an input cell made the part unratable
+    materials: list[list[str | None]]
+    duty_source: list[str]  # "torque", "power" or "none"
+    layer_cells: CellRefs | None = None  # (part, layer, field) -> (sheet, A1)
+    part_cells: CellRefs | None = None  # (part, field) -> (sheet, A1)
+    system: str = "SI"
+    allowable_rule: np.ndarray | None = None  # (P, L) AllowableRule codes
+    # A row-per-layer table's data rows: the part and slot each became (-1: none).
+    source_part: np.ndarray | None = None
+    source_slot: np.ndarray | None = None
+
+    @property
+    def count(self) -> int:
+        """Number of parts."""
+        return len(self.ids)
+
+    def stack(self) -> LayerStack:
+        """The layers as the engine core takes them (unusable parts keep NaNs; shapes stay whole)."""
+        return LayerStack(outer_diameter=self.outer_diameter, inner_diameter=self.inner_diameter,
+                          shear_modulus=self.shear_modulus, allowable_shear=self.allowable_shear,
+                          stress_concentration=self.kt, present=self.present,
+                          allowable_rule=self.allowable_rule)
+
+    def duty(self) -> Duty:
+        """The duty as the engine core takes it."""
+        return Duty(torque=self.torque, length=self.length, twist_limit_angle=self.twist_limit_angle,
+                    twist_limit_per_length=self.twist_limit_per_length)
+
+
+def _system_of(spot: TableSpot | None, keys: tuple[str, ...]) -> str:
+    if spot is None:
+        return "SI"
+    for k in keys:
+        for c in spot.columns:
+            if c.field.key == k and c.unit:
+                try:
+                    return unit_system(c.unit)
+                except ValueError:  # an unparseable header is reported elsewhere
+                    continue
+    return "SI"
+
+
+def _part_ids(grid: SheetGrid, spot: TableSpot, rows: list[int], findings: list[Problem]
+              ) -> tuple[list[str], np.ndarray]:
+    """Each row's part id (or ``row N`` without a Part column); duplicates and blanks refused."""
+    n = len(rows)
+    error = np.zeros(n, dtype=bool)
+    pid_col = spot.column("part")
+    if pid_col is None:  # a block without a Part column: its rows name the parts
+        return [f"row {r + 1}" for r in rows], error
+    raw_ids = read_text(grid, pid_col.index, rows)
+    ids: list[str] = []
+    where: dict[str, list[int]] = {}
+    for i, (r, pid) in enumerate(zip(rows, raw_ids)):
+        err = error_problem(grid, r, pid_col.index, "a part id")
+        if pid is None or err is not None:
+            pid = f"(row {r + 1})"
+            error[i] = True
+            why = f"the part id: {err}" if err else "the part has no id"
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pid_col.index),
+                                    f"row {r + 1}: {why}; it is not rated", code="part-id"))
+        else:
+            where.setdefault(pid, []).append(i)
+        ids.append(pid)
+    # An id on two rows names two different shafts: rating either would put a number beside an
+    # id that a reader could look up on the other row, so neither is rated.
+    for pid, idx in where.items():
+        if len(idx) < 2:
+            continue
+        for i in idx:
+            error[i] = True
+            others = ", ".join(str(rows[k] + 1) for k in idx if k != i)
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(rows[i], pid_col.index),
+                                    f"part {pid}: the id is also on row {others}; neither row is rated "
+                                    "until each part has its own id", part=pid, code="part-id-twice"))
+    return ids, error
+
+
+def read_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, findings: list[Problem],
+               layers_grid: SheetGrid | None = None, layers_spot: TableSpot | None = None, *,
+               need_allowable: bool = True, with_duty: bool = True) -> PartsInput:
+    """Read the parts table (and the per-layer table, if the input uses that layout).
+
+    Parameters
+    ----------
+    need_allowable : bool
+        False where the result asked for needs no allowable (share, stress, twist): a material
+        that gives a shear modulus but no allowable then serves.
+    with_duty : bool
+        Read the duty columns (a workbook); False where the duty comes from elsewhere (a cell
+        function's arguments), leaving NaN.
+    """
+    rows = list(spot.data_rows)
+    ids, error = _part_ids(grid, spot, rows, findings)
+    n = len(rows)
+    header_seen: set[tuple[str, int]] = set()
+    who = row_labels(ids, rows)
+    if with_duty:
+        duty = read_duty(grid, spot, rows, ids, who, error, findings, header_seen)
+    else:
+        nan = np.full(n, np.nan)
+        duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, rows))
+    error |= duty.bad
+    if layers_grid is not None and layers_spot is not None:
+        layers = layers_from_rows(layers_grid, layers_spot, ids, findings)
+    else:
+        layers = layers_from_groups(grid, spot, rows, ids, findings, header_seen)
+    grids = {grid.name: grid}
+    if layers_grid is not None:
+        grids[layers_grid.name] = layers_grid
+    return _assemble(grid.name, ids, rows, duty, layers, materials, grids, findings, error, need_allowable,
+                     _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot)
+
+
+def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, findings: list[Problem],
+                           *, need_allowable: bool = True) -> PartsInput:
+    """Parts from a row-per-layer table alone (a cell function's block): the parts are the ids of
+    its Part column in order of appearance, or one part when it has no Part column."""
+    keys = part_keys(grid, spot)
+    ids = list(dict.fromkeys(k for k in keys if k is not None)) if spot.column("part") else [""]
+    n = len(ids)
+    nan = np.full(n, np.nan)
+    duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, []))
+    layers = layers_from_rows(grid, spot, ids, findings)
+    return _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
+                     np.zeros(n, bool), need_allowable, "SI", spot)
+
+
+def _assemble(sheet: str, ids: list[str], rows: list[int], duty: DutyColumns, layers: LayerArrays,
+              materials: MaterialSet, grids: dict[str, SheetGrid], findings: list[Problem], error: np.ndarray,
+              need_allowable: bool, system: str, layers_spot: TableSpot | None) -> PartsInput:
+    error = error | layers.bad
+    g, tau, rule = _materials_of_layers(layers, ids, materials, grids, sheet, findings, error, need_allowable)
+    if layers_spot is not None and system == "SI":
+        system = _system_of(layers_spot, ("outer_diameter",))
+    return PartsInput(
+        sheet, ids, rows, layers.outer_diameter, layers.inner_diameter, g, tau, layers.kt, layers.present,
+        duty.torque, duty.length, duty.twist_limit_angle, duty.twist_limit_per_length, error,
+        layers.materials, duty.source, layers.cells, duty.cells, system, rule,
+        layers.source_part, layers.source_slot,
+    )
+
+
+def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: MaterialSet,
+                         grids: dict[str, SheetGrid], sheet: str, findings: list[Problem], error: np.ndarray,
+                         need_allowable: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Each layer's G, allowable and rule: its own values, else its material's (looked up once)."""
+    present, mats, cells = layers.present, layers.materials, layers.cells
+    P, L = present.shape
+    own_g = ~np.isnan(layers.shear_modulus)
+    g = np.where(own_g, layers.shear_modulus, np.nan)
+    tau = np.full((P, L), np.nan)
+    rule = np.zeros((P, L), dtype=np.int8)  # AllowableRule per layer; travels with the rating
+    named_i, named_j, named = [], [], []
+    for i, j in zip(*(a.tolist() for a in np.nonzero(present))):
+        name = mats[i][j]
+        if name is not None:
+            named_i.append(i)
+            named_j.append(j)
+            named.append(name)
+            continue
+        if own_g[i, j] or layers.bad[i]:
+            continue  # a layer's own G, or a cell already reported
+        where, cell = cells.get((i, j, "material"), (sheet, None))
+        src = grids.get(where)
+        error[i] = True
+        if cell is not None and src is not None and src.error_at(*parse_ref(cell)) is not None:
+            continue  # the error value is reported on its cell already
+        if cell is not None and src is not None and parse_ref(cell) in src.uncached:
+            findings.append(Problem(Severity.ERROR, where, cell,
+                                    f"{where_text(ids[i], j + 1)}: material: the cell's formula has no "
+                                    "saved result (the book was written by a program that does not "
+                                    "calculate): open and save it in Excel or LibreOffice, then run again",
+                                    part=ids[i], layer=j + 1, code="uncached"))
+            continue
+        findings.append(Problem(Severity.ERROR, where, cell, f"{where_text(ids[i], j + 1)}: no material given",
+                                part=ids[i], layer=j + 1, code="missing"))
+    if named:
+        _named_materials(named, np.array(named_i), np.array(named_j), layers, ids, materials, sheet, findings,
+                         error, need_allowable, g, tau, rule)
+    own_tau = ~np.isnan(layers.allowable_shear)
+    tau[own_tau] = layers.allowable_shear[own_tau]
+    rule[own_tau] = 0  # AllowableRule.GIVEN: the layer's own allowable
+    if need_allowable:
+        _own_modulus_needs_allowable(layers, ids, own_g & ~own_tau & present, sheet, findings, error)
+    return g, tau, rule
+
+
+def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: LayerArrays, ids: list[str],
+                     materials: MaterialSet, sheet: str, findings: list[Problem], error: np.ndarray,
+                     need_allowable: bool, g: np.ndarray, tau: np.ndarray, rule: np.ndarray) -> None:
+    # Each distinct name is looked up once; the arrays are filled through the inverse index.
+    cells, kt = layers.cells, layers.kt
+    unique, first, inverse = np.unique(np.array(named, dtype=object), return_index=True, return_inverse=True)
+    # A layer's own allowable means its material need give none.
+    own_tau = ~np.isnan(layers.allowable_shear[ni, nj])
+    found_any = [materials.lookup(str(name), need_allowable=False) for name in unique]
+    found_need = [materials.lookup(str(name), need_allowable=True) for name in unique] if need_allowable \
+        else found_any
+    ok_any = np.array([m is not None for m, _ in found_any])[inverse]
+    ok_need = np.array([m is not None for m, _ in found_need])[inverse]
+    ok = ok_any & (ok_need | own_tau)
+
+    def pick(attr: str) -> np.ndarray:
+        return np.array([getattr(m, attr) if m is not None else np.nan for m, _ in found_any])
+
+    g[ni[ok], nj[ok]] = pick("shear_modulus")[inverse][ok]
+    tau[ni[ok], nj[ok]] = pick("allowable_shear")[inverse][ok]
+    rule[ni[ok], nj[ok]] = np.array([int(m.rule) if m is not None else 0 for m, _ in found_any])[inverse][ok]
+    for k in np.flatnonzero(~ok):
+        i, j = int(ni[k]), int(nj[k])
+        why = found_any[inverse[k]][1] or found_need[inverse[k]][1]
+        findings.append(Problem(Severity.ERROR, *cells.get((i, j, "material"), (sheet, None)),
+                                f"{where_text(ids[i], j + 1)}: {why}", part=ids[i], layer=j + 1, code="material"))
+        error[i] = True
+    for u, (m, _) in enumerate(found_any):
+        if m is None:
+            continue
+        used = inverse == u
+        if m.note:  # once per material, where it is first used
+            i, j = int(ni[first[u]]), int(nj[first[u]])
+            findings.append(Problem(Severity.NOTE, *cells.get((i, j, "material"), (sheet, None)),
+                                    f"{where_text(ids[i], j + 1)}: {m.note}", part=ids[i], layer=j + 1,
+                                    code="library-default"))
+        with_kt = np.flatnonzero(used & (kt[ni, nj] > 1.0)) if m.keyway else ()
+        if len(with_kt):  # once per material: the first part that shows it
+            i, j = int(ni[with_kt[0]]), int(nj[with_kt[0]])
+            findings.append(Problem(
+                Severity.NOTE, *cells.get((i, j, "kt"), (sheet, None)),
+                f"{where_text(ids[i], j + 1)}: Kt {kt[i, j]:.3g} and the keyway factor 0.75 of material "
+                f"{unique[u]!r} are both applied (here and on every layer of that material "
+                "with a Kt); the shafting code's keyway factor already allows for a keyway, so if Kt describes "
+                "the same keyway it is counted twice (conservative)", part=ids[i], layer=j + 1,
+                code="keyway-and-kt"))
+
+
+def _own_modulus_needs_allowable(layers: LayerArrays, ids: list[str], missing: np.ndarray, sheet: str,
+                                 findings: list[Problem], error: np.ndarray) -> None:
+    """A layer given by its G alone has no material to take an allowable from."""
+    for i, j in zip(*(a.tolist() for a in np.nonzero(missing))):
+        if error[i]:
+            continue
+        error[i] = True
+        findings.append(Problem(Severity.ERROR, *layers.cells.get((i, j, "allowable_shear"),
+                                                                  layers.cells.get((i, j, "material"), (sheet, None))),
+                                f"{where_text(ids[i], j + 1)}: allowable: the layer is given by its shear modulus, "
+                                "so no material gives an allowable; give the allowable shear stress "
+                                "(e.g. from TWS_ALLOWABLE)", part=ids[i], layer=j + 1, code="no-allowable"))

@@ -1,0 +1,134 @@
+"""Find a table in a sheet: its header row, the columns we recognise and its data rows."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from ._grid import SheetGrid
+from ._schema import Column, Field, match_header, match_layer_group_header
+
+__all__ = ["TableRegion", "TableSpot", "locate_table"]
+
+_HEADER_SEARCH_ROWS = 30
+
+
+@dataclass(frozen=True)
+class TableRegion:
+    """A workbook table (list object): its sheet, header row and zero-based bounds of its data."""
+
+    name: str
+    sheet: str
+    header_row: int
+    first_col: int
+    last_row: int
+    last_col: int
+
+
+@dataclass(frozen=True)
+class TableSpot:
+    """Where a table sits in a sheet (zero-based rows; ``data_rows`` skip blank rows)."""
+
+    sheet: str
+    header_row: int
+    data_rows: tuple[int, ...]
+    columns: tuple[Column, ...]
+    duplicate_headers: tuple[tuple[int, str], ...]
+    first_col: int = 0
+    last_col: int | None = None
+    duplicates: tuple[Column, ...] = ()  # later columns naming an input an earlier column names
+    unknown_headers: tuple[tuple[int, str], ...] = ()  # header cells that name no input we read
+
+    def column(self, key: str, layer: int = 0) -> Column | None:
+        for c in self.columns:
+            if c.field.key == key and c.layer == layer:
+                return c
+        return None
+
+    @property
+    def layer_numbers(self) -> tuple[int, ...]:
+        return tuple(sorted({c.layer for c in self.columns if c.layer}))
+
+
+def _match_row(
+    row: list[object], fields: tuple[Field, ...], layer_groups: bool, first_col: int, last_col: int | None
+) -> tuple[list[Column], list[Column], list[tuple[int, str]]]:
+    cols: list[Column] = []
+    seen: set[tuple[str, int]] = set()
+    dups: list[Column] = []
+    unknown: list[tuple[int, str]] = []
+    stop = len(row) if last_col is None else min(len(row), last_col + 1)
+    for c in range(first_col, stop):
+        h = row[c]
+        if not isinstance(h, str) or not h.strip():
+            continue
+        layer = 0
+        m = match_header(h, fields)
+        if m is None and layer_groups:
+            g = match_layer_group_header(h)
+            if g is not None:
+                layer, field, unit = g
+                m = (field, unit)
+        if m is None:
+            unknown.append((c, h))
+            continue
+        field, unit = m
+        key = (field.key, layer)
+        if key in seen:
+            dups.append(Column(field, c, h, unit, layer))
+            continue
+        seen.add(key)
+        cols.append(Column(field, c, h, unit, layer))
+    return cols, dups, unknown
+
+
+def _has_data(grid: SheetGrid, r: int, idx: list[int]) -> bool:
+    """True if any of the table's columns holds something in row ``r`` (an error value counts)."""
+    row = grid.rows[r]
+    width = len(row)
+    for c in idx:
+        if c < width:
+            v = row[c]
+            if v is not None and v != "" and not (type(v) is str and not v.strip()):
+                return True
+    if grid.errors:
+        return any((r, c) in grid.errors for c in idx)
+    return False
+
+
+def locate_table(
+    grid: SheetGrid,
+    fields: tuple[Field, ...],
+    key_field: str | None,
+    *,
+    layer_groups: bool = False,
+    header_row: int | None = None,
+    last_row: int | None = None,
+    first_col: int = 0,
+    last_col: int | None = None,
+    header_cells: list[object] | None = None,
+) -> TableSpot | None:
+    """Find the header row (the first row naming ``key_field`` and one more input) and the data.
+
+    With ``header_row`` given (a workbook table, a cell function's block), only that row is
+    tried; with ``key_field`` None any two recognised columns make a header. With
+    ``header_cells`` (the headers a cell function's block implies by its shape), those name the
+    columns and every row of the grid is data (``header_row`` is then -1).
+    """
+    if header_cells is not None:
+        cols, dups, unknown = _match_row(header_cells, fields, layer_groups, first_col, last_col)
+        idx = [c.index for c in cols]
+        data = tuple(rr for rr in range(grid.height) if _has_data(grid, rr, idx))
+        return TableSpot(grid.name, -1, data, tuple(cols), (), first_col, last_col, tuple(dups), tuple(unknown))
+    candidates = [header_row] if header_row is not None else range(min(grid.height, _HEADER_SEARCH_ROWS))
+    for r in candidates:
+        if r >= grid.height:
+            continue
+        cols, dups, unknown = _match_row(grid.rows[r], fields, layer_groups, first_col, last_col)
+        if len(cols) < 2 or (key_field is not None and not any(c.field.key == key_field for c in cols)):
+            continue
+        end = grid.height if last_row is None else min(grid.height, last_row + 1)
+        idx = [c.index for c in cols]
+        data = tuple(rr for rr in range(r + 1, end) if _has_data(grid, rr, idx))
+        return TableSpot(grid.name, r, data, tuple(cols), tuple((d.index, d.header) for d in dups),
+                         first_col, last_col, tuple(dups), tuple(unknown))
+    return None

@@ -1,0 +1,82 @@
+"""Words every output shares: the caution, what governs, and values shown in a unit system.
+
+Defined once; the result sheets, the summary, the warnings, the sample books, `TWS_GOVERNS` and
+README all use these, so the same limit is never called three things.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from types import MappingProxyType
+
+from twistshare.engine.core import Criterion
+from twistshare.engine.units import display_unit, si_factor
+
+__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "governs_text", "Display"]
+
+#: The caution every output carries, one sentence a line.
+CAUTION_LINES: tuple[str, ...] = (
+    "twistshare is a preliminary design aid; its results are not a design approval.",
+    "Verify every result against the applicable codes and standards for the machine and its duty.",
+    "Have a qualified engineer review the inputs, the method and the results before use.",
+    "Local codes and licensed engineering practice prevail over anything this workbook shows.",
+)
+
+#: What the rating covers, beside the caution.
+METHOD_LINE = ("Method: layers twist as one (full connection along the length), elastic stress only, "
+               "static torque; fatigue, bending, fits and bonds are not checked here.")
+
+#: What governs, as results, the summary and ``TWS_GOVERNS`` write it; ``{layer}`` is 1-based.
+CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
+    Criterion.LAYER_STRESS: "layer {layer} stress",
+    Criterion.TWIST_ANGLE: "twist angle limit",
+    Criterion.TWIST_PER_LENGTH: "twist per length limit",
+})
+
+#: The criterion as a noun, for counts ("governed by a layer's shear stress: 31 parts").
+CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
+    Criterion.LAYER_STRESS: "a layer's shear stress",
+    Criterion.TWIST_ANGLE: "twist angle limit",
+    Criterion.TWIST_PER_LENGTH: "twist per length limit",
+})
+
+
+def governs_text(criterion: int, layer: int, material: str | None = None) -> str:
+    """Short words for what governs: ``layer 2 stress (Stainless 316 annealed)``; ``""`` for none.
+
+    Parameters
+    ----------
+    criterion : int
+        A `Criterion`.
+    layer : int
+        The governing layer slot (0-based), -1 for a per-part criterion.
+    material : str, optional
+        The governing layer's material, shown in brackets.
+    """
+    c = Criterion(int(criterion))
+    if c == Criterion.NONE:
+        return ""
+    text = CRITERION_WORDS[c].format(layer=layer + 1)
+    if layer >= 0 and material:
+        text += f" ({material})"
+    return text
+
+
+class Display:
+    """Formats SI values in the unit system the results use (``"SI"`` or ``"US"``)."""
+
+    def __init__(self, system: str) -> None:
+        self.system = system
+        self._cache: dict[str, tuple[str, float]] = {}
+
+    def unit(self, kind: str) -> tuple[str, float]:
+        """(unit text, its SI factor) for a kind."""
+        got = self._cache.get(kind)
+        if got is None:
+            u = display_unit(kind, self.system)
+            got = self._cache[kind] = (u, si_factor(u, kind) if u else 1.0)
+        return got
+
+    def __call__(self, value: float, kind: str, digits: int = 4) -> str:
+        u, f = self.unit(kind)
+        return f"{value / f:.{digits}g} {u}".strip()

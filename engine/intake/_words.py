@@ -1,0 +1,151 @@
+"""The words an engineer types that are not numbers: headers, rule names, yes/no, material names.
+
+Each table lives here once; the cell functions and the workbook reader both read through it,
+so ``mises`` or ``with keyway`` means the same in a cell and in a table.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Mapping
+from types import MappingProxyType
+
+from twistshare.engine.core import AllowableRule, normalise_name
+
+__all__ = [
+    "header_key",
+    "material_key",
+    "rule_from_text",
+    "RULE_WORDS",
+    "RULE_FORMULAS",
+    "RULE_CHOICES",
+    "flag_from_value",
+    "YES_WORDS",
+    "NO_WORDS",
+    "quoted",
+    "QUOTE_MAX",
+    "where_text",
+    "error_value_text",
+    "ERROR_VALUES",
+]
+
+_HEADER_RUNS = re.compile(r"[\s_\-]+")
+
+
+def header_key(label: object) -> str:
+    """A header label made comparable: case-folded, apostrophes dropped, ``_``, ``-`` and runs
+    of white space made one space (``"Young's_modulus"`` -> ``"youngs modulus"``)."""
+    text = str(label).replace("’", "'").replace("'", "")
+    return _HEADER_RUNS.sub(" ", text).strip().casefold()
+
+
+def material_key(name: str) -> str:
+    """The key material names are matched by (the core's rule: case-folded, spaces folded)."""
+    return normalise_name(name)
+
+
+# Rule names as tables and cells write them, plus the published methods' own names.
+_RULE_NAMES: Mapping[str, AllowableRule] = MappingProxyType(
+    {
+        "given": AllowableRule.GIVEN,
+        "direct": AllowableRule.GIVEN,
+        "max shear": AllowableRule.MAX_SHEAR,
+        "maximum shear": AllowableRule.MAX_SHEAR,
+        "max shear stress": AllowableRule.MAX_SHEAR,
+        "maximum shear stress": AllowableRule.MAX_SHEAR,
+        "tresca": AllowableRule.MAX_SHEAR,
+        "distortion energy": AllowableRule.DISTORTION_ENERGY,
+        "von mises": AllowableRule.DISTORTION_ENERGY,
+        "mises": AllowableRule.DISTORTION_ENERGY,
+        "shafting code": AllowableRule.SHAFTING_CODE,
+        "transmission shafting code": AllowableRule.SHAFTING_CODE,
+        "code": AllowableRule.SHAFTING_CODE,
+    }
+)
+
+#: The one short name of each rule, as outputs and messages write it.
+RULE_WORDS: Mapping[AllowableRule, str] = MappingProxyType(
+    {
+        AllowableRule.GIVEN: "given",
+        AllowableRule.MAX_SHEAR: "max shear",
+        AllowableRule.DISTORTION_ENERGY: "distortion energy",
+        AllowableRule.SHAFTING_CODE: "shafting code",
+    }
+)
+
+#: The rule with its method and formula, for the sheets that explain what was used.
+RULE_FORMULAS: Mapping[AllowableRule, str] = MappingProxyType(
+    {
+        AllowableRule.GIVEN: "given",
+        AllowableRule.MAX_SHEAR: "max shear (Tresca) 0.5·Sy/FS",
+        AllowableRule.DISTORTION_ENERGY: "distortion energy (von Mises) Sy/(√3·FS)",
+        AllowableRule.SHAFTING_CODE: "shafting code min(0.30·Sy, 0.18·Su)",
+    }
+)
+
+RULE_CHOICES = "given, max shear, distortion energy, shafting code"
+
+
+def rule_from_text(text: object) -> AllowableRule | None:
+    """The allowable rule a cell names (case, spaces, ``-`` and ``_`` do not matter), or None."""
+    if not isinstance(text, str):
+        return None
+    return _RULE_NAMES.get(header_key(text))
+
+
+YES_WORDS = frozenset({"yes", "y", "true", "1", "x", "keyway", "with keyway"})
+NO_WORDS = frozenset({"no", "n", "false", "0", "none", "-", "without keyway"})
+
+
+def flag_from_value(raw: object) -> bool | None:
+    """A yes/no cell: True, False, or None when it is neither (TRUE/FALSE, yes/no, y/n, 1/0)."""
+    if isinstance(raw, bool):
+        return raw
+    if isinstance(raw, (int, float)):
+        return bool(raw) if raw in (0, 1) else None
+    if isinstance(raw, str):
+        word = " ".join(raw.split()).casefold()
+        if word in YES_WORDS:
+            return True
+        if word in NO_WORDS:
+            return False
+    return None
+
+
+QUOTE_MAX = 60  # characters of a cell's text quoted in a message
+
+
+def quoted(text: str) -> str:
+    """A cell's text for a message: stripped, quoted, cut short when it is a pasted paragraph."""
+    text = text.strip()
+    if len(text) > QUOTE_MAX:
+        return repr(text[:QUOTE_MAX]) + f" (… {len(text)} characters)"
+    return repr(text)
+
+
+def where_text(part: str | None, layer: int | None = None) -> str:
+    """How a message names a part and layer: ``part MPD-S-014, layer 2``.
+
+    A part without an id of its own (a cell function's one-part block) is named by its layer
+    alone; a part named by its row (``row 5``, a block row without a Part column) by that row.
+    """
+    if not part:
+        return f"layer {layer}" if layer else "the part"
+    who = part if part.startswith("row ") else f"part {part}"
+    return f"{who}, layer {layer}" if layer else who
+
+
+#: The error values spreadsheets show in a cell (Excel's and LibreOffice Calc's spellings).
+ERROR_VALUES: frozenset[str] = frozenset({
+    "#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#GETTING_DATA",
+    "#SPILL!", "#CALC!", "#FIELD!", "#BLOCKED!", "#CONNECT!", "#BUSY!", "#UNKNOWN!",
+    "#EXTERNAL!", "#PYTHON!", "ERR:502", "ERR:504", "ERR:508", "ERR:522", "ERR:523",
+})
+
+
+def error_value_text(value: object) -> str | None:
+    """The spreadsheet error a cell's text stands for (``"#N/A"``), or None if it is not one."""
+    if isinstance(value, str):
+        stripped = value.strip().upper()
+        return stripped if stripped in ERROR_VALUES else None
+    return None

@@ -1,0 +1,404 @@
+"""Writing the sample books of the invented Marrowby Pump & Drive scenario as new workbooks.
+
+Every number here is invented for the demo (BRIEF §4): none describes a real part or a real
+material. The books follow the input convention in DEVELOPERS.md and carry a few deliberately
+bad cells, listed by :func:`planted_problems`, so the tool's warnings can be seen and tested.
+
+The files are reproducible byte for byte: fixed document timestamps, fixed zip member times.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import io
+import re
+import zipfile
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Union
+
+from openpyxl import Workbook
+from openpyxl.styles import Alignment, Font, PatternFill
+from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.worksheet import Worksheet
+
+from ._scenario import (  # the scenario's data, written here
+    CATALOGUE_FILE,
+    CATALOGUE_LONG_FILE,
+    CAUTIONS,
+    CELL_FUNCTIONS_FILE,
+    Cell,
+    LAYER_HEADERS,
+    MATERIAL_HEADERS,
+    PART_HEADERS,
+    PlantedProblem,
+    _AUTHOR,
+    _FIXED_TIME,
+    _INVENTED_NOTE,
+    _LAYER_ATTRS,
+    _LONG_ORPHAN,
+    _LONG_PART_IDS,
+    _LONG_REVERSED_PART,
+    _Layer,
+    _MATERIAL_ROWS,
+    _PARTS,
+    _PART_ATTRS,
+    _Part,
+    _wide_part_headers,
+    planted_problems,
+    sample_part_ids,
+)
+
+__all__ = ["write_catalogue", "write_catalogue_long", "write_cell_functions_book", "write_all"]
+
+_HEADER_FONT = Font(bold=True)
+_HEADER_FILL = PatternFill("solid", fgColor="DCE6EE")
+_TITLE_FONT = Font(bold=True, size=14)
+
+
+def _write_table(ws: Worksheet, headers: tuple[str, ...], rows: list[tuple[Cell, ...]]) -> None:
+    ws.append(list(headers))
+    for cell in ws[1]:
+        cell.font = _HEADER_FONT
+        cell.fill = _HEADER_FILL
+    for row in rows:
+        ws.append(list(row))
+    ws.freeze_panes = "B2"
+    for i, header in enumerate(headers, start=1):
+        ws.column_dimensions[get_column_letter(i)].width = max(10, min(34, len(header) + 2))
+
+
+def _write_materials(wb: Workbook) -> None:
+    _write_table(wb.create_sheet("Materials"), MATERIAL_HEADERS, list(_MATERIAL_ROWS))
+
+
+def _part_cells(part: _Part) -> tuple[Cell, ...]:
+    return tuple(getattr(part, a) for a in _PART_ATTRS)
+
+
+def _layer_cells(layer: _Layer) -> tuple[Cell, ...]:
+    return tuple(getattr(layer, a) for a in _LAYER_ATTRS)
+
+
+def _wide_row(part: _Part) -> tuple[Cell, ...]:
+    cells: list[Cell] = list(_part_cells(part))
+    for layer in part.layers:
+        cells.extend(_layer_cells(layer))
+    cells.extend([None] * (len(_wide_part_headers()) - len(cells)))
+    return tuple(cells)
+
+
+def _long_parts() -> tuple[_Part, ...]:
+    by_id = {p.part: p for p in _PARTS}
+    return tuple(by_id[pid] for pid in _LONG_PART_IDS)
+
+
+def _long_layer_rows() -> list[tuple[Cell, ...]]:
+    rows: list[tuple[Cell, ...]] = []
+    for part in _long_parts():
+        numbered = list(enumerate(part.layers, start=1))
+        if part.part == _LONG_REVERSED_PART:
+            numbered.reverse()
+        for n, layer in numbered:
+            rows.append((part.part, n, *_layer_cells(layer)))
+            if part.part == _LONG_DUPLICATE_PART and n == _LONG_DUPLICATE_LAYER:
+                rows.append((part.part, n, *_layer_cells(layer)))
+    rows.append(_LONG_ORPHAN)
+    return rows
+
+
+def _long_special_rows() -> tuple[int, int]:
+    """1-based Layers-sheet rows of the orphan layer and the repeated layer."""
+    rows = _long_layer_rows()
+    orphan = rows.index(_LONG_ORPHAN) + 2
+    seen: set[tuple[Cell, Cell]] = set()
+    duplicate = -1
+    for i, row in enumerate(rows):
+        key = (row[0], row[1])
+        if key in seen:
+            duplicate = i + 2
+            break
+        seen.add(key)
+    return orphan, duplicate
+
+
+def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) -> None:
+    ws = wb.create_sheet("Read me", 0)
+    ws.column_dimensions["A"].width = 110
+    lines: list[tuple[str, Font | None]] = [(title, _TITLE_FONT), ("", None),
+                                            (_INVENTED_NOTE, None), ("", None)]
+    lines += [(text, None) for text in about]
+    problems = [p for p in planted_problems() if p.book == book]
+    if problems:
+        lines += [("", None), ("Deliberately bad cells (to show the tool's warnings):", _HEADER_FONT)]
+        lines += [(f"{p.sheet}!{p.cell} ({p.part}{'' if p.layer is None else f', layer {p.layer}'}):"
+                   f" found {p.found}; expected {p.expected}.", None) for p in problems]
+    lines += [("", None), ("Cautions", _HEADER_FONT)]
+    lines += [(text, None) for text in CAUTIONS]
+    for text, font in lines:
+        ws.append([text])
+        if font is not None:
+            ws.cell(row=ws.max_row, column=1).font = font
+        ws.cell(row=ws.max_row, column=1).alignment = Alignment(wrap_text=True, vertical="top")
+
+
+def _new_workbook() -> Workbook:
+    wb = Workbook()
+    wb.remove(wb.active)
+    wb.properties.creator = _AUTHOR
+    wb.properties.lastModifiedBy = _AUTHOR
+    wb.properties.created = _FIXED_TIME
+    wb.properties.modified = _FIXED_TIME
+    wb.properties.title = "twistshare sample book (invented demo data)"
+    return wb
+
+
+_MODIFIED = re.compile(rb"(<dcterms:modified[^>]*>)[^<]*(</dcterms:modified>)")
+
+
+def _save_reproducibly(wb: Workbook, path: Path) -> Path:
+    """Save so that the same content gives the same bytes.
+
+    openpyxl stamps the save time into docProps/core.xml and each zip member; both are
+    replaced by the fixed time.
+    """
+    buffer = io.BytesIO()
+    wb.save(buffer)
+    stamp = _FIXED_TIME.strftime("%Y-%m-%dT%H:%M:%SZ").encode()
+    zip_time = _FIXED_TIME.timetuple()[:6]
+    out = io.BytesIO()
+    with zipfile.ZipFile(buffer) as src, zipfile.ZipFile(out, "w", zipfile.ZIP_DEFLATED) as dst:
+        for info in src.infolist():
+            data = src.read(info.filename)
+            if info.filename == "docProps/core.xml":
+                data = _MODIFIED.sub(rb"\g<1>" + stamp + rb"\g<2>", data)
+            member = zipfile.ZipInfo(info.filename, date_time=zip_time)
+            member.compress_type = zipfile.ZIP_DEFLATED
+            member.external_attr = info.external_attr
+            dst.writestr(member, data)
+    path = Path(path)
+    path.parent.mkdir(parents=True, exist_ok=True)
+    path.write_bytes(out.getvalue())
+    return path
+
+
+def write_catalogue(path: str | Path) -> Path:
+    """Write the Marrowby catalogue, one row per part with repeated layer column groups.
+
+    Parameters
+    ----------
+    path : str or Path
+        Where to write the new workbook (overwritten if it exists).
+
+    Returns
+    -------
+    Path
+        The path written.
+    """
+    wb = _new_workbook()
+    _write_materials(wb)
+    _write_table(wb.create_sheet("Parts"), _wide_part_headers(), [_wide_row(p) for p in _PARTS])
+    _write_read_me(wb, "Marrowby Pump & Drive: parts catalogue (sample book)", (
+        "Sheets: 'Materials' (one row per material; library materials named with their "
+        "properties left blank for the tool to fill in) and 'Parts' (one row per part; "
+        "layer 1 is the innermost layer, then outward).",
+        "Units sit in the column headers; a cell may carry its own unit, which overrides the "
+        "header's: the MPD-S-05x parts from the old US-built pump line are typed in inches, "
+        "lbf·in, lbf·ft and hp.",
+        "Duties are a torque, or a power at a speed (with a service factor where given). "
+        "MPD-S-0xx are sleeved pump shafts; MPD-T-2xx are hybrid line-shaft tubes "
+        "(aluminium tube, carbon-fibre over-wrap, steel end fitting inside at the ends).",
+        f"Rate it with:  twistshare rate {CATALOGUE_FILE} -o rated.xlsx",
+    ), CATALOGUE_FILE)
+    return _save_reproducibly(wb, Path(path))
+
+
+def write_catalogue_long(path: str | Path) -> Path:
+    """Write a smaller Marrowby catalogue with one row per layer keyed by part id.
+
+    Parameters
+    ----------
+    path : str or Path
+        Where to write the new workbook (overwritten if it exists).
+
+    Returns
+    -------
+    Path
+        The path written.
+    """
+    wb = _new_workbook()
+    _write_materials(wb)
+    _write_table(wb.create_sheet("Parts"), PART_HEADERS, [_part_cells(p) for p in _long_parts()])
+    _write_table(wb.create_sheet("Layers"), LAYER_HEADERS, _long_layer_rows())
+    _write_read_me(wb, "Marrowby Pump & Drive: parts catalogue, one row per layer (sample book)", (
+        "Sheets: 'Materials', 'Parts' (length and duty per part, no layer columns) and "
+        "'Layers' (one row per layer, keyed by part id; layer 1 is the innermost).",
+        f"The layers of {_LONG_REVERSED_PART} are listed outermost first on purpose: the layer "
+        "number, not the row order, says where a layer sits.",
+        f"Rate it with:  twistshare rate {CATALOGUE_LONG_FILE} -o rated.xlsx",
+    ), CATALOGUE_LONG_FILE)
+    return _save_reproducibly(wb, Path(path))
+
+
+_CELL_SHEET = "Shaft MPD-S-005"
+
+# Where the blocks sit on the cell-functions sheet; the formulas refer to these ranges.
+_LAYER_BLOCK = "B5:F8"
+_MATERIAL_BLOCK = "B11:H12"
+_TORQUE_PAIR = "B20:C20"  # value from TWS_TORQUE_FROM_POWER beside its unit
+
+
+def _fill_cell_functions_sheet(ws: Worksheet) -> None:
+    """One shaft's inputs, and formulas calling the cell functions (no cached values).
+
+    Functions that return one value per layer are written as array formulas over the
+    title cell and one row per layer, so every spreadsheet shows all the values.
+    """
+    from openpyxl.worksheet.formula import ArrayFormula
+
+    lay, mat, torque = _LAYER_BLOCK, _MATERIAL_BLOCK, _TORQUE_PAIR
+
+    def heading(cell: str, text: str) -> None:
+        ws[cell] = text
+        ws[cell].font = _HEADER_FONT
+
+    ws["A1"] = "MPD-S-005: pump shaft, bronze underlay + stainless sleeve (invented demo data)"
+    ws["A1"].font = _TITLE_FONT
+    ws["A2"] = ("Inputs carry their units, in a header or in the cell; the formulas call "
+                "twistshare's cell functions.")
+    heading("A4", "Layers, innermost first")
+    rows: list[tuple[Cell, ...]] = [
+        ("Layer", "Material", "Outer diameter [mm]", "Inner diameter [mm]",
+         "Allowable shear [MPa]", "Kt"),
+        # The core's allowable comes from its rule in the materials block; the sleeves' are
+        # typed, worked out with TWS_ALLOWABLE at the foot of the sheet.
+        (1, _Q2, 48, 0, None, 1.5),
+        (2, _AB, 52, 48, 55.6, None),
+        (3, _SS, 58, 52, 51.2, None),
+    ]
+    for r, row in enumerate(rows, start=5):
+        for c, value in enumerate(row, start=1):
+            ws.cell(row=r, column=c, value=value)
+        ws.cell(row=r, column=1).alignment = Alignment(horizontal="left")
+    for cell in ws[5]:
+        cell.font, cell.fill = _HEADER_FONT, _HEADER_FILL
+
+    heading("A10", "The works' own materials")
+    mat_rows: list[tuple[Cell, ...]] = [
+        ("Material", "G [GPa]", "Yield strength [MPa]", "Ultimate strength [MPa]",
+         "Allowable rule", "Factor of safety", "Keyway"),
+        (_Q2, 80, 650, 850, "distortion energy", 2.0, "no"),
+    ]
+    for r, row in enumerate(mat_rows, start=11):
+        for c, value in enumerate(row, start=2):
+            ws.cell(row=r, column=c, value=value)
+    for c in range(2, 9):
+        ws.cell(row=11, column=c).font = _HEADER_FONT
+        ws.cell(row=11, column=c).fill = _HEADER_FILL
+
+    heading("A14", "Duty and limits")
+    duty: list[tuple[Cell, Cell, Cell]] = [
+        ("Length", "800 mm", None),
+        ("Power", "45 kW", None),
+        ("Speed", "2950 rpm", None),
+        ("Service factor", 1.25, None),
+        ("Twist limit", "0.25°", None),
+        ("Torque", "=TWS_TORQUE_FROM_POWER(B16,B17,B18)", "N·m"),
+    ]
+    for r, row in enumerate(duty, start=15):
+        for c, value in enumerate(row, start=1):
+            ws.cell(row=r, column=c, value=value)
+
+    heading("A22", "Per layer")
+    ws["A23"] = "Layer"
+    for r, n in zip(range(24, 27), (1, 2, 3)):
+        ws.cell(row=r, column=1, value=n).alignment = Alignment(horizontal="left")
+    per_layer = {
+        "B": f"TWS_SHARE({lay},,{mat})",
+        "C": f"TWS_LAYER_CAPACITY({lay},,{mat})",
+        "D": f"TWS_STRESS({lay},{torque},,{mat})",
+    }
+    for col, formula in per_layer.items():
+        ref = f"{col}23:{col}26"
+        ws[f"{col}23"] = ArrayFormula(ref, f"={formula}")
+
+    heading("A28", "Whole shaft")
+    whole: list[tuple[str, str]] = [
+        ("Governing limit [N·m]", f"=TWS_GOVERNING_LIMIT({lay},B15,B19,,,{mat})"),
+        ("What governs", f"=TWS_GOVERNS({lay},B15,B19,,{mat})"),
+        ("Margin", f"=TWS_MARGIN({lay},{torque},B15,B19,,,{mat})"),
+        ("Twist angle [°]", f"=TWS_TWIST_ANGLE({lay},{torque},B15,,{mat})"),
+        ("Twist per length [°/m]", f"=TWS_TWIST_PER_LENGTH({lay},{torque},,{mat})"),
+        ("Stress at r = 24 mm, core side [MPa]", f'=TWS_STRESS_AT({lay},{torque},"24 mm",1,,{mat})'),
+        ("Stress at r = 24 mm, underlay side [MPa]",
+         f'=TWS_STRESS_AT({lay},{torque},"24 mm",2,,{mat})'),
+    ]
+    for r, (label, formula) in enumerate(whole, start=29):
+        ws.cell(row=r, column=1, value=label)
+        ws.cell(row=r, column=2, value=formula)
+
+    heading("A37", "Where the sleeves' allowables come from (library yield strengths)")
+    allowables: list[tuple[str, str]] = [
+        ("Aluminium bronze sleeve: distortion energy, FS 2.5 [MPa]",
+         '=TWS_ALLOWABLE("distortion energy","241 MPa",,2.5,"no")'),
+        ("Stainless sleeve: max shear, FS 2 [MPa]", '=TWS_ALLOWABLE("max shear","205 MPa",,2,"no")'),
+    ]
+    for r, (label, formula) in enumerate(allowables, start=38):
+        ws.cell(row=r, column=1, value=label)
+        ws.cell(row=r, column=2, value=formula)
+
+    ws.column_dimensions["A"].width = 44
+    for col in "BCDEFGH":
+        ws.column_dimensions[col].width = 24
+
+
+def write_cell_functions_book(path: str | Path) -> Path:
+    """Write a small book whose cells call the twistshare worksheet functions.
+
+    openpyxl cannot store cached values for formulas, so the formula cells hold none;
+    ``twistshare handout`` computes them where the cache is empty, and Excel with the add-in
+    computes them on opening.
+
+    Parameters
+    ----------
+    path : str or Path
+        Where to write the new workbook (overwritten if it exists).
+
+    Returns
+    -------
+    Path
+        The path written.
+    """
+    wb = _new_workbook()
+    _fill_cell_functions_sheet(wb.create_sheet(_CELL_SHEET))
+    _write_read_me(wb, "Marrowby Pump & Drive: rating one shaft with cell functions (sample book)", (
+        f"The sheet '{_CELL_SHEET}' rates one sleeved pump shaft with twistshare's worksheet "
+        "functions: the layer table holds the inputs with their units, the formulas below it "
+        "call the functions.",
+        "The formula cells were written without cached values: open the book in Excel with the "
+        "twistshare add-in to compute them, or run  twistshare handout "
+        f"{CELL_FUNCTIONS_FILE} -o handout.xlsx  to get a copy holding the values.",
+    ), CELL_FUNCTIONS_FILE)
+    return _save_reproducibly(wb, Path(path))
+
+
+def write_all(directory: str | Path) -> list[Path]:
+    """Write every sample book into a directory.
+
+    Parameters
+    ----------
+    directory : str or Path
+        Folder to write into (created if missing).
+
+    Returns
+    -------
+    list of Path
+        The books written, catalogue first.
+    """
+    directory = Path(directory)
+    directory.mkdir(parents=True, exist_ok=True)
+    return [
+        write_catalogue(directory / CATALOGUE_FILE),
+        write_catalogue_long(directory / CATALOGUE_LONG_FILE),
+        write_cell_functions_book(directory / CELL_FUNCTIONS_FILE),
+    ]

@@ -1,0 +1,87 @@
+"""``twistshare rate`` and ``twistshare check``: rate (or check) every part, write a copy."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from twistshare.engine.errors import BookUnusable
+from twistshare.engine.intake import BookRating, Display, Severity, rate_tables
+
+from ..ooxml import BookWriter, OoxmlError
+from ..sheets import add_rating_sheets, add_warnings_sheet, write_comments
+from ._output import EXIT_OK, EXIT_PART_ERRORS, fail, open_for_rating, say, write_book
+from ._progress import Progress
+
+__all__ = ["run_rate", "run_check"]
+
+
+def _report(result: BookRating, out: Path | None, quiet: bool, verb: str) -> None:
+    errors = [f for f in result.problems if f.severity is Severity.ERROR]
+    warns = [f for f in result.problems if f.severity is Severity.WARNING]
+    if not quiet:
+        for f in result.problems:
+            if f.severity is not Severity.NOTE:
+                say("  " + f.line())
+    n = result.parts.count if result.parts else 0
+    rated = int(result.rated.sum()) if result.rated is not None else 0
+    failing = 0
+    if result.rating is not None and result.rated is not None:
+        failing = int((result.rating.margin[result.rated] < 0).sum())
+    where = f"; wrote {out}" if out else ""
+    if verb == "rate":
+        print(f"twistshare: rated {rated} of {n} parts, {failing} failing, {len(errors)} errors, "
+              f"{len(warns)} warnings{where}")
+    else:
+        print(f"twistshare: checked {n} parts: {len(errors)} errors, {len(warns)} warnings{where}")
+
+
+def _exit_code(result: BookRating) -> int:
+    return EXIT_PART_ERRORS if any(f.severity is Severity.ERROR for f in result.problems) else EXIT_OK
+
+
+def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str = "book", quiet: bool = False,
+             profile_part: str | None = None) -> int:
+    """Rate every part of `book_path` and write the rated copy to `out`; the exit code."""
+    progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
+    try:
+        progress.step("check package")
+        book = open_for_rating(book_path, out)
+        progress.step("read tables")
+        result = rate_tables(book)
+    except (OoxmlError, BookUnusable) as exc:
+        progress.finish()
+        return fail(str(exc))
+    progress.step("write")
+    display = Display(result.system if units == "book" else units)
+    try:
+        with BookWriter(book_path) as writer:
+            add_rating_sheets(writer, result, display, profile_part)
+            write_comments(writer, result, result.problems)
+            previous = write_book(writer, out, in_place)
+    except (OoxmlError, BookUnusable) as exc:
+        progress.finish()
+        return fail(str(exc))
+    if previous:
+        say(f"twistshare: kept the file that was at {out} as {previous}")
+    progress.finish()
+    _report(result, out, quiet, "rate")
+    return _exit_code(result)
+
+
+def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
+    """Check the tables of `book_path` only: a copy with the warnings sheet and comments."""
+    try:
+        result = rate_tables(open_for_rating(book_path, out))
+    except (OoxmlError, BookUnusable) as exc:
+        return fail(str(exc))
+    try:
+        with BookWriter(book_path) as writer:
+            add_warnings_sheet(writer, result.problems)
+            write_comments(writer, result, result.problems)
+            previous = write_book(writer, out, in_place)
+    except (OoxmlError, BookUnusable) as exc:
+        return fail(str(exc))
+    if previous:
+        say(f"twistshare: kept the file that was at {out} as {previous}")
+    _report(result, out, quiet, "check")
+    return _exit_code(result)

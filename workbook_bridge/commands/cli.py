@@ -1,0 +1,116 @@
+"""The ``twistshare`` command: rate, check, handout, demo, functions.
+
+Exit codes: 0 every part rated; 1 some parts had errors (the output is still written);
+2 the input is unusable (nothing written), with a one-line reason.
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import sys
+from pathlib import Path
+
+from .. import __version__
+from ._output import EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE
+
+__all__ = ["main"]
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="twistshare",
+        description="Rate compound shafts in torsion from a workbook of parts and materials. "
+        "A preliminary design aid: verify against the applicable codes and standards and have a "
+        "qualified engineer review the results.",
+    )
+    p.add_argument("--version", action="version", version=f"twistshare {__version__}")
+    sub = p.add_subparsers(dest="command", required=True, metavar="COMMAND")
+
+    def book_command(name: str, help_: str, suffix: str, *, rating: bool = True) -> argparse.ArgumentParser:
+        c = sub.add_parser(name, help=help_, description=help_)
+        c.add_argument("book", type=Path, help="the workbook (.xlsx or .xlsm); it is never modified")
+        c.add_argument("-o", "--output", type=Path, default=None,
+                       help=f"where to write the new workbook (default: BOOK{suffix}.xlsx beside the input)")
+        if rating:
+            c.add_argument("--in-place", action="store_true",
+                           help="write into the input file itself, after keeping a timestamped backup copy")
+        c.add_argument("-q", "--quiet", action="store_true", help="print only the one-line result")
+        if rating:
+            c.add_argument("--lenient", action="store_true",
+                           help="exit 0 when the output was written even if some parts had errors "
+                           "(they are still flagged in the output); 2 still means nothing was written")
+        return c
+
+    r = book_command("rate", "rate every part: results, summary and warnings sheets, comments on input cells",
+                     "-rated")
+    r.add_argument("--units", choices=["book", "SI", "US"], default="book", type=_unit_system,
+                   help="unit system of the results (default: that of the book's parts table)")
+    r.add_argument("--profile-part", default=None,
+                   help="part whose shear stress across the radius is charted (default: the lowest margin)")
+    book_command("check", "validate the tables only: warnings as comments in a copy, a report here",
+                 "-checked")
+    book_command("handout", "a values-only copy for people without the add-in: every formula calling a "
+                 "twistshare cell function replaced by its value (the formula kept in the cell's comment)",
+                 "-handout", rating=False)
+    d = sub.add_parser("demo", help="write the sample books", description="write the sample books")
+    d.add_argument("directory", nargs="?", type=Path, default=Path("twistshare-samples"))
+    sub.add_parser("functions", help="list every cell function with its arguments, units and description")
+    return p
+
+
+def _unit_system(text: str) -> str:
+    """'si', 'Si', 'us' ... as the choices are spelled."""
+    return {"book": "book", "si": "SI", "us": "US"}.get(text.strip().lower(), text)
+
+
+def _default_output(book: Path, suffix: str) -> Path:
+    ext = book.suffix if book.suffix.lower() in (".xlsx", ".xlsm") else ".xlsx"
+    return book.with_name(f"{book.stem}{suffix}{ext}")
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Run the command line; returns the exit code (0, 1 or 2)."""
+    args = _parser().parse_args(argv)
+    try:
+        return _run(args)
+    except KeyboardInterrupt:
+        print("twistshare: interrupted; nothing was written under the output name", file=sys.stderr)
+        return EXIT_UNUSABLE
+    except Exception as exc:  # a bug of ours: one clear line, never a traceback, nothing written
+        if os.environ.get("TWISTSHARE_DEBUG"):
+            raise
+        print(f"twistshare: internal error ({type(exc).__name__}: {' '.join(str(exc).split())[:300]}); "
+              "nothing was written. Please report it with the book if you can; "
+              "TWISTSHARE_DEBUG=1 shows the details", file=sys.stderr)
+        return EXIT_UNUSABLE
+
+
+def _run(args: argparse.Namespace) -> int:
+    from ._demo import run_demo
+    from ._functions_list import run_functions
+    from ._handout import run_handout
+    from ._rate import run_check, run_rate
+
+    if args.command == "functions":
+        return run_functions()
+    if args.command == "demo":
+        return run_demo(args.directory)
+    suffix = {"rate": "-rated", "check": "-checked", "handout": "-handout"}[args.command]
+    if args.command == "handout":
+        return run_handout(args.book, args.output or _default_output(args.book, suffix), quiet=args.quiet)
+    if args.in_place and args.output is not None:
+        print("twistshare: --in-place writes into the book itself and -o names another file: give one "
+              "of the two; nothing was written", file=sys.stderr)
+        return EXIT_UNUSABLE
+    out = args.book if args.in_place else (args.output or _default_output(args.book, suffix))
+    if args.command == "rate":
+        code = run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
+                        profile_part=args.profile_part)
+    else:
+        code = run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
+    return EXIT_OK if (args.lenient and code == EXIT_PART_ERRORS) else code
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())
