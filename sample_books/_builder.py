@@ -31,22 +31,22 @@ from ._scenario import (  # the scenario's data, written here
     LAYER_HEADERS,
     MATERIAL_HEADERS,
     PART_HEADERS,
-    PlantedProblem,
+    _AB,
     _AUTHOR,
     _FIXED_TIME,
     _INVENTED_NOTE,
-    _LAYER_ATTRS,
-    _LONG_ORPHAN,
-    _LONG_PART_IDS,
     _LONG_REVERSED_PART,
-    _Layer,
     _MATERIAL_ROWS,
     _PARTS,
-    _PART_ATTRS,
     _Part,
+    _Q2,
+    _SS,
+    _layer_cells,
+    _long_layer_rows,
+    _long_parts,
+    _part_cells,
     _wide_part_headers,
     planted_problems,
-    sample_part_ids,
 )
 
 __all__ = ["write_catalogue", "write_catalogue_long", "write_cell_functions_book", "write_all"]
@@ -72,54 +72,12 @@ def _write_materials(wb: Workbook) -> None:
     _write_table(wb.create_sheet("Materials"), MATERIAL_HEADERS, list(_MATERIAL_ROWS))
 
 
-def _part_cells(part: _Part) -> tuple[Cell, ...]:
-    return tuple(getattr(part, a) for a in _PART_ATTRS)
-
-
-def _layer_cells(layer: _Layer) -> tuple[Cell, ...]:
-    return tuple(getattr(layer, a) for a in _LAYER_ATTRS)
-
-
 def _wide_row(part: _Part) -> tuple[Cell, ...]:
     cells: list[Cell] = list(_part_cells(part))
     for layer in part.layers:
         cells.extend(_layer_cells(layer))
     cells.extend([None] * (len(_wide_part_headers()) - len(cells)))
     return tuple(cells)
-
-
-def _long_parts() -> tuple[_Part, ...]:
-    by_id = {p.part: p for p in _PARTS}
-    return tuple(by_id[pid] for pid in _LONG_PART_IDS)
-
-
-def _long_layer_rows() -> list[tuple[Cell, ...]]:
-    rows: list[tuple[Cell, ...]] = []
-    for part in _long_parts():
-        numbered = list(enumerate(part.layers, start=1))
-        if part.part == _LONG_REVERSED_PART:
-            numbered.reverse()
-        for n, layer in numbered:
-            rows.append((part.part, n, *_layer_cells(layer)))
-            if part.part == _LONG_DUPLICATE_PART and n == _LONG_DUPLICATE_LAYER:
-                rows.append((part.part, n, *_layer_cells(layer)))
-    rows.append(_LONG_ORPHAN)
-    return rows
-
-
-def _long_special_rows() -> tuple[int, int]:
-    """1-based Layers-sheet rows of the orphan layer and the repeated layer."""
-    rows = _long_layer_rows()
-    orphan = rows.index(_LONG_ORPHAN) + 2
-    seen: set[tuple[Cell, Cell]] = set()
-    duplicate = -1
-    for i, row in enumerate(rows):
-        key = (row[0], row[1])
-        if key in seen:
-            duplicate = i + 2
-            break
-        seen.add(key)
-    return orphan, duplicate
 
 
 def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) -> None:

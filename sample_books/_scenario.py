@@ -10,6 +10,8 @@ import datetime as _dt
 from dataclasses import dataclass
 from typing import Union
 
+from openpyxl.utils import get_column_letter
+
 from twistshare.engine.intake import CAUTION_LINES
 
 CATALOGUE_FILE = "marrowby_catalogue.xlsx"
@@ -365,3 +367,44 @@ def sample_part_ids() -> tuple[str, ...]:
 # Writing
 # --------------------------------------------------------------------------------------------
 
+
+def _part_cells(part: _Part) -> tuple[Cell, ...]:
+    return tuple(getattr(part, a) for a in _PART_ATTRS)
+
+
+def _layer_cells(layer: _Layer) -> tuple[Cell, ...]:
+    return tuple(getattr(layer, a) for a in _LAYER_ATTRS)
+
+
+def _long_parts() -> tuple[_Part, ...]:
+    by_id = {p.part: p for p in _PARTS}
+    return tuple(by_id[pid] for pid in _LONG_PART_IDS)
+
+
+def _long_layer_rows() -> list[tuple[Cell, ...]]:
+    rows: list[tuple[Cell, ...]] = []
+    for part in _long_parts():
+        numbered = list(enumerate(part.layers, start=1))
+        if part.part == _LONG_REVERSED_PART:
+            numbered.reverse()
+        for n, layer in numbered:
+            rows.append((part.part, n, *_layer_cells(layer)))
+            if part.part == _LONG_DUPLICATE_PART and n == _LONG_DUPLICATE_LAYER:
+                rows.append((part.part, n, *_layer_cells(layer)))
+    rows.append(_LONG_ORPHAN)
+    return rows
+
+
+def _long_special_rows() -> tuple[int, int]:
+    """1-based Layers-sheet rows of the orphan layer and the repeated layer."""
+    rows = _long_layer_rows()
+    orphan = rows.index(_LONG_ORPHAN) + 2
+    seen: set[tuple[Cell, Cell]] = set()
+    duplicate = -1
+    for i, row in enumerate(rows):
+        key = (row[0], row[1])
+        if key in seen:
+            duplicate = i + 2
+            break
+        seen.add(key)
+    return orphan, duplicate

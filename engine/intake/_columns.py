@@ -222,6 +222,12 @@ def read_numeric(
                                       is_error=(r, col) in grid.errors)
         if problem is not None:
             bad[i] = True
+            if code == "unit" and header_issue and column.unit is None and key not in header_problem_reported \
+                    and header_row >= 0 and not isinstance(raw, str):
+                # a bare number needs the header's unit: say so on the header too, once
+                header_problem_reported.add(key)
+                findings.append(Problem(Severity.ERROR, grid.name, cell_ref(header_row, column.index), header_issue,
+                                        code="header-no-unit", values=(column.header,)))
             findings.append(
                 Problem(Severity.ERROR, grid.name, cell_ref(r, col), f"{who(r)}: {field.description}: {problem}",
                         *tag(r), code=code, values=(raw,))

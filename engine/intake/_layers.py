@@ -88,17 +88,14 @@ def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, find
     for i, text in enumerate(names):
         if text is None or not (text[:1].isdigit() or text[:1] in "+-." and text[1:2].isdigit()):
             continue
-        # A cell starting with a digit is a modulus written with its unit ("79 GPa"), never a name.
-        r = rows[i]
-        names[i] = None
+        # Text that reads as a stress with its unit ("79 GPa") is the layer's modulus; anything
+        # else ("1045", "42") is a material name.
         try:
             value = parse_value(text, "stress")
-        except UnitProblem as exc:
-            bad[i] = True
-            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, column.index),
-                                    f"{who(r)}: material: {exc}; expected a material name or a shear "
-                                    "modulus G with its unit", *tag(r), code="unit", values=(text,)))
+        except UnitProblem:
             continue
+        r = rows[i]
+        names[i] = None
         low, high = _MODULUS.plausible.low, _MODULUS.plausible.high
         if not low <= value <= high:
             bad[i] = True

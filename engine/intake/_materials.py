@@ -191,8 +191,9 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
         lib = find_material(name)
         problem: str | None = None
         if any(is_bad(k) for k in num):
-            first = bad_cells.get(r)
-            problem = first if first else f"material {name!r} has unusable properties (see the comments on its row)"
+            first = bad_cells.get(r, "").removeprefix(f"material {name!r}: ")
+            problem = f"material {name!r} has an unusable property" + (f": {first}" if first else
+                                                                        " (see the comments on its row)")
         given = frozenset(k for k in num if not math.isnan(vals[k]) or is_bad(k))
         if lib is not None:
             vals, filled = complete_from_library(vals, lib, given)

@@ -23,7 +23,7 @@ from hypothesis import HealthCheck, Phase, given, settings
 from hypothesis import strategies as st
 
 from twistshare.engine.core import find_material
-from twistshare.workbook_bridge.cli import main
+from twistshare.workbook_bridge.commands import main
 
 import _bookmaker
 

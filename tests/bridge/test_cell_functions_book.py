@@ -18,7 +18,7 @@ import pytest
 
 from twistshare.engine.core import Duty, LayerStack, find_material, rate
 from twistshare.engine.cells import list_functions
-from twistshare.workbook_bridge.cli import main
+from twistshare.workbook_bridge.commands import main
 
 ROOT = Path(__file__).resolve().parents[2]
 BOOK = ROOT / "sample_books" / "marrowby_cell_functions.xlsx"
@@ -27,7 +27,7 @@ BOOK = ROOT / "sample_books" / "marrowby_cell_functions.xlsx"
 @pytest.fixture(scope="module")
 def shared(tmp_path_factory):
     out = tmp_path_factory.mktemp("cells") / "shared.xlsx"
-    assert main(["share", str(BOOK), "-o", str(out), "-q"]) == 0
+    assert main(["handout", str(BOOK), "-o", str(out), "-q"]) == 0
     return openpyxl.load_workbook(out)["Shaft MPD-S-005"]
 
 

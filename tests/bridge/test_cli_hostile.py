@@ -22,8 +22,8 @@ from pathlib import Path
 
 import pytest
 
-from twistshare.workbook_bridge._commands import MAX_TABLE_ROWS
-from twistshare.workbook_bridge.cli import main
+from twistshare.workbook_bridge.reading import MAX_TABLE_ROWS
+from twistshare.workbook_bridge.commands import main
 
 import _bookmaker
 
@@ -379,13 +379,13 @@ def test_unusable_input_rate(name, tmp_path):
     _assert_unusable(book, run_in_process, "rate", words, tmp_path)
 
 
-@pytest.mark.parametrize("command", ["check", "share"])
+@pytest.mark.parametrize("command", ["check", "handout"])
 @pytest.mark.parametrize("name", ["zip bomb (ratio)", "billion laughs in a sheet", "truncated zip",
                                   "password-protected workbook", "no Parts table", "missing file"])
 def test_unusable_input_other_commands(name, command, tmp_path):
     """``check`` and ``share`` refuse the same files the same way."""
     build, words = UNUSABLE[name]
-    if command == "share" and name == "no Parts table":
+    if command == "handout" and name == "no Parts table":
         pytest.skip("share copies any book's formulas; a book without parts is not unusable to it")
     _assert_unusable(build(tmp_path), run_in_process, command, words, tmp_path)
 
@@ -406,7 +406,7 @@ def test_huge_sheet_is_refused_before_it_is_loaded(tmp_path):
     """
     book = huge_last_row_small_dimension(tmp_path)
     small = valid_book(tmp_path / "small.xlsx")
-    code = ("import resource, sys; from twistshare.workbook_bridge.cli import main; "
+    code = ("import resource, sys; from twistshare.workbook_bridge.commands import main; "
             "rc = main(['rate', sys.argv[1], '-o', sys.argv[2], '-q']); "
             "print(resource.getrusage(resource.RUSAGE_SELF).ru_maxrss)")
     peaks = {}

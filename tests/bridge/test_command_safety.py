@@ -9,7 +9,7 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from twistshare.workbook_bridge.cli import main
+from twistshare.workbook_bridge.commands import main
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 CATALOGUE = SAMPLES / "marrowby_catalogue.xlsx"
@@ -43,13 +43,24 @@ def test_an_existing_output_is_kept_as_a_backup(tmp_path, capsys):
     assert "kept the file" in capsys.readouterr().err
 
 
-def test_share_in_place_is_refused(tmp_path, capsys):
+def test_handout_never_replaces_the_book(tmp_path, capsys):
     src = tmp_path / "cells.xlsx"
     shutil.copy(SAMPLES / "marrowby_cell_functions.xlsx", src)
     before = _sha(src)
-    assert main(["share", str(src), "--in-place", "-q"]) == 2
-    assert "replace your own formulas" in capsys.readouterr().err
+    with pytest.raises(SystemExit):  # the handout offers no --in-place at all
+        main(["handout", str(src), "--in-place", "-q"])
+    assert main(["handout", str(src), "-o", str(src), "-q"]) == 2
+    assert "never replaces your book" in capsys.readouterr().err
     assert _sha(src) == before
+
+
+def test_in_place_with_an_output_name_is_refused(tmp_path, capsys):
+    src = tmp_path / "book.xlsx"
+    shutil.copy(CATALOGUE, src)
+    before = _sha(src)
+    assert main(["rate", str(src), "--in-place", "-o", str(tmp_path / "other.xlsx"), "-q"]) == 2
+    assert "give one of the two" in capsys.readouterr().err
+    assert _sha(src) == before and not (tmp_path / "other.xlsx").exists()
 
 
 def _book(tmp_path: Path, headers: list[str], row: list) -> Path:

@@ -2,9 +2,9 @@
 
 import pytest
 
-from twistshare.workbook_bridge._formulas import (
+from twistshare.workbook_bridge.commands._formula_eval import (
     NotEvaluable, evaluate_formula, find_our_formulas, shift_formula)
-from twistshare.workbook_bridge._grid import SheetGrid
+from twistshare.engine.intake import SheetGrid
 
 NAMES = frozenset({"TWS_ECHO", "TWS_SUM"})
 

@@ -15,8 +15,8 @@ import openpyxl
 import pytest
 
 from twistshare.engine.core import AllowableRule, find_material
-from twistshare.workbook_bridge._book_rating import rate_open_book
-from twistshare.workbook_bridge._commands import prepare
+from twistshare.engine.intake import rate_tables as rate_open_book
+from twistshare.workbook_bridge.commands._output import prepare
 
 MAT_HEAD = ["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Allowable shear [MPa]", "Yield strength [MPa]",
             "Ultimate strength [MPa]", "Allowable rule", "Factor of safety", "Keyway"]
@@ -42,7 +42,7 @@ def _rate(tmp_path: Path, materials: list[list], parts: list[list]):
 
 
 def _messages(result, severity=None) -> str:
-    return "\n".join(f.message for f in result.findings if severity is None or f.severity.value == severity)
+    return "\n".join(f.message for f in result.problems if severity is None or f.severity.value == severity)
 
 
 def test_wound_tube_keeps_its_laminate_g_when_only_e_is_given(tmp_path):
@@ -95,7 +95,7 @@ def test_library_steel_named_directly_gets_the_code_rule_with_a_warning(tmp_path
     lib = find_material("AISI 4140 quenched and tempered")
     expected = min(0.30 * lib.yield_strength, 0.18 * lib.ultimate_strength)  # the code rule
     assert r.materials.by_name["aisi 4140 quenched and tempered"].allowable_shear == pytest.approx(expected)
-    warnings = [f for f in r.findings if "not in the book's materials table" in f.message]
+    warnings = [f for f in r.problems if "is not in the materials table" in f.message]
     assert len(warnings) == 1  # once, where the material is first used
 
 

@@ -14,7 +14,7 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from twistshare.workbook_bridge.cli import main
+from twistshare.workbook_bridge.commands import main
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 SOFFICE = shutil.which("soffice") or shutil.which("libreoffice")
@@ -28,7 +28,7 @@ def outputs(tmp_path_factory) -> list[Path]:
         (["rate", str(SAMPLES / "marrowby_catalogue.xlsx")], "rated.xlsx"),
         (["rate", str(SAMPLES / "marrowby_catalogue_by_layer.xlsx"), "--units", "US"], "rated_us.xlsx"),
         (["check", str(SAMPLES / "marrowby_catalogue.xlsx")], "checked.xlsx"),
-        (["share", str(SAMPLES / "marrowby_cell_functions.xlsx")], "shared.xlsx"),
+        (["handout", str(SAMPLES / "marrowby_cell_functions.xlsx")], "shared.xlsx"),
     ):
         out = d / name
         assert main(args + ["-o", str(out), "-q"]) in (0, 1)

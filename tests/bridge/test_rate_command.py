@@ -20,8 +20,8 @@ import pytest
 
 from twistshare.engine.core import AllowableRule, Duty, LayerStack, allowable_shear, find_material, rate
 from twistshare.engine.units import UnitProblem, parse_value, split_header
-from twistshare.workbook_bridge._sample_books import planted_problems
-from twistshare.workbook_bridge.cli import main
+from twistshare.sample_books import planted_problems
+from twistshare.workbook_bridge.commands import main
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 CATALOGUE = SAMPLES / "marrowby_catalogue.xlsx"
@@ -287,7 +287,7 @@ class TestOtherBooksAndCommands:
 
     def test_share_leaves_no_formula_calling_our_functions(self, tmp_path):
         out = tmp_path / "shared.xlsx"
-        code = main(["share", str(SAMPLES / "marrowby_cell_functions.xlsx"), "-o", str(out), "-q"])
+        code = main(["handout", str(SAMPLES / "marrowby_cell_functions.xlsx"), "-o", str(out), "-q"])
         assert code == 0
         with zipfile.ZipFile(out) as z:
             for name in z.namelist():

@@ -14,7 +14,7 @@ from openpyxl.worksheet.formula import ArrayFormula
 
 from twistshare.engine.core import material_library
 from twistshare.engine.units import parse_value
-from twistshare.workbook_bridge import _sample_books as sb
+from twistshare.sample_books import _builder as sb
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 BOOKS = (sb.CATALOGUE_FILE, sb.CATALOGUE_LONG_FILE, sb.CELL_FUNCTIONS_FILE)

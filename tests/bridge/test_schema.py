@@ -2,7 +2,7 @@
 
 import pytest
 
-from twistshare.workbook_bridge._schema import (
+from twistshare.engine.intake._schema import (
     LAYER_FIELDS, MATERIAL_FIELDS, PART_FIELDS, match_header, match_layer_group_header)
 
 

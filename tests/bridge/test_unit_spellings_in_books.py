@@ -20,7 +20,7 @@ from pathlib import Path
 
 import pytest
 
-from twistshare.workbook_bridge.cli import main
+from twistshare.workbook_bridge.commands import main
 
 import _bookmaker
 

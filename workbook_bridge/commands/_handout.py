@@ -11,7 +11,7 @@ import zipfile
 from pathlib import Path
 
 from twistshare.engine.errors import BookUnusable
-from twistshare.engine.intake import parse_ref
+from twistshare.engine.intake import cell_ref, parse_ref
 
 from ..ooxml import BookWriter, Cell, OoxmlError
 from ..sheets import caution_rows
