@@ -284,7 +284,7 @@ def _fill_cell_functions_sheet(ws: Worksheet) -> None:
     whole: list[tuple[str, str]] = [
         ("Governing limit [N·m]", f"=TWS_GOVERNING_LIMIT({lay},B15,B19,,,{mat})"),
         ("What governs", f"=TWS_GOVERNS({lay},B15,B19,,{mat})"),
-        ("Margin", f"=TWS_MARGIN({lay},{torque},B15,B19,,,{mat})"),
+        ("Margin [%]", f"=TWS_MARGIN({lay},{torque},B15,B19,,,{mat})"),
         ("Twist angle [°]", f"=TWS_TWIST_ANGLE({lay},{torque},B15,,{mat})"),
         ("Twist per length [°/m]", f"=TWS_TWIST_PER_LENGTH({lay},{torque},,{mat})"),
         ("Stress at r = 24 mm, core side [MPa]", f'=TWS_STRESS_AT({lay},{torque},"24 mm",1,,{mat})'),

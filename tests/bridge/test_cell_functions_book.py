@@ -65,11 +65,20 @@ def test_shares_capacities_and_stresses(shared, expected):
 def test_governing_limit_margin_and_twist(shared, expected):
     r = expected["rating"]
     assert shared["B29"].value == pytest.approx(float(r.governing_capacity[0]), rel=1e-9)
-    assert shared["B31"].value == pytest.approx(float(r.margin[0]), rel=1e-9)
+    assert shared["B31"].value == pytest.approx(100 * float(r.margin[0]), rel=1e-9)  # Margin [%]
     phi = expected["torque"] * 0.8 / expected["sum_gj"]  # φ = T·L/ΣGJ
     assert shared["B32"].value == pytest.approx(math.degrees(phi), rel=1e-9)
     assert shared["B33"].value == pytest.approx(math.degrees(phi / 0.8), rel=1e-9)
-    assert shared["B30"].value.startswith(("layer", "twist"))
+    # Exactly what governs, from the hand method (the smallest capacity governs, common
+    # practice): each layer's τa·ΣGJ/(G·ro·Kt) against the twist limit's φ·ΣGJ/L.
+    e = expected
+    caps = [e["tau"][i] * e["sum_gj"] / (e["g"][i] * e["od"][i] / 2 * e["kt"][i]) for i in range(3)]
+    twist_cap = math.radians(0.25) * e["sum_gj"] / 0.8
+    if twist_cap < min(caps):
+        assert shared["B30"].value == "twist angle limit"
+    else:
+        k = caps.index(min(caps))
+        assert shared["B30"].value == f"layer {k + 1} stress ({shared[f'B{6 + k}'].value})"
 
 
 def test_stress_jumps_at_the_interface(shared, expected):

@@ -424,6 +424,6 @@ def test_cell_functions_book_inputs_rate_as_a_hand_calculation():
     twist_cap = math.radians(0.25) * total / 0.8
     got = cells.TWS_GOVERNING_LIMIT(layers, length, twist_limit, None, None, materials)
     assert got == pytest.approx(min(caps + [twist_cap]), rel=1e-9)
-    assert cells.TWS_GOVERNS(layers, length, twist_limit, None, materials) == "twist angle"
+    assert cells.TWS_GOVERNS(layers, length, twist_limit, None, materials) == "twist angle limit"
     shares = [row[0] for row in cells.TWS_SHARE(layers, None, materials)[1:]]
     assert shares == pytest.approx([x / total for x in gj], rel=1e-9)

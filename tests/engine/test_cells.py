@@ -402,7 +402,7 @@ class TestMaterials:
 
     def test_problems(self):
         assert_warning(TWS_SHARE([["Broken", "40 mm", 0]], None, self.MATERIALS),
-                       "material 'Broken': shear modulus G: -3 GPa is negative")
+                       "material 'Broken' has an unusable property: shear modulus G: -3 GPa is negative")
         # A library stainless named with no row takes the shafting code rule with the library's
         # Sy 205, Su 515 MPa (ASTM A276 minima, from memory): min(61.5, 92.7) = 61.5 MPa; T = τJ/r.
         assert TWS_LAYER_CAPACITY([[STAINLESS, "40 mm", 0, None]])[0][0] == pytest.approx(
