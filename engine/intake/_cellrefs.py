@@ -19,6 +19,13 @@ class CellRefs:
         self._sheet, self._rows = sheet, rows
         self._columns: dict[tuple, int] = {}
         self._cells: dict[tuple, tuple[str, str]] = {}
+        self._rowmap = None
+        self._field_cols: dict[str, int] = {}
+
+    def by_layer(self, rowmap, field_cols: dict[str, int]) -> None:
+        """Register a row-per-layer table: ``rowmap[part, slot]`` is the table row of that layer
+        (-1: none) and ``field_cols`` the column of each field."""
+        self._rowmap, self._field_cols = rowmap, dict(field_cols)
 
     def column(self, key: tuple, col: int) -> None:
         """Register a whole column: ``key`` without the part index, e.g. ``(slot, "kt")``."""
@@ -32,6 +39,10 @@ class CellRefs:
         got = self._cells.get(key)
         if got is not None:
             return got
+        if self._rowmap is not None and len(key) == 3:
+            col = self._field_cols.get(key[2])
+            row = int(self._rowmap[key[0], key[1]])
+            return default if col is None or row < 0 else (self._sheet, cell_ref(row, col))
         col = self._columns.get(key[1:])
         if col is None:
             return default

@@ -256,18 +256,20 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> list[str | None]:
 
 def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings: list[Problem]) -> LayerArrays:
     """Layers from a table with one row per layer: a Part column, an optional Layer column
-    (without it, the rows of a part are its layers innermost first), and the layer fields."""
+    (without it, the rows of a part are its layers innermost first), and the layer fields.
+
+    Whole columns at once; only the rows that need a message are visited one by one.
+    """
     rows = list(spot.data_rows)
+    n_rows = len(rows)
     pcol, lcol = spot.column("part"), spot.column("layer")
-    keys = part_keys(grid, spot) if pcol is not None else [""] * len(rows)
+    keys = part_keys(grid, spot) if pcol is not None else [""] * n_rows
     header_seen: set[tuple[str, int]] = set()
     index = {pid: i for i, pid in enumerate(ids)}
     layer_no, lay_nc = _layer_numbers(grid, spot, rows, keys, findings, header_seen)
     n_layers = max([x for x in layer_no if x] or [1])
     n = len(ids)
-    cells = CellRefs(grid.name, rows)  # each layer has its own row: references set one by one
-    out = LayerArrays.empty(n, n_layers, cells)
-    placed: list[tuple[int, int, int]] = []  # (row in this table, part, slot)
+    out = LayerArrays.empty(n, n_layers, CellRefs(grid.name, rows))
     row_index = {r: i for i, r in enumerate(rows)}
 
     def who(r: int) -> str:
@@ -283,69 +285,81 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     if mcol is not None:
         names, modulus, mbad = _material_column(grid, mcol, rows, who, findings, spot.header_row, header_seen)
     else:
-        names, modulus, mbad = [None] * len(rows), np.full(len(rows), np.nan), np.zeros(len(rows), bool)
-    for i, r in enumerate(rows):
-        pid = keys[i]
-        err = error_problem(grid, r, pcol.index, "a part id") if pcol is not None else None
-        if err is not None:
-            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
-                                    f"{spot.sheet} row {r + 1}: the part id: {err}; the layer is ignored",
-                                    code="error-value"))
-            continue
-        if pid is None:
-            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
-                                    f"{spot.sheet} row {r + 1}: the layer names no part (a blank part cell "
-                                    "continues the part above, and there is none); the row is ignored",
-                                    code="missing", values=(r + 1,)))
-            continue
-        p = index.get(pid)
-        if p is None:
-            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, pcol.index),
-                                    f"{spot.sheet} row {r + 1}: part {pid} is not in the parts table; "
-                                    "the layer is ignored", code="unknown-part"))
-            continue
-        j = layer_no[i]
-        if j is None:
-            if lay_nc is None or not lay_nc.bad[i]:
-                findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, lcol.index) if lcol else None,
-                                        f"{where_text(pid)}: layer number must be a whole number from 1 (innermost)",
-                                        part=pid, code="layer-number"))
-            out.bad[p] = True
-            continue
-        j -= 1
-        if out.present[p, j]:
-            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, lcol.index) if lcol else None,
-                                    f"{where_text(pid, j + 1)}: the layer is given twice; the part is not rated",
-                                    part=pid, layer=j + 1, code="layer-twice"))
-            out.bad[p] = True
-            continue
-        out.present[p, j] = True
-        out.materials[p][j] = names[i]
-        out.shear_modulus[p, j] = modulus[i]
-        if mbad[i]:
-            out.bad[p] = True
-        if mcol:
-            cells[(p, j, "material")] = (grid.name, cell_ref(r, mcol.index))
-            err = error_problem(grid, r, mcol.index, "a material name")
+        names, modulus, mbad = [None] * n_rows, np.full(n_rows, np.nan), np.zeros(n_rows, bool)
+
+    part = np.fromiter((index.get(k, -1) if k is not None else -2 for k in keys), np.intp, n_rows)
+    slot = np.fromiter((x - 1 if x else -1 for x in layer_no), np.intp, n_rows)
+    error_row = np.zeros(n_rows, bool)
+    if grid.errors and pcol is not None:
+        error_row = np.fromiter((grid.error_at(r, pcol.index) is not None for r in rows), bool, n_rows)
+    ok = (part >= 0) & (slot >= 0) & ~error_row
+    # A layer given twice in a part: the later rows are refused.
+    flat = part * n_layers + slot
+    take = np.flatnonzero(ok)
+    order = take[np.argsort(flat[take], kind="stable")]
+    twice = order[1:][np.diff(flat[order]) == 0]
+    ok[twice] = False
+    for i in np.flatnonzero(~ok).tolist():
+        _refuse_layer_row(grid, spot, rows[i], keys[i], part[i], slot[i], error_row[i], i in set(twice.tolist()),
+                          lay_nc is not None and bool(lay_nc.bad[i]), out, findings)
+    src = np.flatnonzero(ok)
+    p, j = part[src], slot[src]
+    out.present[p, j] = True
+    out.shear_modulus[p, j] = modulus[src]
+    out.bad[p[mbad[src]]] = True
+    materials = out.materials
+    for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
+        materials[pi][ji] = names[i]
+    rowmap = np.full(out.present.shape, -1, dtype=np.intp)
+    rowmap[p, j] = np.asarray(rows, dtype=np.intp)[src]
+    out.cells.by_layer(rowmap, {key: c.index for key in (*_NUMERIC_KEYS, "material")
+                                if (c := spot.column(key)) is not None})
+    if mcol is not None and grid.errors:
+        for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
+            err = error_problem(grid, rows[i], mcol.index, "a material name")
             if err is not None:
-                out.materials[p][j] = None
-                findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, mcol.index),
-                                        f"{where_text(pid, j + 1)}: material: {err}", part=pid, layer=j + 1,
+                materials[pi][ji] = None
+                findings.append(Problem(Severity.ERROR, grid.name, cell_ref(rows[i], mcol.index),
+                                        f"{where_text(ids[pi], ji + 1)}: material: {err}", part=ids[pi], layer=ji + 1,
                                         code="error-value"))
-                out.bad[p] = True
-        for key in got:
-            cells[(p, j, key)] = (grid.name, cell_ref(r, spot.column(key).index))
-        placed.append((i, p, j))
-    out.source_part = np.full(len(rows), -1, dtype=np.intp)
-    out.source_slot = np.full(len(rows), -1, dtype=np.intp)
-    if placed:
-        src, part, slot = (np.array(x) for x in zip(*placed))
-        out.source_part[src], out.source_slot[src] = part, slot
-        place_layers(got, src, part, slot, ids, out, grid.name, findings)
-    for p in range(n):
-        if not out.present[p].any() and not out.bad[p]:
-            findings.append(Problem(Severity.ERROR, None, None,
-                                    f"{where_text(ids[p])}: no layers in the {spot.sheet} table", part=ids[p],
-                                    code="no-layers"))
-            out.bad[p] = True
+                out.bad[pi] = True
+    out.source_part = np.where(ok, part, -1)
+    out.source_slot = np.where(ok, slot, -1)
+    place_layers(got, src, p, j, ids, out, grid.name, findings)
+    for k in np.flatnonzero(~out.present.any(axis=1) & ~out.bad).tolist():
+        findings.append(Problem(Severity.ERROR, None, None,
+                                f"{where_text(ids[k])}: no layers in the {spot.sheet} table", part=ids[k],
+                                code="no-layers"))
+        out.bad[k] = True
     return out
+
+
+def _refuse_layer_row(grid: SheetGrid, spot: TableSpot, r: int, pid: str | None, p: int, j: int, error: bool,
+                      twice: bool, layer_cell_bad: bool, out: LayerArrays, findings: list[Problem]) -> None:
+    """Word why a row of a row-per-layer table is not a layer of any part."""
+    pcol, lcol = spot.column("part"), spot.column("layer")
+    here = cell_ref(r, pcol.index) if pcol is not None else None
+    if error:
+        findings.append(Problem(Severity.ERROR, grid.name, here,
+                                f"{spot.sheet} row {r + 1}: the part id: {error_problem(grid, r, pcol.index, 'a part id')}"
+                                "; the layer is ignored", code="error-value"))
+    elif p == -2:
+        findings.append(Problem(Severity.ERROR, grid.name, here,
+                                f"{spot.sheet} row {r + 1}: the layer names no part (a blank part cell "
+                                "continues the part above, and there is none); the row is ignored",
+                                code="missing", values=(r + 1,)))
+    elif p == -1:
+        findings.append(Problem(Severity.ERROR, grid.name, here,
+                                f"{spot.sheet} row {r + 1}: part {pid} is not in the parts table; "
+                                "the layer is ignored", code="unknown-part"))
+    elif j < 0:
+        if not layer_cell_bad:
+            findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, lcol.index) if lcol else None,
+                                    f"{where_text(pid)}: layer number must be a whole number from 1 (innermost)",
+                                    part=pid, code="layer-number"))
+        out.bad[p] = True
+    elif twice:
+        findings.append(Problem(Severity.ERROR, grid.name, cell_ref(r, lcol.index) if lcol else None,
+                                f"{where_text(pid, j + 1)}: the layer is given twice; the part is not rated",
+                                part=pid, layer=j + 1, code="layer-twice"))
+        out.bad[p] = True
