@@ -130,6 +130,8 @@ def _rows(block: Any, what: str) -> list[list[Any]]:
     if not isinstance(block, (list, tuple)):
         raise CellError(what, "expected a block of cells")
     kinds = set(map(type, block))
+    if kinds == {list} and len(set(map(len, block))) == 1:
+        return block                         # the usual rectangular list of lists: no copy
     if kinds <= {list, tuple}:
         rows = [list(r) for r in block]
     elif kinds.isdisjoint({list, tuple}):
@@ -141,13 +143,9 @@ def _rows(block: Any, what: str) -> list[list[Any]]:
 
 
 def _grid(name: str, rows: list[list[Any]]) -> SheetGrid:
-    """The block as a sheet grid: error texts (``#N/A``) marked as the cells' error values."""
-    errors = {}
-    for r, row in enumerate(rows):
-        for c, v in enumerate(row):
-            if v.__class__ is str and v[:1] in "#E" and error_value_text(v):
-                errors[(r, c)] = error_value_text(v)
-    return SheetGrid(name, rows, errors=errors)
+    """The block as a sheet grid. Error values arrive as their text (``#N/A``); the intake
+    recognises that text in any cell, as it recognises a saved book's error cells."""
+    return SheetGrid(name, rows)
 
 
 def _is_blank(value: Any) -> bool:

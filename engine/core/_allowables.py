@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from typing import Any
 
 import numpy as np
@@ -52,6 +54,61 @@ def _positive(value: NDArray[np.float64]) -> NDArray[np.bool_]:
     return np.isfinite(value) & (value > 0)
 
 
+_SCALARS = (int, float, bool, np.floating, np.integer, np.bool_)
+
+
+def _all_scalars(*values: object) -> bool:
+    """Plain numbers only: a spreadsheet cell's call, where numpy's per-call cost dominates."""
+    return all(isinstance(v, _SCALARS) for v in values)
+
+
+def _key_scalar(keyway: object) -> bool:
+    """A keyway flag as `as_bool` reads it: NaN is no keyway."""
+    value = float(keyway)
+    return not math.isnan(value) and value != 0
+
+
+def _positive_scalar(value: float) -> bool:
+    return math.isfinite(value) and value > 0
+
+
+def _allowable_scalar(code: float, sy: float, su: float, fs: float, key: bool) -> float:
+    """`allowable_shear` for one set of plain numbers: the same rules, without arrays."""
+    if code == AllowableRule.MAX_SHEAR or code == AllowableRule.DISTORTION_ENERGY:
+        if not (_positive_scalar(sy) and _positive_scalar(fs)):
+            return math.nan
+        factor = MAX_SHEAR_FACTOR if code == AllowableRule.MAX_SHEAR else DISTORTION_ENERGY_FACTOR
+        return float(factor * sy / fs)
+    if code == AllowableRule.SHAFTING_CODE:
+        if not (_positive_scalar(sy) and _positive_scalar(su)):
+            return math.nan
+        value = min(SHAFTING_CODE_YIELD_FACTOR * sy, SHAFTING_CODE_ULTIMATE_FACTOR * su)
+        return SHAFTING_CODE_KEYWAY_FACTOR * value if key else value
+    return math.nan
+
+
+def _flags_scalar(code: float, sy: float, su: float, fs: float, key: bool) -> int:
+    """`allowable_flags` for one set of plain numbers: the same checks, without arrays."""
+    flags = 0
+    known = code in {int(r) for r in AllowableRule}
+    theory = code == AllowableRule.MAX_SHEAR or code == AllowableRule.DISTORTION_ENERGY
+    shafting = code == AllowableRule.SHAFTING_CODE
+    checks = (
+        (not known, AllowableFlag.RULE_UNKNOWN),
+        ((theory or shafting) and not _positive_scalar(sy), AllowableFlag.YIELD_NOT_POSITIVE),
+        (shafting and not _positive_scalar(su), AllowableFlag.ULTIMATE_NOT_POSITIVE),
+        (theory and not _positive_scalar(fs), AllowableFlag.FACTOR_OF_SAFETY_NOT_POSITIVE),
+        (theory and _positive_scalar(fs) and fs < 1.0, AllowableFlag.FACTOR_OF_SAFETY_BELOW_ONE),
+        ((theory or shafting) and su < sy, AllowableFlag.ULTIMATE_BELOW_YIELD),
+        (shafting and not math.isnan(fs) and fs != 1.0, AllowableFlag.FACTOR_OF_SAFETY_IGNORED),
+        (theory and key, AllowableFlag.KEYWAY_IGNORED),
+    )
+    for condition, flag in checks:
+        if condition:
+            flags |= int(flag)
+    return flags
+
+
 def allowable_shear(
     rule: ArrayLike,
     yield_strength: ArrayLike,
@@ -89,6 +146,9 @@ def allowable_shear(
     >>> float(allowable_shear(AllowableRule.MAX_SHEAR, 300e6, factor_of_safety=2.0)) / 1e6
     75.0
     """
+    if _all_scalars(rule, yield_strength, ultimate_strength, factor_of_safety, keyway):
+        return np.float64(_allowable_scalar(float(rule), float(yield_strength), float(ultimate_strength),
+                                            float(factor_of_safety), _key_scalar(keyway)))
     code, sy, su, fs, key = _inputs(
         rule, yield_strength, ultimate_strength, factor_of_safety, keyway
     )
@@ -131,6 +191,9 @@ def allowable_flags(
         is NaN for want of an input; notes (FS below 1, Su below Sy, an FS or keyway
         the rule ignores) leave it in place. ``GIVEN`` checks nothing.
     """
+    if _all_scalars(rule, yield_strength, ultimate_strength, factor_of_safety, keyway):
+        return np.int32(_flags_scalar(float(rule), float(yield_strength), float(ultimate_strength),
+                                      float(factor_of_safety), _key_scalar(keyway)))
     code, sy, su, fs, key = _inputs(
         rule, yield_strength, ultimate_strength, factor_of_safety, keyway
     )

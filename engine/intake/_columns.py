@@ -20,7 +20,7 @@ from twistshare.engine.units import UnitProblem, parse_value, si_factor
 from ._grid import SheetGrid, cell_ref
 from ._problems import Problem, Severity
 from ._schema import Column, Field
-from ._words import QUOTE_MAX, flag_from_value, quoted
+from ._words import QUOTE_MAX, error_value_text, flag_from_value, quoted
 
 __all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind", "quoted", "error_problem",
            "example_unit"]
@@ -190,14 +190,17 @@ def read_numeric(
     # which words the findings.
     slow = range(n)
     if factor is not None and n:
-        grid_rows = grid.rows
-        raw_col = [row[col] if col < len(row) else None for row in (grid_rows[r] for r in rows)]
-        is_num = np.fromiter((type(x) is float or type(x) is int for x in raw_col), bool, n)
+        raw_col = grid.cells(col, rows)
+        if set(map(type, raw_col)) <= {float, int}:  # the common case: one conversion at C speed
+            is_num = np.ones(n, bool)
+            nums = np.array(raw_col, dtype=float) * factor
+        else:
+            is_num = np.fromiter((type(x) is float or type(x) is int for x in raw_col), bool, n)
+            nums = np.array([x if k else np.nan for x, k in zip(raw_col, is_num.tolist())], dtype=float) * factor
         if grid.errors:
             for i, r in enumerate(rows):
                 if (r, col) in grid.errors:
                     is_num[i] = False
-        nums = np.array([x if k else np.nan for x, k in zip(raw_col, is_num.tolist())], dtype=float) * factor
         with np.errstate(invalid="ignore"):
             ok = is_num & np.isfinite(nums)
             if rng is not None:
@@ -219,7 +222,7 @@ def read_numeric(
             empty[i] = True
             continue
         v, problem, code = cell_value(raw, field, column.unit, factor, header_issue,
-                                      is_error=(r, col) in grid.errors)
+                                      is_error=(r, col) in grid.errors or error_value_text(raw) is not None)
         if problem is not None:
             bad[i] = True
             if code == "unit" and header_issue and column.unit is None and key not in header_problem_reported \
@@ -265,8 +268,12 @@ def example_unit(kind: str) -> str:
 
 
 def error_problem(grid: SheetGrid, row: int, col: int, expected: str) -> str | None:
-    """The message for a text cell holding an Excel error value (``#N/A``), or None."""
-    err = grid.error_at(row, col)
+    """The message for a cell holding a spreadsheet error value (``#N/A``), or None.
+
+    A saved book's error cells are in ``grid.errors``; a block handed to a cell function holds
+    the error's text itself.
+    """
+    err = grid.error_at(row, col) or error_value_text(grid.value(row, col))
     if err is None:
         return None
     return f"the cell holds the error value {err}; expected {expected}"
@@ -274,22 +281,23 @@ def error_problem(grid: SheetGrid, row: int, col: int, expected: str) -> str | N
 
 def read_text(grid: SheetGrid, col: int, rows: Sequence[int]) -> list[str | None]:
     """Text of a column, stripped; whole numbers shown without a decimal point; None when empty."""
+    raw = grid.cells(col, rows)
+    if not grid.errors and set(map(type, raw)) == {str}:  # the common case, read straight from the grid
+        return [x.strip() or None for x in raw]
     out: list[str | None] = []
-    grid_rows, errors = grid.rows, grid.errors
-    for r in rows:
-        row = grid_rows[r]
-        raw = row[col] if col < len(row) else None
-        if type(raw) is str and not errors:  # the common case, read straight from the grid
-            out.append(raw.strip() or None)
+    errors = grid.errors
+    for r, value in zip(rows, raw):
+        if type(value) is str and not errors:
+            out.append(value.strip() or None)
             continue
-        raw = grid.value(r, col)
-        if raw is None or (r, col) in errors:
-            out.append(None if raw is None else str(raw))
-        elif isinstance(raw, float) and raw.is_integer():
-            out.append(str(int(raw)))
+        value = grid.value(r, col)
+        if value is None or (r, col) in errors:
+            out.append(None if value is None else str(value))
+        elif isinstance(value, float) and value.is_integer():
+            out.append(str(int(value)))
         else:
-            s = str(raw).strip()
-            out.append(s or None)
+            text = str(value).strip()
+            out.append(text or None)
     return out
 
 

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from itertools import zip_longest
 
 __all__ = ["SheetGrid", "cell_ref", "column_letter", "parse_ref"]
 
@@ -52,10 +53,30 @@ class SheetGrid:
     hidden_rows: frozenset[int] = frozenset()
     merged: tuple[tuple[tuple[int, int], tuple[int, int]], ...] = ()
     uncached: frozenset[tuple[int, int]] = frozenset()  # formula cells with no saved result
+    _columns: list = field(default_factory=list, compare=False, repr=False)
 
     @property
     def height(self) -> int:
+        """Number of rows."""
         return len(self.rows)
+
+    def cells(self, col: int, rows) -> list[object]:
+        """The raw values of column `col` on `rows` (None beyond a row's end), read column-wise.
+
+        The grid is transposed once, at C speed, on first use; a run of consecutive rows is
+        then one slice. Error cells read as the grid holds them (see `value` for their text).
+        """
+        if not self._columns:
+            self._columns.extend(zip_longest(*self.rows, fillvalue=None))
+        if col >= len(self._columns):
+            return [None] * len(rows)
+        column = self._columns[col]
+        if not rows:
+            return []
+        first, last = rows[0], rows[-1]
+        if last - first + 1 == len(rows):
+            return list(column[first:last + 1])
+        return [column[r] for r in rows]
 
     def value(self, row: int, col: int) -> object:
         """The value at (row, col), an error text such as ``#N/A``, or None when empty."""

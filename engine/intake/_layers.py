@@ -21,7 +21,7 @@ from ._grid import SheetGrid, cell_ref
 from ._problems import Problem, Severity
 from ._schema import LAYER_FIELDS, Column
 from ._tables import TableSpot
-from ._words import where_text
+from ._words import error_value_text, where_text
 
 __all__ = ["LayerArrays", "layers_from_groups", "layers_from_rows", "row_labels"]
 
@@ -199,8 +199,10 @@ def layers_from_groups(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: l
         out.shear_modulus[:, j] = modulus
         for i in np.flatnonzero(used).tolist():
             out.materials[i][j] = names[i]
-        if mcol is not None and grid.errors:
+        if mcol is not None:
             for i in np.flatnonzero(used).tolist():
+                if not (grid.errors or (names[i] is not None and names[i][:1] in "#Ee")):
+                    continue
                 err = error_problem(grid, rows[i], mcol.index, "a material name")
                 if err is not None:
                     out.materials[i][j] = None
@@ -218,43 +220,54 @@ def _layer_numbers(grid: SheetGrid, spot: TableSpot, rows: list[int], keys: list
     """Each row's layer number: the Layer column's, or (without one) its order within its part."""
     lcol = spot.column("layer")
     if lcol is None:
-        count: dict[str | None, int] = {}
-        numbers: list[int | None] = []
-        for key in keys:
-            count[key] = count.get(key, 0) + 1
-            numbers.append(count[key])
-        return numbers, None
+        # The rows of a part in their order: 1, 2, ... (a stable sort groups them, numpy counts).
+        first = {k: i for i, k in reversed(list(enumerate(dict.fromkeys(keys))))} if keys else {}
+        group = np.fromiter((first[k] for k in keys), np.intp, len(keys))
+        order = np.argsort(group, kind="stable")
+        sorted_group = group[order]
+        starts = np.searchsorted(sorted_group, sorted_group, side="left")
+        numbers = np.empty(len(keys), np.intp)
+        numbers[order] = np.arange(len(keys)) - starts + 1
+        return numbers.tolist(), None
     lay = read_numeric(grid, lcol, rows, row_labels(keys, rows), findings, spot.header_row, header_seen)
     return [int(v) if math.isfinite(v) and v >= 1 and float(v).is_integer() else None
             for v in lay.values.tolist()], lay
 
 
-def part_keys(grid: SheetGrid, spot: TableSpot) -> list[str | None]:
-    """The part id of each data row of a row-per-layer table (None where none can be read).
+def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[bool]]:
+    """The part id of each data row of a row-per-layer table (None where none can be read), and
+    which rows hold an error value in their part cell.
 
     A blank part cell continues the part above (a table grouped by part, as engineers lay one
     out); an error value names no part.
     """
+    rows = list(spot.data_rows)
     pcol = spot.column("part")
     if pcol is None:
-        return [None] * len(spot.data_rows)
-    rows = list(spot.data_rows)
+        return [None] * len(rows), [False] * len(rows)
     keys = read_text(grid, pcol.index, rows)
+    if None not in keys and not grid.errors and not any(k[:1] == "#" or k[:4].upper() == "ERR:" for k in keys):
+        return keys, [False] * len(rows)  # every row names its part
     out: list[str | None] = []
+    errors: list[bool] = []
     above: str | None = None
     for r, key in zip(rows, keys):
-        if grid.errors and grid.error_at(r, pcol.index):
+        if (key is not None and key[:1] in "#Ee" and error_value_text(key)) or (grid.errors and grid.error_at(
+                r, pcol.index)):
             above = None
             out.append(None)
+            errors.append(True)
             continue
         if key is None:
             key = above
         above = key
         out.append(key)
-    return out
+        errors.append(False)
+    return out, errors
 
 
-def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings: list[Problem]) -> LayerArrays:
+def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings: list[Problem],
+                     keys: tuple[list[str | None], list[bool]] | None = None) -> LayerArrays:
     """Layers from a table with one row per layer: a Part column, an optional Layer column
     (without it, the rows of a part are its layers innermost first), and the layer fields.
 
@@ -263,7 +276,9 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     rows = list(spot.data_rows)
     n_rows = len(rows)
     pcol, lcol = spot.column("part"), spot.column("layer")
-    keys = part_keys(grid, spot) if pcol is not None else [""] * n_rows
+    keys, key_errors = keys or part_keys(grid, spot)
+    if pcol is None:
+        keys = [""] * n_rows
     header_seen: set[tuple[str, int]] = set()
     index = {pid: i for i, pid in enumerate(ids)}
     layer_no, lay_nc = _layer_numbers(grid, spot, rows, keys, findings, header_seen)
@@ -289,9 +304,7 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
 
     part = np.fromiter((index.get(k, -1) if k is not None else -2 for k in keys), np.intp, n_rows)
     slot = np.fromiter((x - 1 if x else -1 for x in layer_no), np.intp, n_rows)
-    error_row = np.zeros(n_rows, bool)
-    if grid.errors and pcol is not None:
-        error_row = np.fromiter((grid.error_at(r, pcol.index) is not None for r in rows), bool, n_rows)
+    error_row = np.fromiter(key_errors, bool, n_rows)
     ok = (part >= 0) & (slot >= 0) & ~error_row
     # A layer given twice in a part: the later rows are refused.
     flat = part * n_layers + slot
@@ -308,13 +321,15 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     out.shear_modulus[p, j] = modulus[src]
     out.bad[p[mbad[src]]] = True
     materials = out.materials
+    checked = mcol is not None and (bool(grid.errors) or any(
+        n is not None and (n[:1] == "#" or n[:4].upper() == "ERR:") for n in names))
     for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
         materials[pi][ji] = names[i]
     rowmap = np.full(out.present.shape, -1, dtype=np.intp)
     rowmap[p, j] = np.asarray(rows, dtype=np.intp)[src]
     out.cells.by_layer(rowmap, {key: c.index for key in (*_NUMERIC_KEYS, "material")
                                 if (c := spot.column(key)) is not None})
-    if mcol is not None and grid.errors:
+    if checked:
         for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
             err = error_problem(grid, rows[i], mcol.index, "a material name")
             if err is not None:

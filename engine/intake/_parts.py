@@ -163,11 +163,11 @@ def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: Material
     """Parts from a row-per-layer table alone (a cell function's block): the parts are the ids of
     its Part column in order of appearance, or one part when it has no Part column."""
     keys = part_keys(grid, spot)
-    ids = list(dict.fromkeys(k for k in keys if k is not None)) if spot.column("part") else [""]
+    ids = list(dict.fromkeys(k for k in keys[0] if k is not None)) if spot.column("part") else [""]
     n = len(ids)
     nan = np.full(n, np.nan)
     duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, []))
-    layers = layers_from_rows(grid, spot, ids, findings)
+    layers = layers_from_rows(grid, spot, ids, findings, keys)
     return _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
                      np.zeros(n, bool), need_allowable, "SI", spot)
 
@@ -197,13 +197,14 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
     g = np.where(own_g, layers.shear_modulus, np.nan)
     tau = np.full((P, L), np.nan)
     rule = np.zeros((P, L), dtype=np.int8)  # AllowableRule per layer; travels with the rating
-    named_i, named_j, named = [], [], []
-    for i, j in zip(*(a.tolist() for a in np.nonzero(present))):
-        name = mats[i][j]
+    slots_i, slots_j = (a.tolist() for a in np.nonzero(present))
+    names_of = [mats[i][j] for i, j in zip(slots_i, slots_j)]
+    named_k = [k for k, name in enumerate(names_of) if name is not None]
+    named = [names_of[k] for k in named_k]
+    named_i = [slots_i[k] for k in named_k]
+    named_j = [slots_j[k] for k in named_k]
+    for i, j, name in zip(slots_i, slots_j, names_of):
         if name is not None:
-            named_i.append(i)
-            named_j.append(j)
-            named.append(name)
             continue
         if own_g[i, j] or layers.bad[i]:
             continue  # a layer's own G, or a cell already reported
@@ -237,7 +238,11 @@ def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: L
                      need_allowable: bool, g: np.ndarray, tau: np.ndarray, rule: np.ndarray) -> None:
     # Each distinct name is looked up once; the arrays are filled through the inverse index.
     cells, kt = layers.cells, layers.kt
-    unique, first, inverse = np.unique(np.array(named, dtype=object), return_index=True, return_inverse=True)
+    position: dict[str, int] = {}
+    inverse = np.fromiter((position.setdefault(name, len(position)) for name in named), np.intp, len(named))
+    unique = list(position)
+    first = np.zeros(len(unique), np.intp)
+    first[inverse[::-1]] = np.arange(len(named))[::-1]
     # A layer's own allowable means its material need give none.
     own_tau = ~np.isnan(layers.allowable_shear[ni, nj])
     found_any = [materials.lookup(str(name), need_allowable=False) for name in unique]

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+import numpy as np
+
 from ._grid import SheetGrid
 from ._schema import Column, Field, match_header, match_layer_group_header
 
@@ -81,6 +83,26 @@ def _match_row(
     return cols, dups, unknown
 
 
+def _data_rows(grid: SheetGrid, start: int, end: int, idx: list[int]) -> tuple[int, ...]:
+    """The rows from `start` to `end` (exclusive) where any of the table's columns holds
+    something (an error value counts), read column-wise."""
+    if end <= start:
+        return ()
+    span = range(start, end)
+    filled = np.zeros(end - start, bool)
+    for c in idx:
+        cells = grid.cells(c, span)
+        if set(map(type, cells)) <= {float, int}:
+            return tuple(span)  # a column of numbers: every row holds something
+        filled |= np.fromiter((v is not None and v != "" and not (type(v) is str and not v.strip())
+                               for v in cells), bool, len(cells))
+    if grid.errors:
+        for (r, c) in grid.errors:
+            if start <= r < end and c in idx:
+                filled[r - start] = True
+    return tuple((np.flatnonzero(filled) + start).tolist())
+
+
 def _has_data(grid: SheetGrid, r: int, idx: list[int]) -> bool:
     """True if any of the table's columns holds something in row ``r`` (an error value counts)."""
     row = grid.rows[r]
@@ -117,7 +139,7 @@ def locate_table(
     if header_cells is not None:
         cols, dups, unknown = _match_row(header_cells, fields, layer_groups, first_col, last_col)
         idx = [c.index for c in cols]
-        data = tuple(rr for rr in range(grid.height) if _has_data(grid, rr, idx))
+        data = _data_rows(grid, 0, grid.height, idx)
         return TableSpot(grid.name, -1, data, tuple(cols), (), first_col, last_col, tuple(dups), tuple(unknown))
     candidates = [header_row] if header_row is not None else range(min(grid.height, _HEADER_SEARCH_ROWS))
     for r in candidates:
@@ -128,7 +150,7 @@ def locate_table(
             continue
         end = grid.height if last_row is None else min(grid.height, last_row + 1)
         idx = [c.index for c in cols]
-        data = tuple(rr for rr in range(r + 1, end) if _has_data(grid, rr, idx))
+        data = _data_rows(grid, r + 1, end, idx)
         return TableSpot(grid.name, r, data, tuple(cols), tuple((d.index, d.header) for d in dups),
                          first_col, last_col, tuple(dups), tuple(unknown))
     return None

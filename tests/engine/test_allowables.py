@@ -4,6 +4,8 @@ import math
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from twistshare.engine.core import (
     ALLOWABLE_ERRORS,
@@ -120,3 +122,24 @@ class TestInvalidInputs:
         """GIVEN: the allowable comes from the caller; strengths are not needed."""
         assert np.isnan(allowable_shear(R.GIVEN, np.nan))
         assert allowable_flags(R.GIVEN, np.nan, np.nan, np.nan) == 0
+
+
+class TestScalarPathEqualsArrayPath:
+    """One cell's call takes a plain-number path (numpy's per-call cost would dominate); it must
+    give exactly what the array path gives for the same inputs in a one-element array."""
+
+    @settings(max_examples=400, deadline=None)
+    @given(st.sampled_from([0, 1, 2, 3, 7]),
+           st.one_of(st.just(float("nan")), st.floats(-1e9, 4e9)),
+           st.one_of(st.just(float("nan")), st.floats(-1e9, 4e9)),
+           st.one_of(st.just(float("nan")), st.floats(-2.0, 20.0)),
+           st.sampled_from([True, False, 0.0, 1.0, float("nan")]))
+    def test_same_allowable_and_flags(self, rule, sy, su, fs, keyway):
+        scalar = allowable_shear(rule, sy, su, fs, keyway)
+        array = allowable_shear(np.array([rule]), np.array([sy]), np.array([su]), np.array([fs]),
+                                np.array([keyway], dtype=float))
+        assert np.isnan(scalar) == np.isnan(array[0])
+        if not np.isnan(scalar):
+            assert float(scalar) == float(array[0])
+        assert int(allowable_flags(rule, sy, su, fs, keyway)) == int(allowable_flags(
+            np.array([rule]), np.array([sy]), np.array([su]), np.array([fs]), np.array([keyway], dtype=float))[0])
