@@ -8,6 +8,8 @@ certificate and the applicable standard.
 
 from __future__ import annotations
 
+from functools import lru_cache
+
 import math
 import re
 from collections.abc import Iterable, Mapping
@@ -417,7 +419,10 @@ def find_material(
         for user_name, material in pairs:
             if normalise_name(user_name) == key:
                 return material
-    for library_name, material in material_library().items():
-        if normalise_name(library_name) == key:
-            return material
-    return None
+    return _library_by_key().get(key)
+
+
+@lru_cache(maxsize=1)
+def _library_by_key() -> Mapping[str, Material]:
+    """The library by normalised name, built once: its entries are frozen, so sharing is safe."""
+    return MappingProxyType({normalise_name(m.name): m for m in _library_entries()})

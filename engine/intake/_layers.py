@@ -41,7 +41,7 @@ class LayerArrays:
     allowable_shear: np.ndarray  # the layer's own allowable (NaN: its material's)
     shear_modulus: np.ndarray    # the layer's own G (NaN: its material's)
     present: np.ndarray
-    materials: list[list[str | None]]
+    materials: np.ndarray  # (P, L) object: each layer's material name, None where none
     cells: CellRefs
     bad: np.ndarray
     # For each data row of a row-per-layer table: the part and slot it became (-1: none).
@@ -52,7 +52,7 @@ class LayerArrays:
     def empty(cls, n: int, n_layers: int, cells: CellRefs) -> LayerArrays:
         shape = (n, max(n_layers, 1))
         return cls(np.full(shape, np.nan), np.full(shape, np.nan), np.ones(shape), np.full(shape, np.nan),
-                   np.full(shape, np.nan), np.zeros(shape, bool), [[None] * shape[1] for _ in range(n)],
+                   np.full(shape, np.nan), np.zeros(shape, bool), np.full(shape, None, dtype=object),
                    cells, np.zeros(n, bool))
 
 
@@ -85,6 +85,9 @@ def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, find
     modulus = np.full(n, np.nan)
     bad = np.zeros(n, bool)
     tag = who.tag
+    starts = {text[:1] for text in names if text is not None}
+    if not starts & set("0123456789+-."):
+        return names, modulus, bad  # names only: the common case
     for i, text in enumerate(names):
         if text is None or not (text[:1].isdigit() or text[:1] in "+-." and text[1:2].isdigit()):
             continue
@@ -197,15 +200,14 @@ def layers_from_groups(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: l
         out.present[:, j] = used
         out.bad |= mbad
         out.shear_modulus[:, j] = modulus
-        for i in np.flatnonzero(used).tolist():
-            out.materials[i][j] = names[i]
+        out.materials[used, j] = np.array(names, dtype=object)[used]
         if mcol is not None:
             for i in np.flatnonzero(used).tolist():
                 if not (grid.errors or (names[i] is not None and names[i][:1] in "#Ee")):
                     continue
                 err = error_problem(grid, rows[i], mcol.index, "a material name")
                 if err is not None:
-                    out.materials[i][j] = None
+                    out.materials[i, j] = None
                     findings.append(Problem(Severity.ERROR, *cells[(i, j, "material")],
                                             f"part {ids[i]}, layer {layer}: material: {err}", part=ids[i],
                                             layer=layer, code="error-value"))
@@ -216,22 +218,24 @@ def layers_from_groups(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: l
 
 
 def _layer_numbers(grid: SheetGrid, spot: TableSpot, rows: list[int], keys: list[str | None],
-                   findings: list[Problem], header_seen: set) -> tuple[list[int | None], NumericColumn | None]:
-    """Each row's layer number: the Layer column's, or (without one) its order within its part."""
+                   group: np.ndarray, findings: list[Problem], header_seen: set
+                   ) -> tuple[np.ndarray, NumericColumn | None]:
+    """Each row's layer number (0: none): the Layer column's, or (without one) its order within
+    its part (`group`: the rows' part positions)."""
     lcol = spot.column("layer")
     if lcol is None:
         # The rows of a part in their order: 1, 2, ... (a stable sort groups them, numpy counts).
-        first = {k: i for i, k in reversed(list(enumerate(dict.fromkeys(keys))))} if keys else {}
-        group = np.fromiter((first[k] for k in keys), np.intp, len(keys))
         order = np.argsort(group, kind="stable")
         sorted_group = group[order]
         starts = np.searchsorted(sorted_group, sorted_group, side="left")
         numbers = np.empty(len(keys), np.intp)
         numbers[order] = np.arange(len(keys)) - starts + 1
-        return numbers.tolist(), None
+        return numbers, None
     lay = read_numeric(grid, lcol, rows, row_labels(keys, rows), findings, spot.header_row, header_seen)
-    return [int(v) if math.isfinite(v) and v >= 1 and float(v).is_integer() else None
-            for v in lay.values.tolist()], lay
+    values = lay.values
+    with np.errstate(invalid="ignore"):
+        whole = np.isfinite(values) & (values >= 1) & (values == np.floor(values))
+    return np.where(whole, values, 0).astype(np.intp), lay
 
 
 def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[bool]]:
@@ -266,12 +270,28 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
     return out, errors
 
 
+def part_positions(keys: list[str | None]) -> tuple[list[str], np.ndarray]:
+    """The parts a row-per-layer table names, in order of appearance, and each row's position
+    among them (-2 where the row names none)."""
+    position: dict[str | None, int] = {}
+    group = np.fromiter((position.setdefault(k, len(position)) for k in keys), np.intp, len(keys))
+    ids = list(position)
+    if None in position:
+        missing = position.pop(None)
+        group = np.where(group == missing, -2, group - (group > missing))
+        ids = list(position)
+    return ids, group
+
+
 def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings: list[Problem],
-                     keys: tuple[list[str | None], list[bool]] | None = None) -> LayerArrays:
+                     keys: tuple[list[str | None], list[bool]] | None = None,
+                     positions: np.ndarray | None = None) -> LayerArrays:
     """Layers from a table with one row per layer: a Part column, an optional Layer column
     (without it, the rows of a part are its layers innermost first), and the layer fields.
 
     Whole columns at once; only the rows that need a message are visited one by one.
+    `positions` (from `part_positions`) saves looking the ids up again where `ids` came from
+    this table itself.
     """
     rows = list(spot.data_rows)
     n_rows = len(rows)
@@ -280,20 +300,25 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     if pcol is None:
         keys = [""] * n_rows
     header_seen: set[tuple[str, int]] = set()
-    index = {pid: i for i, pid in enumerate(ids)}
-    layer_no, lay_nc = _layer_numbers(grid, spot, rows, keys, findings, header_seen)
-    n_layers = max([x for x in layer_no if x] or [1])
+    if positions is None:
+        index = {pid: i for i, pid in enumerate(ids)}
+        part = np.fromiter((index.get(k, -1) if k is not None else -2 for k in keys), np.intp, n_rows)
+    else:
+        part = positions if pcol is not None else np.zeros(n_rows, np.intp)
+    numbers, lay_nc = _layer_numbers(grid, spot, rows, keys, part, findings, header_seen)
+    n_layers = max(int(numbers.max()) if n_rows else 1, 1)
     n = len(ids)
     out = LayerArrays.empty(n, n_layers, CellRefs(grid.name, rows))
     row_index = {r: i for i, r in enumerate(rows)}
 
     def who(r: int) -> str:
         i = row_index[r]
-        if not keys[i]:  # the one part of a block without a Part column: its row says where
-            return f"row {r + 1}, layer {layer_no[i]}" if layer_no[i] else f"row {r + 1}"
-        return f"part {keys[i]}, layer {layer_no[i]}" if layer_no[i] else f"part {keys[i]}"
+        k, number = keys[i], int(numbers[i])
+        if not k:  # the one part of a block without a Part column: its row says where
+            return f"row {r + 1}, layer {number}" if number else f"row {r + 1}"
+        return f"part {k}, layer {number}" if number else f"part {k}"
 
-    who.tag = lambda r: (keys[row_index[r]], layer_no[row_index[r]])
+    who.tag = lambda r: (keys[row_index[r]], int(numbers[row_index[r]]) or None)
     got = {key: read_numeric(grid, c, rows, who, findings, spot.header_row, header_seen)
            for key in _NUMERIC_KEYS if (c := spot.column(key)) is not None}
     mcol = spot.column("material")
@@ -302,8 +327,7 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     else:
         names, modulus, mbad = [None] * n_rows, np.full(n_rows, np.nan), np.zeros(n_rows, bool)
 
-    part = np.fromiter((index.get(k, -1) if k is not None else -2 for k in keys), np.intp, n_rows)
-    slot = np.fromiter((x - 1 if x else -1 for x in layer_no), np.intp, n_rows)
+    slot = numbers - 1
     error_row = np.fromiter(key_errors, bool, n_rows)
     ok = (part >= 0) & (slot >= 0) & ~error_row
     # A layer given twice in a part: the later rows are refused.
@@ -312,28 +336,27 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     order = take[np.argsort(flat[take], kind="stable")]
     twice = order[1:][np.diff(flat[order]) == 0]
     ok[twice] = False
+    twice_set = set(twice.tolist())
     for i in np.flatnonzero(~ok).tolist():
-        _refuse_layer_row(grid, spot, rows[i], keys[i], part[i], slot[i], error_row[i], i in set(twice.tolist()),
+        _refuse_layer_row(grid, spot, rows[i], keys[i], part[i], slot[i], error_row[i], i in twice_set,
                           lay_nc is not None and bool(lay_nc.bad[i]), out, findings)
     src = np.flatnonzero(ok)
     p, j = part[src], slot[src]
     out.present[p, j] = True
     out.shear_modulus[p, j] = modulus[src]
     out.bad[p[mbad[src]]] = True
-    materials = out.materials
-    checked = mcol is not None and (bool(grid.errors) or any(
-        n is not None and (n[:1] == "#" or n[:4].upper() == "ERR:") for n in names))
-    for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
-        materials[pi][ji] = names[i]
+    name_array = np.array(names, dtype=object)
+    out.materials[p, j] = name_array[src]
     rowmap = np.full(out.present.shape, -1, dtype=np.intp)
     rowmap[p, j] = np.asarray(rows, dtype=np.intp)[src]
     out.cells.by_layer(rowmap, {key: c.index for key in (*_NUMERIC_KEYS, "material")
                                 if (c := spot.column(key)) is not None})
-    if checked:
+    if mcol is not None and (grid.errors or any(n is not None and (n[:1] == "#" or n[:4].upper() == "ERR:")
+                                                for n in names)):
         for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
             err = error_problem(grid, rows[i], mcol.index, "a material name")
             if err is not None:
-                materials[pi][ji] = None
+                out.materials[pi, ji] = None
                 findings.append(Problem(Severity.ERROR, grid.name, cell_ref(rows[i], mcol.index),
                                         f"{where_text(ids[pi], ji + 1)}: material: {err}", part=ids[pi], layer=ji + 1,
                                         code="error-value"))

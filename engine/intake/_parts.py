@@ -18,7 +18,7 @@ from ._cellrefs import CellRefs
 from ._columns import error_problem, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
-from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, row_labels
+from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, part_positions, row_labels
 from ._materials import MaterialSet
 from ._problems import Problem, Severity
 from ._tables import TableSpot
@@ -45,7 +45,7 @@ class PartsInput:
     twist_limit_angle: np.ndarray
     twist_limit_per_length: np.ndarray
     input_error: np.ndarray  # (P,) bool: an input cell made the part unratable
-    materials: list[list[str | None]]
+    materials: np.ndarray  # (P, L) object: each layer's material name, None where none
     duty_source: list[str]  # "torque", "power" or "none"
     layer_cells: CellRefs | None = None  # (part, layer, field) -> (sheet, A1)
     part_cells: CellRefs | None = None  # (part, field) -> (sheet, A1)
@@ -163,11 +163,11 @@ def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: Material
     """Parts from a row-per-layer table alone (a cell function's block): the parts are the ids of
     its Part column in order of appearance, or one part when it has no Part column."""
     keys = part_keys(grid, spot)
-    ids = list(dict.fromkeys(k for k in keys[0] if k is not None)) if spot.column("part") else [""]
+    ids, positions = part_positions(keys[0]) if spot.column("part") else ([""], None)
     n = len(ids)
     nan = np.full(n, np.nan)
     duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, []))
-    layers = layers_from_rows(grid, spot, ids, findings, keys)
+    layers = layers_from_rows(grid, spot, ids, findings, keys, positions)
     return _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
                      np.zeros(n, bool), need_allowable, "SI", spot)
 
@@ -197,15 +197,10 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
     g = np.where(own_g, layers.shear_modulus, np.nan)
     tau = np.full((P, L), np.nan)
     rule = np.zeros((P, L), dtype=np.int8)  # AllowableRule per layer; travels with the rating
-    slots_i, slots_j = (a.tolist() for a in np.nonzero(present))
-    names_of = [mats[i][j] for i, j in zip(slots_i, slots_j)]
-    named_k = [k for k, name in enumerate(names_of) if name is not None]
-    named = [names_of[k] for k in named_k]
-    named_i = [slots_i[k] for k in named_k]
-    named_j = [slots_j[k] for k in named_k]
-    for i, j, name in zip(slots_i, slots_j, names_of):
-        if name is not None:
-            continue
+    unnamed = present & np.equal(mats, None)
+    named_i, named_j = np.nonzero(present & ~unnamed)
+    named = mats[named_i, named_j].tolist()
+    for i, j in zip(*(a.tolist() for a in np.nonzero(unnamed))):
         if own_g[i, j] or layers.bad[i]:
             continue  # a layer's own G, or a cell already reported
         where, cell = cells.get((i, j, "material"), (sheet, None))
@@ -223,7 +218,7 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
         findings.append(Problem(Severity.ERROR, where, cell, f"{where_text(ids[i], j + 1)}: no material given",
                                 part=ids[i], layer=j + 1, code="missing"))
     if named:
-        _named_materials(named, np.array(named_i), np.array(named_j), layers, ids, materials, sheet, findings,
+        _named_materials(named, named_i, named_j, layers, ids, materials, sheet, findings,
                          error, need_allowable, g, tau, rule)
     own_tau = ~np.isnan(layers.allowable_shear)
     tau[own_tau] = layers.allowable_shear[own_tau]

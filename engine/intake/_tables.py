@@ -90,12 +90,16 @@ def _data_rows(grid: SheetGrid, start: int, end: int, idx: list[int]) -> tuple[i
         return ()
     span = range(start, end)
     filled = np.zeros(end - start, bool)
-    for c in idx:
-        cells = grid.cells(c, span)
-        if set(map(type, cells)) <= {float, int}:
-            return tuple(span)  # a column of numbers: every row holds something
-        filled |= np.fromiter((v is not None and v != "" and not (type(v) is str and not v.strip())
-                               for v in cells), bool, len(cells))
+    columns = [grid.cells(c, span) for c in idx]
+    kinds = [set(map(type, cells)) for cells in columns]
+    if any(k <= {float, int} for k in kinds):
+        return tuple(span)  # a column of numbers: every row holds something
+    for cells, k in zip(columns, kinds):
+        if k == {str}:
+            filled |= np.fromiter(map(bool, map(str.strip, cells)), bool, len(cells))
+        else:
+            filled |= np.fromiter((v is not None and v != "" and not (type(v) is str and not v.strip())
+                                   for v in cells), bool, len(cells))
     if grid.errors:
         for (r, c) in grid.errors:
             if start <= r < end and c in idx:
