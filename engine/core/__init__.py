@@ -55,6 +55,7 @@ from ._materials import (
     normalise_name,
 )
 from ._rating import Duty, Rating, rate
+from ._restoring import RestoreResult, restore_sleeve
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -63,6 +64,17 @@ from ._section import (
     polar_moment,
     shear_modulus_from_elastic,
 )
+from ._sizing import (
+    DEFAULT_SIZE_TOL,
+    OuterLayers,
+    SizedDimension,
+    SizingResult,
+    SizingStatus,
+    resized,
+    sizing_slot,
+    solve_dimension,
+)
+from ._stock import StockResult, StockStatus, round_up_to_stock
 
 __all__ = [
     # enumerations and diagnoses
@@ -118,4 +130,18 @@ __all__ = [
     "Duty",
     "Rating",
     "rate",
+    # sizing
+    "SizedDimension",
+    "OuterLayers",
+    "SizingStatus",
+    "SizingResult",
+    "DEFAULT_SIZE_TOL",
+    "sizing_slot",
+    "resized",
+    "solve_dimension",
+    "StockStatus",
+    "StockResult",
+    "round_up_to_stock",
+    "RestoreResult",
+    "restore_sleeve",
 ]
