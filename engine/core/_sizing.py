@@ -429,12 +429,12 @@ def solve_dimension(
         with np.errstate(invalid="ignore"):
             holds = active & (cap >= demand)
             fails = active & ~holds
-            # More material at the holding end, less at the failing end: a trial outside
-            # the two capacities shows a fall somewhere.
-            rises = (holds & (cap > cap_hold * (1.0 + _MONOTONE_SLACK))) | (
+            # More material at the holding end, less at the failing end: a trial rating
+            # outside the two ends' capacities shows a fall somewhere between them.
+            contradicts = (holds & (cap > cap_hold * (1.0 + _MONOTONE_SLACK))) | (
                 fails & (cap < cap_fail * (1.0 - _MONOTONE_SLACK))
             )
-        status[rises & (status == SizingStatus.SOLVED)] = SizingStatus.NOT_MONOTONE
+        status[contradicts & (status == SizingStatus.SOLVED)] = SizingStatus.NOT_MONOTONE
         status[refused] = SizingStatus.NOT_RATED
         iterations[refused] = step
         np.copyto(hold, mid, where=holds)
