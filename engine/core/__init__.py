@@ -57,6 +57,7 @@ from ._materials import (
 )
 from ._radius import RadiusPlace, layer_at_radius
 from ._rating import Duty, Rating, rate
+from ._restoring import RestoreResult, restore_sleeve
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -65,6 +66,17 @@ from ._section import (
     polar_moment,
     shear_modulus_from_elastic,
 )
+from ._sizing import (
+    DEFAULT_SIZE_TOL,
+    OuterLayers,
+    SizedDimension,
+    SizingResult,
+    SizingStatus,
+    resized,
+    sizing_slot,
+    solve_dimension,
+)
+from ._stock import StockResult, StockStatus, round_up_to_stock
 
 __all__ = [
     # enumerations and diagnoses
@@ -126,4 +138,18 @@ __all__ = [
     "Duty",
     "Rating",
     "rate",
+    # sizing
+    "SizedDimension",
+    "OuterLayers",
+    "SizingStatus",
+    "SizingResult",
+    "DEFAULT_SIZE_TOL",
+    "sizing_slot",
+    "resized",
+    "solve_dimension",
+    "StockStatus",
+    "StockResult",
+    "round_up_to_stock",
+    "RestoreResult",
+    "restore_sleeve",
 ]

@@ -15,7 +15,7 @@ CONTRACT = [
 ]
 
 MODULES = ["_allowables", "_capacity", "_compatibility", "_criteria", "_demand", "_diagnoses",
-           "_governing", "_materials", "_rating", "_section"]
+           "_governing", "_materials", "_rating", "_restoring", "_section", "_sizing", "_stock"]
 
 
 def test_contract_names_exported():
