@@ -23,6 +23,17 @@ from ._allowables import (
     allowable_flags,
     allowable_shear,
 )
+from ._bending import SectionBending, area_moment, section_area, section_bending
+from ._buckling import (
+    BUCKLING_KNOCK_DOWN,
+    SHORT_TUBE_Z,
+    THIN_WALL_RATIO,
+    TorsionalBuckling,
+    long_tube_buckling_stress,
+    moderate_tube_buckling_stress,
+    torsional_buckling,
+    tube_buckling_stress,
+)
 from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
 from ._compatibility import (
     layer_stiffness,
@@ -31,21 +42,35 @@ from ._compatibility import (
     torque_share,
     twist_rate,
 )
+from ._combined import CombinedStress, combined_capacity, combined_stress, equivalent_stress
 from ._criteria import AllowableRule, Criterion
 from ._demand import torque_from_power
 from ._diagnoses import (
     ALLOWABLE_ERRORS,
     LAYER_ERRORS,
+    LOAD_ERRORS,
     PART_ERRORS,
+    PLY_ERRORS,
     AllowableFlag,
     LayerFlag,
+    LoadFlag,
     PartFlag,
+    PlyFlag,
     describe,
     has_error,
     is_error,
     split_flags,
 )
 from ._governing import factor_of_safety, governing_limit, margin
+from ._laminate import (
+    LaminateModuli,
+    PlySet,
+    laminate_moduli,
+    ply_flags,
+    ply_library,
+    reduced_stiffness,
+    transformed_stiffness,
+)
 from ._materials import (
     Material,
     complete_from_library,
@@ -55,6 +80,13 @@ from ._materials import (
     normalise_name,
 )
 from ._rating import Duty, Rating, rate
+from ._shafting_code import (
+    SHAFTING_CODE_SHOCK_FATIGUE_FACTORS,
+    ShockFatigueFactors,
+    shafting_code_capacity,
+    shafting_code_diameter,
+    shafting_code_shear_stress,
+)
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -62,6 +94,17 @@ from ._section import (
     interface_gaps,
     polar_moment,
     shear_modulus_from_elastic,
+)
+from ._whirl import (
+    WHIRL_SPEED_RATIO_LIMIT,
+    EndSupport,
+    WhirlCheck,
+    critical_speed,
+    frequency_parameter,
+    mass_per_length,
+    whirl_check,
+    whirl_gate_capacity,
+    whirl_reserve,
 )
 
 __all__ = [
@@ -74,6 +117,10 @@ __all__ = [
     "LAYER_ERRORS",
     "PART_ERRORS",
     "ALLOWABLE_ERRORS",
+    "LoadFlag",
+    "PlyFlag",
+    "LOAD_ERRORS",
+    "PLY_ERRORS",
     "is_error",
     "has_error",
     "describe",
@@ -118,4 +165,46 @@ __all__ = [
     "Duty",
     "Rating",
     "rate",
+    # bending and combined stress
+    "area_moment",
+    "section_area",
+    "SectionBending",
+    "section_bending",
+    "equivalent_stress",
+    "combined_capacity",
+    "CombinedStress",
+    "combined_stress",
+    # the transmission-shafting code's combined equation
+    "ShockFatigueFactors",
+    "SHAFTING_CODE_SHOCK_FATIGUE_FACTORS",
+    "shafting_code_shear_stress",
+    "shafting_code_capacity",
+    "shafting_code_diameter",
+    # whirl
+    "EndSupport",
+    "WHIRL_SPEED_RATIO_LIMIT",
+    "frequency_parameter",
+    "mass_per_length",
+    "critical_speed",
+    "whirl_reserve",
+    "whirl_gate_capacity",
+    "WhirlCheck",
+    "whirl_check",
+    # laminates
+    "PlySet",
+    "ply_library",
+    "reduced_stiffness",
+    "transformed_stiffness",
+    "ply_flags",
+    "LaminateModuli",
+    "laminate_moduli",
+    # torsional buckling
+    "BUCKLING_KNOCK_DOWN",
+    "THIN_WALL_RATIO",
+    "SHORT_TUBE_Z",
+    "long_tube_buckling_stress",
+    "moderate_tube_buckling_stress",
+    "tube_buckling_stress",
+    "TorsionalBuckling",
+    "torsional_buckling",
 ]
