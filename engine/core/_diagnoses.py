@@ -215,7 +215,7 @@ _DESCRIPTION_LIST: tuple[tuple[IntFlag, str], ...] = (
     (LoadFlag.MOMENT_NOT_FINITE, "bending moment must be a finite number (0 for none)"),
     (LoadFlag.AXIAL_FORCE_NOT_FINITE, "axial force must be a finite number (0 for none)"),
     (LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE, (
-        "Young's modulus must be a positive finite number"
+        "the Young's modulus must be a positive finite number"
     )),
     (LoadFlag.DENSITY_NOT_POSITIVE, "density must be a positive finite number"),
     (LoadFlag.STRENGTH_NOT_POSITIVE, (
@@ -228,15 +228,17 @@ _DESCRIPTION_LIST: tuple[tuple[IntFlag, str], ...] = (
     (LoadFlag.BENDING_ALONE_EXCEEDS, (
         "the bending (and axial) stress alone reaches the allowable: no torque can be carried"
     )),
-    (LoadFlag.TORQUE_NOT_FINITE, "torque must be a finite number"),
-    (LoadFlag.LENGTH_NOT_POSITIVE, "length must be a positive finite number"),
+    (LoadFlag.TORQUE_NOT_FINITE, "torque must be finite to combine it with the bending stress"),
+    (LoadFlag.LENGTH_NOT_POSITIVE, (
+        "length between the supports must be a positive finite number"
+    )),
     (LoadFlag.SUPPORT_UNKNOWN, "end support is not one of the known end conditions"),
     (LoadFlag.SPEED_NOT_GIVEN, "no operating speed given: the whirl check is not made"),
     (LoadFlag.SPEED_NOT_FINITE, "operating speed must be a finite number"),
     (LoadFlag.SPEED_ABOVE_WHIRL_LIMIT, (
         "operating speed is above the allowed fraction of the first bending critical speed"
     )),
-    (LoadFlag.POISSON_OUT_OF_RANGE, "Poisson's ratio must be between -1 and 0.5"),
+    (LoadFlag.POISSON_OUT_OF_RANGE, "the Poisson's ratio must be between -1 and 0.5"),
     (LoadFlag.NOT_THIN_WALLED, (
         "solid or thick-walled section: torsional buckling of a thin tube does not apply"
     )),

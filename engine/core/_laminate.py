@@ -368,8 +368,9 @@ def laminate_moduli(
         c66 = (a11 * a22 - a12 * a12) / det
         c12 = -(a12 * a66 - a16 * a26) / det
         scale = BALANCE_REL_TOL * (np.abs(a11) + np.abs(a22))
-        flag_where(flags, (np.abs(a16) > scale) | (np.abs(a26) > scale), PlyFlag.UNBALANCED)
         valid = (flags & int(PLY_ERRORS)) == 0
+        unbalanced = (np.abs(a16) > scale) | (np.abs(a26) > scale)
+        flag_where(flags, valid & unbalanced, PlyFlag.UNBALANCED)
         extensional = _matrix(a11, a12, a16, a22, a26, a66)
         results = [a66 / thickness, 1.0 / (thickness * c66), 1.0 / (thickness * c11),
                    1.0 / (thickness * c22), -c12 / c11]
