@@ -186,26 +186,29 @@ def section_bending(
 
     with np.errstate(all="ignore"):
         layer_flags = np.zeros(do.shape, dtype=np.int32)
-        flag_where(layer_flags, mask & ~((modulus > 0) & (modulus < np.inf)),
-                   LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE)
+        bad = modulus > 0
+        bad &= modulus < np.inf
+        np.logical_not(bad, out=bad)
+        bad &= mask
+        if bad.any():
+            flag_where(layer_flags, bad, LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE)
         part_flags = np.zeros(n_parts, dtype=np.int32)
         flag_where(part_flags, ~np.isfinite(bend), LoadFlag.MOMENT_NOT_FINITE)
         flag_where(part_flags, ~np.isfinite(force), LoadFlag.AXIAL_FORCE_NOT_FINITE)
         part_flags = gather_layer_flags(part_flags, layer_flags)
         valid = (part_flags & int(LOAD_ERRORS)) == 0
-        unused = ~(mask & valid[:, np.newaxis])
+        unused = ~mask if valid.all() else ~(mask & valid[:, np.newaxis])
         mask_needed = bool(unused.any())
 
         # Built in place: the batches are large and temporaries are what cost time.
-        do2 = np.multiply(do, do)
-        di2 = np.multiply(di, di)
-        ea = np.subtract(do2, di2)
+        # E A = E (Do^2 - Di^2) pi/4 and E I = E (Do^2 - Di^2)(Do^2 + Di^2) pi/64 share a term.
+        outer2 = np.multiply(do, do)
+        inner2 = np.multiply(di, di)
+        ea = np.subtract(outer2, inner2)
         ea *= modulus
-        ea *= np.pi / 4.0
-        ei = np.multiply(do2, do2, out=do2)
-        ei -= np.multiply(di2, di2, out=di2)
-        ei *= modulus
-        ei *= np.pi / 64.0
+        ei = np.add(outer2, inner2, out=outer2)
+        ei *= ea
+        del inner2
         if mask_needed:
             np.copyto(ei, 0.0, where=unused)
             np.copyto(ea, 0.0, where=unused)
@@ -214,28 +217,39 @@ def section_bending(
         for slot in range(1, do.shape[1]):
             sum_ei += ei[:, slot]
             sum_ea += ea[:, slot]
+        ei *= np.pi / 64.0
+        sum_ei *= np.pi / 64.0
+        sum_ea *= np.pi / 4.0
         if not valid.all():
             sum_ei[~valid] = np.nan
             sum_ea[~valid] = np.nan
 
         curvature = np.abs(bend) / sum_ei
         strain = force / sum_ea
-        half_curvature = (0.5 * curvature)[:, np.newaxis]
-        bending_outer = np.multiply(modulus, do)
-        bending_outer *= half_curvature
-        bending_inner = np.multiply(modulus, di)
-        bending_inner *= half_curvature
-        axial = np.multiply(modulus, strain[:, np.newaxis])
+        # Spread per part once: numpy multiplies equal shapes far faster than (P, 1) by (P, L).
+        stress_per_diameter = np.repeat(0.5 * curvature, do.shape[1]).reshape(do.shape)
+        stress_per_diameter *= modulus  # E kappa / 2
+        bending_outer = np.multiply(stress_per_diameter, do)
+        bending_inner = np.multiply(stress_per_diameter, di, out=stress_per_diameter)
         if mask_needed:
-            for array in (ei, bending_outer, bending_inner, axial):
+            for array in (ei, bending_outer, bending_inner):
                 np.copyto(array, np.nan, where=unused)
-        compressive = axial < 0
-        magnitude = np.abs(axial, out=ea)
-        normal_outer = np.add(bending_outer, magnitude)
-        normal_inner = np.add(bending_inner, magnitude)
-        if compressive.any():
-            np.negative(normal_outer, out=normal_outer, where=compressive)
-            np.negative(normal_inner, out=normal_inner, where=compressive)
+        if np.any(force):
+            axial = np.multiply(modulus, strain[:, np.newaxis], out=ea)
+            if mask_needed:
+                np.copyto(axial, np.nan, where=unused)
+            compressive = axial < 0
+            magnitude = np.abs(axial)
+            normal_outer = np.add(bending_outer, magnitude)
+            normal_inner = np.add(magnitude, bending_inner, out=magnitude)
+            if compressive.any():
+                np.negative(normal_outer, out=normal_outer, where=compressive)
+                np.negative(normal_inner, out=normal_inner, where=compressive)
+        else:
+            # No axial force anywhere: the normal stress is the bending stress (shared,
+            # read-only), sparing three passes over the batch.
+            axial = np.multiply(bending_outer, 0.0, out=ea)
+            normal_outer, normal_inner = bending_outer, bending_inner
 
     return SectionBending(
         ei=ei,

@@ -273,7 +273,7 @@ def torsional_buckling(
         valid = (part_flags & int(LOAD_ERRORS)) == 0
 
         bore = np.where(mask[:, 0], di[:, 0], np.nan) / 2.0
-        outside = np.nanmax(np.where(mask, do, np.nan), axis=1) / 2.0
+        outside = np.fmax.reduce(np.where(mask, do, np.nan), axis=1) / 2.0
         radius_to_wall = (bore + outside) / (2.0 * (outside - bore))
         checked = valid & (bore > 0) & (radius_to_wall >= thin_wall_ratio)
 

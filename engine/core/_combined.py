@@ -156,7 +156,8 @@ class CombinedStress:
     sum_gj : (P,) ndarray, N*m^2
     layer_flags : (P, L) ndarray of int32
         :class:`LoadFlag`: ``STRENGTH_NOT_POSITIVE``, ``RULE_NOT_COMBINABLE``,
-        ``CONCENTRATION_BELOW_ONE`` (errors), ``BENDING_ALONE_EXCEEDS`` (a note).
+        ``CONCENTRATION_BELOW_ONE`` (the bending factor; errors), ``BENDING_ALONE_EXCEEDS``
+        (a note).
     part_flags : (P,) ndarray of int32
         ``TORQUE_NOT_FINITE``, the bending result's bits and the layers' bits.
     valid : (P,) ndarray of bool
@@ -208,6 +209,8 @@ def combined_stress(
     stress_concentration: ArrayLike = 1.0,
     bending_concentration: ArrayLike = 1.0,
     sum_stiffness: ArrayLike | None = None,
+    shear_outer: ArrayLike | None = None,
+    shear_inner: ArrayLike | None = None,
 ) -> CombinedStress:
     """Combined stress at each layer's outer and inner radius, and each layer's capacity.
 
@@ -226,11 +229,16 @@ def combined_stress(
     present : (P, L) array_like of bool, optional
         Default: a slot is present where its outer diameter is not NaN.
     stress_concentration : (P, L) array_like, 1
-        Kt for torsion at the outer radius (the stack's ``stress_concentration``).
+        Kt for torsion at the outer radius: the stack's ``stress_concentration``, checked
+        with the stack by :func:`rate` (as are the diameters and G).
     bending_concentration : (P, L) array_like, 1
         Kt for bending (and axial) stress at the outer radius.
     sum_stiffness : (P,) array_like, N*m^2, optional
         ``sum(G J)`` when the caller has it (``Rating.sum_gj``); computed otherwise.
+    shear_outer, shear_inner : (P, L) array_like, Pa, optional
+        Nominal torsional shear ``G_i r |T| / sum(GJ)`` at the two radii when the caller
+        has it (``Rating.stress_outer``, ``Rating.stress_inner`` for the same torque);
+        computed otherwise. Give both or neither.
 
     Returns
     -------
@@ -243,33 +251,58 @@ def combined_stress(
     Raises
     ------
     ValueError
-        If the inputs do not broadcast to the bending result's ``(P, L)`` and ``(P,)``.
+        If the inputs do not broadcast to the bending result's ``(P, L)`` and ``(P,)``,
+        or only one of ``shear_outer`` and ``shear_inner`` is given.
     """
-    (do, di, modulus, sy, fs, kt, kb, code), mask = layer_arrays(
+    (do, di, modulus, sy, fs), mask = layer_arrays(
         outer_diameter, inner_diameter, shear_modulus, yield_strength, factor_of_safety,
-        stress_concentration, bending_concentration, rule, present=present,
+        present=present,
     )
-    if do.shape != bending.ei.shape:
+    shape = do.shape
+    if shape != bending.ei.shape:
         raise ValueError(
-            f"layer inputs have shape {do.shape}; expected {bending.ei.shape} like the "
+            f"layer inputs have shape {shape}; expected {bending.ei.shape} like the "
             "bending result"
         )
-    n_parts = do.shape[0]
+    if (shear_outer is None) != (shear_inner is None):
+        raise ValueError("give both shear_outer and shear_inner, or neither")
+    try:
+        code = np.broadcast_to(np.asarray(rule), shape)
+        kt = np.broadcast_to(as_float(stress_concentration), shape)
+        kb_given = as_float(bending_concentration)
+        kb = np.broadcast_to(kb_given, shape)
+        given_shear = None if shear_outer is None else (
+            np.broadcast_to(as_float(shear_outer), shape),
+            np.broadcast_to(as_float(shear_inner), shape))
+    except ValueError as error:
+        raise ValueError(
+            f"rule, stress-concentration factors and shear stresses must broadcast to {shape}"
+        ) from error
+    n_parts = shape[0]
     demand = np.abs(part_array(torque, n_parts, "torque"))
 
     with np.errstate(all="ignore"):
-        layer_flags = np.zeros(do.shape, dtype=np.int32)
-        strength_ok = (sy > 0) & (sy < np.inf) & (fs > 0) & (fs < np.inf)
-        flag_where(layer_flags, mask & ~strength_ok, LoadFlag.STRENGTH_NOT_POSITIVE)
-        weight = _shear_weight(code)
-        flag_where(layer_flags, mask & np.isnan(weight), LoadFlag.RULE_NOT_COMBINABLE)
-        factors_ok = (kt >= 1) & (kt < np.inf) & (kb >= 1) & (kb < np.inf)
-        flag_where(layer_flags, mask & ~factors_ok, LoadFlag.CONCENTRATION_BELOW_ONE)
+        # Kt belongs to the layer stack and is checked there (rate's LayerFlag); the inputs
+        # new to this check are checked here.
+        allowable = np.divide(sy, fs)
+        strength_ok = allowable > 0
+        strength_ok &= allowable < np.inf
+        strength_ok &= fs > 0
+        rule_ok = (code == int(AllowableRule.MAX_SHEAR)) | (
+            code == int(AllowableRule.DISTORTION_ENERGY))
+        kb_ok = np.broadcast_to((kb_given >= 1) & (kb_given < np.inf), shape)
+        layer_flags = np.zeros(shape, dtype=np.int32)
+        for ok, flag in ((strength_ok, LoadFlag.STRENGTH_NOT_POSITIVE),
+                         (rule_ok, LoadFlag.RULE_NOT_COMBINABLE),
+                         (kb_ok, LoadFlag.CONCENTRATION_BELOW_ONE)):
+            bad = mask & ~ok
+            if bad.any():
+                flag_where(layer_flags, bad, flag)
         part_flags = bending.part_flags.copy()
         flag_where(part_flags, np.isinf(demand), LoadFlag.TORQUE_NOT_FINITE)
         part_flags = gather_layer_flags(part_flags, layer_flags)
         valid = (part_flags & int(LOAD_ERRORS)) == 0
-        unused = ~(mask & valid[:, np.newaxis])
+        unused = ~mask if valid.all() else ~(mask & valid[:, np.newaxis])
         mask_needed = bool(unused.any())
 
         if sum_stiffness is None:
@@ -279,37 +312,76 @@ def combined_stress(
             gj -= np.multiply(inner4, inner4, out=inner4)
             gj *= modulus
             np.copyto(gj, 0.0, where=~mask)
-            sum_gj = gj.sum(axis=1)
+            sum_gj = gj[:, 0].copy()
+            for slot in range(1, shape[1]):
+                sum_gj += gj[:, slot]
             sum_gj *= np.pi / 32.0
+            del gj, inner4
         else:
             sum_gj = part_array(sum_stiffness, n_parts, "sum_stiffness").copy()
         if not valid.all():
             sum_gj[~valid] = np.nan
 
-        half_theta = (0.5 * demand / sum_gj)[:, np.newaxis]
-        shear_outer = np.multiply(modulus, do)
-        shear_outer *= half_theta
-        shear_inner = np.multiply(modulus, di)
-        shear_inner *= half_theta
-        sigma_outer = np.multiply(bending.normal_outer, kb)
-        equivalent_outer = _equivalent(sigma_outer, shear_outer * kt, weight)
-        equivalent_inner = _equivalent(bending.normal_inner, shear_inner, weight)
+        # The batch is large: outputs are built in place and scratch space is borrowed from
+        # outputs not yet filled, since fresh memory costs more than the arithmetic.
+        # sigma_eq^2 = sigma^2 + c tau^2 with c = 4 (code 1) or 3 (code 2): c = 5 - code,
+        # kept as small integers (numpy converts them in chunks, no float copy).
+        weight = np.subtract(np.int8(5), code, dtype=np.int8)
+        arm = np.multiply(modulus, do)  # G D Kt: shear per twist rate, and the capacity's
+        arm *= kt
+        if given_shear is None:
+            half_theta = np.repeat(0.5 * demand / sum_gj, shape[1]).reshape(shape)
+            outer_shear = np.multiply(modulus, do)
+            outer_shear *= half_theta
+            inner_shear = np.multiply(modulus, di)
+            inner_shear *= half_theta
+            del half_theta
+        else:
+            outer_shear, inner_shear = given_shear
+        sigma_outer = bending.normal_outer
+        if not bool(np.all(kb_given == 1.0)):
+            sigma_outer = np.multiply(sigma_outer, kb)
 
-        allowable = np.divide(sy, fs)
-        utilisation = np.divide(equivalent_outer, allowable)
-        capacity = combined_capacity(sigma_outer, allowable, sum_gj[:, np.newaxis], modulus, do,
-                                     code, kt)
-        exceeded = np.abs(sigma_outer) >= allowable
-        flag_where(layer_flags, exceeded & ~unused, LoadFlag.BENDING_ALONE_EXCEEDS)
-        flag_where(part_flags, (exceeded & ~unused).any(axis=1), LoadFlag.BENDING_ALONE_EXCEEDS)
+        equivalent_outer = np.multiply(outer_shear, kt)
+        equivalent_outer *= equivalent_outer
+        equivalent_outer *= weight
+        capacity = np.multiply(sigma_outer, sigma_outer)  # sigma^2 for now
+        equivalent_outer += capacity
+        np.sqrt(equivalent_outer, out=equivalent_outer)
+
+        # combined_capacity, inline: T = 2 sum(GJ) sqrt((S^2 - sigma^2) / c) / (G D Kt).
+        utilisation = np.multiply(allowable, allowable)  # S^2 for now
+        np.subtract(utilisation, capacity, out=capacity)
+        exceeded = capacity <= 0
+        np.maximum(capacity, 0.0, out=capacity)
+        capacity /= weight
+        np.sqrt(capacity, out=capacity)
+        capacity *= (2.0 * sum_gj)[:, np.newaxis]
+        capacity /= arm
+        del arm
+
+        equivalent_inner = np.multiply(inner_shear, inner_shear)
+        equivalent_inner *= weight
+        normal_inner = bending.normal_inner
+        equivalent_inner += np.multiply(normal_inner, normal_inner, out=utilisation)
+        np.sqrt(equivalent_inner, out=equivalent_inner)
+        np.divide(equivalent_outer, allowable, out=utilisation)
+
+        exceeded &= ~unused
+        if exceeded.any():
+            flag_where(layer_flags, exceeded, LoadFlag.BENDING_ALONE_EXCEEDS)
+            flag_where(part_flags, exceeded.any(axis=1), LoadFlag.BENDING_ALONE_EXCEEDS)
+        if mask_needed and given_shear is not None:
+            # The caller's arrays are read, never written: NaN goes into copies.
+            outer_shear, inner_shear = np.array(outer_shear), np.array(inner_shear)
         if mask_needed:
-            for array in (shear_outer, shear_inner, equivalent_outer, equivalent_inner,
+            for array in (outer_shear, inner_shear, equivalent_outer, equivalent_inner,
                           allowable, utilisation, capacity):
                 np.copyto(array, np.nan, where=unused)
 
     return CombinedStress(
-        shear_outer=shear_outer,
-        shear_inner=shear_inner,
+        shear_outer=outer_shear,
+        shear_inner=inner_shear,
         equivalent_outer=equivalent_outer,
         equivalent_inner=equivalent_inner,
         allowable=allowable,

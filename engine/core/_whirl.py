@@ -112,10 +112,15 @@ def mass_per_length(
     (P,) ndarray, kg/m
     """
     (do, di, rho), mask = layer_arrays(outer_diameter, inner_diameter, density, present=present)
-    mass = np.subtract(do * do, di * di)
+    mass = np.multiply(do, do)
+    mass -= di * di
     mass *= rho
-    np.copyto(mass, 0.0, where=~mask)
-    total = mass.sum(axis=1)
+    if not mask.all():
+        np.copyto(mass, 0.0, where=~mask)
+    # A loop over the few slots: numpy sums a short last axis slowly.
+    total = mass[:, 0].copy()
+    for slot in range(1, mass.shape[1]):
+        total += mass[:, slot]
     total *= np.pi / 4.0
     return total
 
@@ -297,13 +302,23 @@ def whirl_check(
     n_parts = do.shape[0]
     span = part_array(length, n_parts, "length")
     omega = part_array(speed, n_parts, "speed")
-    code = np.broadcast_to(np.atleast_1d(np.asarray(support)), (n_parts,))
+    code = np.atleast_1d(np.asarray(support))
+    if code.ndim != 1 or code.shape[0] not in (1, n_parts):
+        raise ValueError(
+            f"support must hold one value or one per part ({n_parts}); got shape {code.shape}"
+        )
+    code = np.broadcast_to(code, (n_parts,))
 
     with np.errstate(all="ignore"):
         layer_flags = np.zeros(do.shape, dtype=np.int32)
-        flag_where(layer_flags, mask & ~((modulus > 0) & (modulus < np.inf)),
-                   LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE)
-        flag_where(layer_flags, mask & ~((rho > 0) & (rho < np.inf)), LoadFlag.DENSITY_NOT_POSITIVE)
+        for value, flag in ((modulus, LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE),
+                            (rho, LoadFlag.DENSITY_NOT_POSITIVE)):
+            bad = value > 0
+            bad &= value < np.inf
+            np.logical_not(bad, out=bad)
+            bad &= mask
+            if bad.any():
+                flag_where(layer_flags, bad, flag)
         part_flags = np.zeros(n_parts, dtype=np.int32)
         flag_where(part_flags, ~((span > 0) & (span < np.inf)), LoadFlag.LENGTH_NOT_POSITIVE)
         eigenvalue = np.atleast_1d(frequency_parameter(code))

@@ -11,6 +11,8 @@ from hypothesis import strategies as st
 import twistshare.engine.core._combined as combined_module
 from twistshare.engine.core import (
     AllowableRule,
+    Duty,
+    LayerStack,
     LoadFlag,
     allowable_shear,
     combined_capacity,
@@ -18,6 +20,7 @@ from twistshare.engine.core import (
     equivalent_stress,
     layer_capacity,
     layer_stiffness,
+    rate,
     section_bending,
 )
 
@@ -115,6 +118,31 @@ class TestCompound:
         computed = combined_stress(*args)
         given_ = combined_stress(*args, sum_stiffness=computed.sum_gj)
         np.testing.assert_allclose(given_.capacity, computed.capacity, rtol=1e-14)
+
+
+    def test_shear_from_the_rating_gives_the_same_result(self):
+        """rate() computes the same shear stresses: passing them changes nothing, and the
+        caller's arrays are never written (the invalid part's NaN goes into copies)."""
+        stack = LayerStack.from_arrays(
+            outer_diameter=[[0.04, 0.05], [0.03, 0.036]], inner_diameter=[[0.0, 0.04], [0.0, 0.03]],
+            shear_modulus=[[79.3e9, 41.4e9]], allowable_shear=[[100e6, 60e6]],
+            stress_concentration=[[1.2, 1.0]])
+        rating = rate(stack, Duty.from_arrays(torque=[600.0, 200.0]))
+        bending = section_bending(stack.outer_diameter, stack.inner_diameter, [[207e9, 111e9]],
+                                  [300.0, 50.0])
+        args = (bending, stack.outer_diameter, stack.inner_diameter, stack.shear_modulus,
+                [600.0, 200.0], [[300e6, 250e6], [300e6, -1.0]], [[2.0, 2.0]], [[1, 2]])
+        kwargs = dict(stress_concentration=stack.stress_concentration)
+        computed = combined_stress(*args, **kwargs)
+        reused = combined_stress(*args, **kwargs, sum_stiffness=rating.sum_gj,
+                                 shear_outer=rating.stress_outer, shear_inner=rating.stress_inner)
+        for name in ("shear_outer", "equivalent_outer", "equivalent_inner", "capacity"):
+            np.testing.assert_allclose(getattr(reused, name), getattr(computed, name),
+                                       rtol=1e-12)
+        assert list(reused.valid) == [True, False]
+        assert np.isfinite(rating.stress_outer[1]).all()
+        with pytest.raises(ValueError, match="give both shear_outer and shear_inner"):
+            combined_stress(*args, shear_outer=rating.stress_outer)
 
 
 class TestFlags:
