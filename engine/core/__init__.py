@@ -32,6 +32,7 @@ from ._buckling import (
     long_tube_buckling_stress,
     moderate_tube_buckling_stress,
     torsional_buckling,
+    tube_buckling_capacity,
     tube_buckling_stress,
 )
 from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
@@ -205,6 +206,7 @@ __all__ = [
     "long_tube_buckling_stress",
     "moderate_tube_buckling_stress",
     "tube_buckling_stress",
+    "tube_buckling_capacity",
     "TorsionalBuckling",
     "torsional_buckling",
 ]

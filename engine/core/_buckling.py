@@ -63,6 +63,7 @@ __all__ = [
     "long_tube_buckling_stress",
     "moderate_tube_buckling_stress",
     "tube_buckling_stress",
+    "tube_buckling_capacity",
     "TorsionalBuckling",
     "torsional_buckling",
 ]
@@ -170,6 +171,42 @@ def tube_buckling_stress(
     long = long_tube_buckling_stress(youngs_modulus, poisson_ratio, radius, wall)
     moderate = moderate_tube_buckling_stress(youngs_modulus, poisson_ratio, radius, wall, length)
     return scalar_out(as_float(knock_down) * np.fmax(long, moderate))
+
+
+def tube_buckling_capacity(
+    youngs_modulus: ArrayLike,
+    poisson_ratio: ArrayLike,
+    radius: ArrayLike,
+    wall: ArrayLike,
+    length: ArrayLike,
+    factor_of_safety: ArrayLike,
+    knock_down: ArrayLike = BUCKLING_KNOCK_DOWN,
+) -> Any:
+    """Section torque at which a thin wall buckles in torsion, over the factor of safety.
+
+    ``T = 2 pi r^2 t tau_cr / FS`` with ``tau_cr`` from :func:`tube_buckling_stress`. For a
+    compound wall pass the equivalent wall (:func:`torsional_buckling` does).
+
+    Parameters
+    ----------
+    youngs_modulus : array_like, Pa
+    poisson_ratio : array_like, 1
+    radius : array_like, m
+    wall : array_like, m
+    length : array_like, m
+    factor_of_safety : array_like, 1
+    knock_down : array_like, 1
+
+    Returns
+    -------
+    ndarray or scalar, N*m
+    """
+    stress = tube_buckling_stress(youngs_modulus, poisson_ratio, radius, wall, length,
+                                  knock_down)
+    r = as_float(radius)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        result = 2.0 * np.pi * r * r * as_float(wall) * stress / as_float(factor_of_safety)
+    return scalar_out(result)
 
 
 @dataclass(frozen=True)

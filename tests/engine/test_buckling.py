@@ -15,6 +15,7 @@ from twistshare.engine.core import (
     long_tube_buckling_stress,
     moderate_tube_buckling_stress,
     torsional_buckling,
+    tube_buckling_capacity,
 )
 
 SETTINGS = settings(max_examples=100, deadline=None, database=None,
@@ -58,6 +59,8 @@ class TestLongTube:
     def test_factor_of_safety_divides(self):
         result = _tube(0.100, 0.098, 10.0, fs=2.5)
         assert result.capacity[0] == pytest.approx(result.critical_torque[0] / 2.5, rel=1e-12)
+        plain = tube_buckling_capacity(E, NU, 0.0495, 0.001, 10.0, 2.5)
+        assert plain == pytest.approx(result.capacity[0], rel=1e-12)
 
 
 class TestModerateLength:
