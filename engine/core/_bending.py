@@ -6,6 +6,9 @@ The strain ``kappa * r`` is continuous through the wall; the stress ``E_i * kapp
 at each interface, as the shear stress does in torsion. An axial force ``N`` stretches every
 layer alike: ``eps = N / sum(E A)``, ``sigma_i = E_i * eps``. The layers are concentric
 circles, so the neutral axis is the centre line and bending and stretching do not couple.
+
+Preliminary design aid: verify against the applicable codes and standards and have a qualified
+engineer review the design; local codes and licensed practice prevail.
 """
 
 from __future__ import annotations

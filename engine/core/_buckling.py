@@ -35,6 +35,9 @@ Solid and thick-walled sections (mean radius over wall below 10, common practice
 shell theory) are not checked: their capacity is +inf, since a stocky tube yields first.
 Elastic formulas: where the buckling stress would exceed the shear yield stress, the
 layer-stress criterion governs in any case.
+
+Preliminary design aid: verify against the applicable codes and standards and have a qualified
+engineer review the design; local codes and licensed practice prevail.
 """
 
 from __future__ import annotations

@@ -12,6 +12,9 @@ each against ``Sy / FS``. With zero normal stress both reduce to the torsion-onl
 
 The classic transmission-shafting code's combined equation for steel shafts, with shock and
 fatigue factors, is in :mod:`._shafting_code`.
+
+Preliminary design aid: verify against the applicable codes and standards and have a qualified
+engineer review the design; local codes and licensed practice prevail.
 """
 
 from __future__ import annotations
@@ -290,6 +293,8 @@ def combined_stress(
         strength_ok &= fs > 0
         rule_ok = (code == int(AllowableRule.MAX_SHEAR)) | (
             code == int(AllowableRule.DISTORTION_ENERGY))
+        if code.dtype.kind not in "iu":  # codes read as floats (NaN for a blank cell)
+            code = np.where(rule_ok, code, 0).astype(np.int8)
         kb_ok = np.broadcast_to((kb_given >= 1) & (kb_given < np.inf), shape)
         layer_flags = np.zeros(shape, dtype=np.int32)
         for ok, flag in ((strength_ok, LoadFlag.STRENGTH_NOT_POSITIVE),

@@ -13,6 +13,9 @@ Angles are measured from the tube's axis (x) towards the hoop direction (y), in 
 Only the membrane stiffness ``A`` is used: coupling ``B`` (unsymmetric layups) and the
 wall's bending stiffness ``D`` matter little for a thin tube's section stiffness and are left
 out. An unbalanced layup (A16, A26 not zero) couples twist with stretch: it is noted.
+
+Preliminary design aid: verify against the applicable codes and standards and have a qualified
+engineer review the design; local codes and licensed practice prevail.
 """
 
 from __future__ import annotations

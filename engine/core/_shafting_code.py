@@ -14,6 +14,9 @@ on shafts (from memory). It is a single-material rule: for a compound shaft use
 
 Careful: ``K_t`` here is the code's shock and fatigue factor on torsion, not a
 stress-concentration factor (the layer stack's ``stress_concentration``).
+
+Preliminary design aid: verify against the applicable codes and standards and have a qualified
+engineer review the design; local codes and licensed practice prevail.
 """
 
 from __future__ import annotations

@@ -7,11 +7,16 @@ Natural Frequency and Mode Shape, table of uniform single-span beams; from memor
 Margin rule (common practice): run a shaft below its first critical at no more than 0.70 of
 it (figures of 0.70 to 0.75 are common; the lower is taken). The check does not scale with
 torque, so it is a gate rather than a torque capacity: see :func:`whirl_gate_capacity`.
+A shaft designed to run above its first critical (supercritical) fails this check by design
+and needs its own analysis.
 
 Euler-Bernoulli theory leaves out shear deformation and rotary inertia (they lower the
 critical of short, thick tubes), bearing and housing flexibility (it lowers the critical:
 rigid supports are not conservative), gyroscopic effects and masses carried on the shaft
 (couplings, impellers, pulleys): a preliminary check only.
+
+Preliminary design aid: verify against the applicable codes and standards and have a qualified
+engineer review the design; local codes and licensed practice prevail.
 """
 
 from __future__ import annotations

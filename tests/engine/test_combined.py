@@ -167,6 +167,14 @@ class TestFlags:
         assert not result.valid[0]
         assert np.isnan(result.capacity[0, 0])
 
+    def test_rule_codes_read_as_floats(self):
+        """A rule column read from a sheet arrives as floats, NaN where blank."""
+        as_int = _tube(0.05, 0.0, 100.0, 100.0, DISTORTION)
+        as_float_ = _tube(0.05, 0.0, 100.0, 100.0, float(DISTORTION))
+        assert as_float_.capacity[0, 0] == as_int.capacity[0, 0]
+        blank = _tube(0.05, 0.0, 100.0, 100.0, np.nan)
+        assert blank.layer_flags[0, 0] == LoadFlag.RULE_NOT_COMBINABLE
+
     def test_no_torque_rates_the_capacity_only(self):
         result = _tube(0.05, 0.0, 100.0, np.nan, MAX_SHEAR)
         assert result.valid[0]
