@@ -90,6 +90,8 @@ def gather_layer_flags(
 ) -> NDArray[np.int32]:
     """Part words with every layer's bits OR-ed in (a loop over the few layer slots)."""
     result = part_flags.copy()
+    if not layer_flags.any():  # the common case, and a cheap test
+        return result
     for slot in range(layer_flags.shape[1]):
         result |= layer_flags[:, slot]
     return result
