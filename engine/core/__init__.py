@@ -23,6 +23,18 @@ from ._allowables import (
     allowable_flags,
     allowable_shear,
 )
+from ._bending import SectionBending, area_moment, section_area, section_bending
+from ._buckling import (
+    BUCKLING_KNOCK_DOWN,
+    SHORT_TUBE_Z,
+    THIN_WALL_RATIO,
+    TorsionalBuckling,
+    long_tube_buckling_stress,
+    moderate_tube_buckling_stress,
+    torsional_buckling,
+    tube_buckling_capacity,
+    tube_buckling_stress,
+)
 from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
 from ._compatibility import (
     layer_stiffness,
@@ -31,15 +43,20 @@ from ._compatibility import (
     torque_share,
     twist_per_length,
 )
+from ._combined import CombinedStress, combined_capacity, combined_stress, equivalent_stress
 from ._criteria import AllowableRule, Criterion
 from ._demand import torque_from_power
 from ._diagnoses import (
     ALLOWABLE_ERRORS,
     LAYER_ERRORS,
+    LOAD_ERRORS,
     PART_ERRORS,
+    PLY_ERRORS,
     AllowableFlag,
     LayerFlag,
+    LoadFlag,
     PartFlag,
+    PlyFlag,
     describe,
     has_error,
     is_error,
@@ -47,6 +64,16 @@ from ._diagnoses import (
 )
 from ._criteria_list import CRITERIA, CriterionCheck, Section, governing_of
 from ._governing import governing_limit, margin, reserve_factor
+
+from ._laminate import (
+    LaminateModuli,
+    PlySet,
+    laminate_moduli,
+    ply_flags,
+    ply_library,
+    reduced_stiffness,
+    transformed_stiffness,
+)
 from ._materials import (
     Material,
     complete_from_library,
@@ -58,6 +85,13 @@ from ._materials import (
 from ._radius import RadiusPlace, layer_at_radius
 from ._rating import Duty, Rating, rate
 from ._restoring import RestoreResult, restore_sleeve
+from ._shafting_code import (
+    SHAFTING_CODE_SHOCK_FATIGUE_FACTORS,
+    ShockFatigueFactors,
+    shafting_code_capacity,
+    shafting_code_diameter,
+    shafting_code_shear_stress,
+)
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -77,6 +111,17 @@ from ._sizing import (
     solve_dimension,
 )
 from ._stock import StockResult, StockStatus, round_up_to_stock
+from ._whirl import (
+    WHIRL_SPEED_RATIO_LIMIT,
+    EndSupport,
+    WhirlCheck,
+    critical_speed,
+    frequency_parameter,
+    mass_per_length,
+    whirl_check,
+    whirl_gate_capacity,
+    whirl_reserve,
+)
 
 __all__ = [
     # enumerations and diagnoses
@@ -88,6 +133,10 @@ __all__ = [
     "LAYER_ERRORS",
     "PART_ERRORS",
     "ALLOWABLE_ERRORS",
+    "LoadFlag",
+    "PlyFlag",
+    "LOAD_ERRORS",
+    "PLY_ERRORS",
     "is_error",
     "has_error",
     "describe",
@@ -152,4 +201,47 @@ __all__ = [
     "round_up_to_stock",
     "RestoreResult",
     "restore_sleeve",
+    # bending and combined stress
+    "area_moment",
+    "section_area",
+    "SectionBending",
+    "section_bending",
+    "equivalent_stress",
+    "combined_capacity",
+    "CombinedStress",
+    "combined_stress",
+    # the transmission-shafting code's combined equation
+    "ShockFatigueFactors",
+    "SHAFTING_CODE_SHOCK_FATIGUE_FACTORS",
+    "shafting_code_shear_stress",
+    "shafting_code_capacity",
+    "shafting_code_diameter",
+    # whirl
+    "EndSupport",
+    "WHIRL_SPEED_RATIO_LIMIT",
+    "frequency_parameter",
+    "mass_per_length",
+    "critical_speed",
+    "whirl_reserve",
+    "whirl_gate_capacity",
+    "WhirlCheck",
+    "whirl_check",
+    # laminates
+    "PlySet",
+    "ply_library",
+    "reduced_stiffness",
+    "transformed_stiffness",
+    "ply_flags",
+    "LaminateModuli",
+    "laminate_moduli",
+    # torsional buckling
+    "BUCKLING_KNOCK_DOWN",
+    "THIN_WALL_RATIO",
+    "SHORT_TUBE_Z",
+    "long_tube_buckling_stress",
+    "moderate_tube_buckling_stress",
+    "tube_buckling_stress",
+    "tube_buckling_capacity",
+    "TorsionalBuckling",
+    "torsional_buckling",
 ]

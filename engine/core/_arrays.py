@@ -33,3 +33,65 @@ def as_bool(value: ArrayLike) -> NDArray[np.bool_]:
     if array.dtype.kind in "fc":
         return np.nan_to_num(array, nan=0.0) != 0
     return array.astype(bool)
+
+
+def layer_arrays(
+    *values: ArrayLike, present: ArrayLike | None = None
+) -> tuple[list[NDArray[np.float64]], NDArray[np.bool_]]:
+    """Per-layer inputs broadcast to one ``(P, L)`` float shape, and the ``present`` mask.
+
+    A 1-D input is one part's layers. ``present`` defaults to "the first input is not NaN",
+    the convention of ``LayerStack.from_arrays``.
+
+    Raises
+    ------
+    ValueError
+        If the inputs do not broadcast or have more than two dimensions.
+    """
+    floats = [as_float(v) for v in values]
+    extra = [] if present is None else [as_bool(present)]
+    try:
+        arrays = np.broadcast_arrays(*floats, *extra)
+    except ValueError as error:
+        shapes = ", ".join(str(np.shape(a)) for a in (*floats, *extra))
+        raise ValueError(f"layer inputs do not broadcast together: {shapes}") from error
+    if arrays[0].ndim > 2:
+        raise ValueError(
+            f"layer inputs must be at most (parts, layers); got shape {arrays[0].shape}"
+        )
+    arrays = [np.atleast_2d(a) for a in arrays]
+    mask = ~np.isnan(arrays[0]) if present is None else arrays.pop()
+    return arrays, mask
+
+
+def part_array(value: ArrayLike, n_parts: int, name: str) -> NDArray[np.float64]:
+    """A per-part input broadcast to ``(P,)`` floats (a scalar applies to every part).
+
+    Raises
+    ------
+    ValueError
+        If ``value`` has neither one value nor one per part; the message names it.
+    """
+    array = np.atleast_1d(as_float(value))
+    if array.ndim != 1 or array.shape[0] not in (1, n_parts):
+        raise ValueError(
+            f"{name} must hold one value or one per part ({n_parts}); got shape {array.shape}"
+        )
+    return np.broadcast_to(array, (n_parts,))
+
+
+def flag_where(words: NDArray[np.int32], condition: NDArray[np.bool_], flag: int) -> None:
+    """Set ``flag`` in ``words`` where ``condition`` holds, in place."""
+    np.bitwise_or(words, np.int32(flag), out=words, where=condition)
+
+
+def gather_layer_flags(
+    part_flags: NDArray[np.int32], layer_flags: NDArray[np.int32]
+) -> NDArray[np.int32]:
+    """Part words with every layer's bits OR-ed in (a loop over the few layer slots)."""
+    result = part_flags.copy()
+    if not layer_flags.any():  # the common case, and a cheap test
+        return result
+    for slot in range(layer_flags.shape[1]):
+        result |= layer_flags[:, slot]
+    return result

@@ -21,6 +21,10 @@ __all__ = [
     "LAYER_ERRORS",
     "PART_ERRORS",
     "ALLOWABLE_ERRORS",
+    "LoadFlag",
+    "LOAD_ERRORS",
+    "PlyFlag",
+    "PLY_ERRORS",
     "is_error",
     "describe",
     "split_flags",
@@ -72,6 +76,44 @@ class AllowableFlag(IntFlag):
     KEYWAY_IGNORED = 1 << 7
 
 
+class LoadFlag(IntFlag):
+    """Diagnosis bits of the checks beyond torsion: bending, combined stress, whirl, buckling.
+
+    Each result holds them per layer (``layer_flags``, ``(P, L)``) and per part
+    (``part_flags``, ``(P,)``, which also gathers its layers' bits); its docstring says
+    which bits it sets.
+    """
+
+    MOMENT_NOT_FINITE = 1 << 0
+    AXIAL_FORCE_NOT_FINITE = 1 << 1
+    YOUNGS_MODULUS_NOT_POSITIVE = 1 << 2
+    DENSITY_NOT_POSITIVE = 1 << 3
+    STRENGTH_NOT_POSITIVE = 1 << 4
+    RULE_NOT_COMBINABLE = 1 << 5
+    BENDING_ALONE_EXCEEDS = 1 << 6
+    TORQUE_NOT_FINITE = 1 << 7
+    LENGTH_NOT_POSITIVE = 1 << 8
+    SUPPORT_UNKNOWN = 1 << 9
+    SPEED_NOT_GIVEN = 1 << 10
+    SPEED_NOT_FINITE = 1 << 11
+    SPEED_ABOVE_WHIRL_LIMIT = 1 << 12
+    POISSON_OUT_OF_RANGE = 1 << 13
+    NOT_THIN_WALLED = 1 << 14
+    SHORT_TUBE = 1 << 15
+    CONCENTRATION_BELOW_ONE = 1 << 16
+
+
+class PlyFlag(IntFlag):
+    """Diagnosis bits of ply data and laminates (``LaminateModuli.flags``, ``int32``)."""
+
+    MODULUS_NOT_POSITIVE = 1 << 0
+    POISSON_OUT_OF_RANGE = 1 << 1
+    THICKNESS_NOT_POSITIVE = 1 << 2
+    ANGLE_NOT_FINITE = 1 << 3
+    NO_PLIES = 1 << 4
+    UNBALANCED = 1 << 5
+
+
 # Combinations of flags are immutable IntFlag values, not mutable state.
 LAYER_ERRORS: LayerFlag = LayerFlag(sum(LayerFlag))
 """Every layer flag is an error: the part is not rated."""
@@ -94,6 +136,21 @@ ALLOWABLE_ERRORS: AllowableFlag = (
     | AllowableFlag.FACTOR_OF_SAFETY_NOT_POSITIVE
 )
 """Allowable flags that leave the allowable NaN; the rest are notes."""
+
+LOAD_ERRORS: LoadFlag = LoadFlag(
+    sum(LoadFlag)
+    & ~(
+        LoadFlag.BENDING_ALONE_EXCEEDS
+        | LoadFlag.SPEED_NOT_GIVEN
+        | LoadFlag.SPEED_ABOVE_WHIRL_LIMIT
+        | LoadFlag.NOT_THIN_WALLED
+        | LoadFlag.SHORT_TUBE
+    )
+)
+"""Load flags that leave a result NaN; the rest are notes (findings the result already holds)."""
+
+PLY_ERRORS: PlyFlag = PlyFlag(sum(PlyFlag) & ~PlyFlag.UNBALANCED)
+"""Ply flags that leave a laminate's moduli NaN; ``UNBALANCED`` is a note."""
 
 # IntFlag members of different types compare equal by value, so the table is keyed by
 # (type, value) rather than by the member itself.
@@ -155,6 +212,54 @@ _DESCRIPTION_LIST: tuple[tuple[IntFlag, str], ...] = (
     (AllowableFlag.KEYWAY_IGNORED, (
         "keyway reduction applies to the shafting code rule only: use Kt for other rules"
     )),
+    (LoadFlag.MOMENT_NOT_FINITE, "bending moment must be a finite number (0 for none)"),
+    (LoadFlag.AXIAL_FORCE_NOT_FINITE, "axial force must be a finite number (0 for none)"),
+    (LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE, (
+        "the Young's modulus must be a positive finite number"
+    )),
+    (LoadFlag.DENSITY_NOT_POSITIVE, "density must be a positive finite number"),
+    (LoadFlag.STRENGTH_NOT_POSITIVE, (
+        "yield strength and factor of safety must be positive finite numbers"
+    )),
+    (LoadFlag.RULE_NOT_COMBINABLE, (
+        "combined bending and torsion needs the maximum-shear-stress or distortion-energy "
+        "rule and a yield strength"
+    )),
+    (LoadFlag.BENDING_ALONE_EXCEEDS, (
+        "the bending (and axial) stress alone reaches the allowable: no torque can be carried"
+    )),
+    (LoadFlag.TORQUE_NOT_FINITE, "torque must be finite to combine it with the bending stress"),
+    (LoadFlag.LENGTH_NOT_POSITIVE, (
+        "length between the supports must be a positive finite number"
+    )),
+    (LoadFlag.SUPPORT_UNKNOWN, "end support is not one of the known end conditions"),
+    (LoadFlag.SPEED_NOT_GIVEN, "no operating speed given: the whirl check is not made"),
+    (LoadFlag.SPEED_NOT_FINITE, "operating speed must be a finite number"),
+    (LoadFlag.SPEED_ABOVE_WHIRL_LIMIT, (
+        "operating speed is above the allowed fraction of the first bending critical speed"
+    )),
+    (LoadFlag.POISSON_OUT_OF_RANGE, "the Poisson's ratio must be between -1 and 0.5"),
+    (LoadFlag.NOT_THIN_WALLED, (
+        "solid or thick-walled section: torsional buckling of a thin tube does not apply"
+    )),
+    (LoadFlag.SHORT_TUBE, (
+        "short tube: the moderate-length buckling formula is used below its range "
+        "(it underestimates the buckling torque there)"
+    )),
+    (LoadFlag.CONCENTRATION_BELOW_ONE, (
+        "stress-concentration factor must be a finite number of at least 1"
+    )),
+    (PlyFlag.MODULUS_NOT_POSITIVE, "ply moduli E1, E2 and G12 must be positive finite numbers"),
+    (PlyFlag.POISSON_OUT_OF_RANGE, (
+        "ply Poisson's ratio nu12 must be finite with nu12^2 * E2 / E1 below 1"
+    )),
+    (PlyFlag.THICKNESS_NOT_POSITIVE, "ply thickness must be a positive finite number"),
+    (PlyFlag.ANGLE_NOT_FINITE, "ply angle must be a finite number"),
+    (PlyFlag.NO_PLIES, "the laminate has no plies"),
+    (PlyFlag.UNBALANCED, (
+        "laminate is not balanced (A16 or A26 not zero): torsion couples with axial and hoop "
+        "strain, and A66/t is the shear modulus with those strains restrained"
+    )),
 )
 _DESCRIPTIONS: dict[tuple[type, int], str] = {
     (type(flag), int(flag)): text for flag, text in _DESCRIPTION_LIST
@@ -164,17 +269,19 @@ _ERROR_MASKS: dict[type, int] = {
     LayerFlag: int(LAYER_ERRORS),
     PartFlag: int(PART_ERRORS),
     AllowableFlag: int(ALLOWABLE_ERRORS),
+    LoadFlag: int(LOAD_ERRORS),
+    PlyFlag: int(PLY_ERRORS),
 }
 
-F = TypeVar("F", LayerFlag, PartFlag, AllowableFlag)
+F = TypeVar("F", LayerFlag, PartFlag, AllowableFlag, LoadFlag, PlyFlag)
 
 
-def is_error(flag: LayerFlag | PartFlag | AllowableFlag) -> bool:
+def is_error(flag: LayerFlag | PartFlag | AllowableFlag | LoadFlag | PlyFlag) -> bool:
     """Return True if ``flag`` (one flag or a combination) contains an error bit.
 
     Parameters
     ----------
-    flag : LayerFlag, PartFlag or AllowableFlag
+    flag : LayerFlag, PartFlag, AllowableFlag, LoadFlag or PlyFlag
 
     Returns
     -------
@@ -191,7 +298,7 @@ def has_error(flags: ArrayLike, flag_type: type[F]) -> NDArray[np.bool_]:
     flags : array_like of int
         Flag words such as ``Rating.layer_flags``.
     flag_type : type
-        ``LayerFlag``, ``PartFlag`` or ``AllowableFlag``.
+        ``LayerFlag``, ``PartFlag``, ``AllowableFlag``, ``LoadFlag`` or ``PlyFlag``.
 
     Returns
     -------
@@ -200,12 +307,12 @@ def has_error(flags: ArrayLike, flag_type: type[F]) -> NDArray[np.bool_]:
     return (np.asarray(flags) & _ERROR_MASKS[flag_type]) != 0
 
 
-def describe(flag: LayerFlag | PartFlag | AllowableFlag) -> str:
+def describe(flag: LayerFlag | PartFlag | AllowableFlag | LoadFlag | PlyFlag) -> str:
     """Return a short plain-English description of a single flag.
 
     Parameters
     ----------
-    flag : LayerFlag, PartFlag or AllowableFlag
+    flag : LayerFlag, PartFlag, AllowableFlag, LoadFlag or PlyFlag
         One member (not a combination; use :func:`split_flags` first).
 
     Returns
@@ -233,7 +340,7 @@ def split_flags(value: int, flag_type: type[F]) -> tuple[F, ...]:
     value : int
         A flag word such as ``int(rating.part_flags[i])``.
     flag_type : type
-        ``LayerFlag``, ``PartFlag`` or ``AllowableFlag``.
+        ``LayerFlag``, ``PartFlag``, ``AllowableFlag``, ``LoadFlag`` or ``PlyFlag``.
 
     Returns
     -------

@@ -13,7 +13,9 @@ from twistshare.engine.core import (
     Duty,
     LayerFlag,
     LayerStack,
+    LoadFlag,
     PartFlag,
+    PlyFlag,
     describe,
     has_error,
     is_error,
@@ -222,7 +224,7 @@ class TestBatchIsolation:
 
 
 class TestFlagHelpers:
-    @pytest.mark.parametrize("flag", [*LayerFlag, *PartFlag, *AllowableFlag])
+    @pytest.mark.parametrize("flag", [*LayerFlag, *PartFlag, *AllowableFlag, *LoadFlag, *PlyFlag])
     def test_every_flag_described(self, flag):
         text = describe(flag)
         assert text and text[0].islower() and not text.endswith(".")
@@ -232,7 +234,7 @@ class TestFlagHelpers:
         get its own text."""
         assert describe(LayerFlag.GAP_BELOW) != describe(AllowableFlag.KEYWAY_IGNORED)
         assert int(LayerFlag.GAP_BELOW) == int(AllowableFlag.KEYWAY_IGNORED)
-        texts = [describe(f) for f in [*LayerFlag, *PartFlag, *AllowableFlag]]
+        texts = [describe(f) for f in [*LayerFlag, *PartFlag, *AllowableFlag, *LoadFlag, *PlyFlag]]
         assert len(set(texts)) == len(texts)
 
     def test_describe_refuses_combinations(self):
@@ -255,3 +257,14 @@ class TestFlagHelpers:
             has_error([0, int(PartFlag.TORQUE_NEGATIVE), int(PartFlag.NO_LAYERS)], PartFlag),
             [False, False, True],
         )
+
+    def test_load_and_ply_notes(self):
+        """Findings the result already holds are notes; missing or bad inputs are errors."""
+        notes = {LoadFlag.BENDING_ALONE_EXCEEDS, LoadFlag.SPEED_NOT_GIVEN,
+                 LoadFlag.SPEED_ABOVE_WHIRL_LIMIT, LoadFlag.NOT_THIN_WALLED, LoadFlag.SHORT_TUBE}
+        for flag in LoadFlag:
+            assert is_error(flag) is (flag not in notes)
+        for flag in PlyFlag:
+            assert is_error(flag) is (flag is not PlyFlag.UNBALANCED)
+        word = int(LoadFlag.SHORT_TUBE | LoadFlag.LENGTH_NOT_POSITIVE)
+        assert split_flags(word, LoadFlag) == (LoadFlag.LENGTH_NOT_POSITIVE, LoadFlag.SHORT_TUBE)
