@@ -23,6 +23,7 @@ from ._allowables import (
     allowable_flags,
     allowable_shear,
 )
+from ._bond import bond_capacity, bond_inputs_ok, bond_shear, bond_torque_capacity
 from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
 from ._compatibility import (
     layer_stiffness,
@@ -45,7 +46,23 @@ from ._diagnoses import (
     is_error,
     split_flags,
 )
+from ._fits import (
+    FRICTION_GUIDANCE,
+    FRICTION_GUIDANCE_SOURCE,
+    REFERENCE_TEMPERATURE,
+    FrictionGuide,
+    combined_stress_capacity,
+    equivalent_stress,
+    fit_hoop_stresses,
+    fit_pressure,
+    interference_at_temperature,
+    lame_stresses,
+    slip_capacity,
+    slip_torque,
+)
 from ._governing import factor_of_safety, governing_limit, margin
+from ._interfaces import InterfaceRating, rate_interfaces
+from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share, interface_torque
 from ._materials import (
     Material,
     complete_from_library,
@@ -54,6 +71,15 @@ from ._materials import (
     material_library,
     normalise_name,
 )
+from ._plastic import (
+    PlasticReserve,
+    fully_plastic_torque,
+    plastic_reserve,
+    plastic_torque,
+    torque_twist_curve,
+    twist_rate_at_torque,
+)
+from ._plastic_unloading import permanent_twist, residual_stress_profile
 from ._rating import Duty, Rating, rate
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
@@ -63,6 +89,15 @@ from ._section import (
     polar_moment,
     shear_modulus_from_elastic,
 )
+from ._sleeve_diagnoses import (
+    INTERFACE_ERRORS,
+    PLASTIC_ERRORS,
+    InterfaceFlag,
+    PlasticFlag,
+    describe_sleeve_flag,
+    has_sleeve_error,
+)
+from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
 
 __all__ = [
     # enumerations and diagnoses
@@ -118,4 +153,47 @@ __all__ = [
     "Duty",
     "Rating",
     "rate",
+    # load path and interfaces
+    "LoadPath",
+    "DEFAULT_LOAD_PATH",
+    "interface_torque",
+    "interface_share",
+    "InterfaceFlag",
+    "INTERFACE_ERRORS",
+    "PlasticFlag",
+    "PLASTIC_ERRORS",
+    "describe_sleeve_flag",
+    "has_sleeve_error",
+    # fits
+    "REFERENCE_TEMPERATURE",
+    "FrictionGuide",
+    "FRICTION_GUIDANCE",
+    "FRICTION_GUIDANCE_SOURCE",
+    "interference_at_temperature",
+    "fit_pressure",
+    "fit_hoop_stresses",
+    "lame_stresses",
+    "slip_torque",
+    "slip_capacity",
+    "equivalent_stress",
+    "combined_stress_capacity",
+    "stack_fit_pressures",
+    "layer_fit_stress_capacity",
+    # bonds
+    "bond_inputs_ok",
+    "bond_shear",
+    "bond_torque_capacity",
+    "bond_capacity",
+    # interfaces of a batch
+    "InterfaceRating",
+    "rate_interfaces",
+    # plastic reserve
+    "PlasticReserve",
+    "plastic_reserve",
+    "plastic_torque",
+    "fully_plastic_torque",
+    "torque_twist_curve",
+    "twist_rate_at_torque",
+    "residual_stress_profile",
+    "permanent_twist",
 ]
