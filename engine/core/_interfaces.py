@@ -21,12 +21,11 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_float, frozen_view
-from ._bond import bond_capacity
-from ._fits import REFERENCE_TEMPERATURE, slip_capacity, slip_torque
+from ._fits import REFERENCE_TEMPERATURE
 from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share
 from ._section import LayerStack
-from ._sleeve_diagnoses import INTERFACE_ERRORS, InterfaceFlag
-from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
+from ._sleeve_diagnoses import InterfaceFlag
+from ._stack_fits import _fit_stress, _shape_factors, _solve
 
 __all__ = ["InterfaceRating", "rate_interfaces"]
 
@@ -99,25 +98,40 @@ def _part(value: ArrayLike, n_parts: int) -> NDArray[np.float64]:
 
 
 def _smallest(
-    capacity: NDArray[np.float64], error: NDArray[np.bool_]
+    columns: list[NDArray[np.float64] | None], failed: NDArray[np.bool_] | None, n_parts: int
 ) -> tuple[NDArray[np.float64], NDArray[np.int16]]:
-    """Smallest capacity per part (NaN entries skipped), NaN where any entry is in error."""
-    n_parts, n_slots = capacity.shape
+    """Smallest capacity per part over the slots (NaN and None skipped); NaN where failed."""
     limit = np.full(n_parts, np.inf)
     slot = np.full(n_parts, -1, dtype=np.int16)
+    # Arithmetic rather than masked copies: a random mask costs a masked copy ~20x a plain op.
     with np.errstate(invalid="ignore"):
-        for k in range(n_slots):
-            wins = capacity[:, k] < limit
-            np.copyto(limit, capacity[:, k], where=wins)
-            np.copyto(slot, k, where=wins)
-    failed = error.any(axis=1)
-    limit[failed] = np.nan
-    slot[failed] = -1
+        for k, column in enumerate(columns):
+            if column is None:
+                continue
+            wins = column < limit
+            np.fmin(limit, column, out=limit)
+            slot += wins * (np.int16(k) - slot)
+    if failed is not None and failed.any():
+        limit[failed] = np.nan
+        slot[failed] = -1
     return limit, slot
 
 
 def _flag(words: NDArray[np.int32], where: NDArray[np.bool_], flag: InterfaceFlag) -> None:
-    np.bitwise_or(words, np.int32(flag), out=words, where=where)
+    if where.any():
+        words |= where * np.int32(flag)
+
+
+def _one_or_nan(keep: NDArray[np.bool_]) -> NDArray[np.float64]:
+    """1.0 where ``keep``, NaN elsewhere: a factor that blanks values without a masked copy."""
+    return np.array([np.nan, 1.0])[keep.view(np.uint8)]
+
+
+def _positive(value: NDArray[np.float64]) -> NDArray[np.bool_]:
+    """Positive and finite (NaN fails both comparisons)."""
+    ok = value > 0
+    ok &= value < np.inf
+    return ok
 
 
 def rate_interfaces(
@@ -178,98 +192,178 @@ def rate_interfaces(
     """
     shape = stack.outer_diameter.shape
     n_parts, n_layers = shape
-    do, di, g, mask = (stack.outer_diameter, stack.inner_diameter, stack.shear_modulus,
-                       stack.present)
+    do, di, g = (_grid(v, shape) for v in (stack.outer_diameter, stack.inner_diameter,
+                                           stack.shear_modulus))
+    mask = stack.present
+    full = bool(mask.all())
     if share is None or sum_stiffness is None:
         with np.errstate(invalid="ignore"):
             gj = np.where(mask, g * np.pi / 32.0 * (do**4 - di**4), 0.0)
             sum_gj = gj.sum(axis=1)
             share_array = gj / sum_gj[:, np.newaxis]
     else:
-        share_array, sum_gj = as_float(share), _part(sum_stiffness, n_parts)
+        share_array, sum_gj = _grid(share, shape), _part(sum_stiffness, n_parts)
     path = _part(load_path, n_parts)
     ishare = interface_share(share_array, mask, path)
+    known = np.isin(path, [int(p) for p in LoadPath])
 
-    e, nu, sy, alpha = (_grid(v, shape) for v in (youngs_modulus, poisson_ratio, yield_strength,
-                                                  expansion_coefficient))
+    e, nu, sy, alpha, fs = (_grid(v, shape) for v in (
+        youngs_modulus, poisson_ratio, yield_strength, expansion_coefficient, factor_of_safety))
     delta0, length, mu = (_grid(v, shape) for v in (interference, fit_length, friction))
     tau_bond, bond_len = _grid(bond_allowable, shape), _grid(bond_length, shape)
-    exists = np.zeros(shape, dtype=bool)
-    exists[:, 1:] = mask[:, 1:] & mask[:, :-1]
-    fitted = exists & ~np.isnan(delta0)
-    bonded = exists & ~np.isnan(tau_bond)
-    flags = np.zeros(shape, dtype=np.int32)
-    known = np.isin(path, [int(p) for p in LoadPath])
-    _flag(flags, exists & ~known[:, np.newaxis], InterfaceFlag.LOAD_PATH_UNKNOWN)
+    heat = _part(operating_temperature, n_parts) - _part(reference_temperature, n_parts)
 
-    nan_grid = np.full(shape, np.nan)
-    delta = nan_grid.copy()
-    pressure = nan_grid.copy()
-    fit_cap = nan_grid.copy()
-    face = np.full(shape, -1, dtype=np.int8)
-    layer_flags = np.zeros(shape, dtype=np.int32)
-    rows = np.flatnonzero(fitted.any(axis=1))
-    if rows.size:
-        sub = (slice(None),) if rows.size == n_parts else (rows,)
-        r_do, r_di, r_mask = do[sub], di[sub], mask[sub]
-        r_exists = exists[sub]
+    def grid(fill: float, dtype: type = np.float64) -> NDArray:
+        return np.full(shape, fill, dtype=dtype, order="F")
+
+    grip, slip, bond = (grid(np.nan) for _ in range(3))
+    flags, layer_flags = grid(0, np.int32), grid(0, np.int32)
+    # Column by column: a handful of slots, many parts.
+    exists: list[NDArray[np.bool_] | None] = [None]
+    fitted: list[NDArray[np.bool_] | None] = [None]
+    bonded: list[NDArray[np.bool_] | None] = [None]
+    for k in range(1, n_layers):
+        both = np.ones(n_parts, dtype=bool) if full else mask[:, k] & mask[:, k - 1]
+        exists.append(both)
+        fitted.append(both & ~np.isnan(delta0[:, k]))
+        bonded.append(both & ~np.isnan(tau_bond[:, k]))
+        _flag(flags[:, k], both & ~known, InterfaceFlag.LOAD_PATH_UNKNOWN)
+    has_fit = np.zeros(n_parts, dtype=bool)
+    for k in range(1, n_layers):
+        has_fit |= fitted[k]
+    all_fit = bool(has_fit.all())
+    rows = slice(None) if all_fit else np.flatnonzero(has_fit)
+    if not all_fit:
+        delta, pressure, fit_cap = (grid(np.nan) for _ in range(3))
+        face = grid(-1, np.int8)
+    cold_part = np.zeros(n_parts, dtype=bool)
+
+    if all_fit or rows.size:
+        pick = (lambda a: a) if all_fit else (lambda a: a[rows])  # noqa: E731
+        r_do, r_di, r_mask = pick(do), pick(di), pick(mask)
+        n_rows = r_do.shape[0]
+        factors = _shape_factors(r_do, r_di)
         # Every interface of the part moves with temperature, fitted or just touching.
-        heat = (_part(operating_temperature, n_parts) - _part(reference_temperature, n_parts))[sub]
-        r_delta = np.nan_to_num(delta0[sub], nan=0.0)
-        heated = ~np.isnan(heat)
-        if heated.any():
-            r_alpha = alpha[sub]
-            with np.errstate(invalid="ignore"):
-                change = (r_alpha[:, :-1] - r_alpha[:, 1:]) * heat[:, np.newaxis] * r_di[:, 1:]
-            r_delta = r_delta.copy()
-            r_delta[:, 1:] += np.where(heated[:, np.newaxis], change, 0.0)
-            missing = np.zeros(r_exists.shape, dtype=bool)
-            missing[:, 1:] = r_exists[:, 1:] & heated[:, np.newaxis] & np.isnan(change)
-            r_flags = flags[sub]
-            _flag(r_flags, missing, InterfaceFlag.EXPANSION_NOT_GIVEN)
-            flags[sub] = r_flags
-        r_pressure, _ = stack_fit_pressures(r_do, r_di, r_mask, e[sub], nu[sub], r_delta)
+        r_heat = pick(heat)
+        heated = ~np.isnan(r_heat)
+        any_heat = bool(heated.any())
+        r_heat = np.nan_to_num(r_heat, nan=0.0) if any_heat else r_heat
+        r_delta = np.empty((n_rows, n_layers), order="F")
+        r_delta[:, 0] = np.nan
+        missing_part = np.zeros(n_rows, dtype=bool)
+        change = np.empty(n_rows)
+        for k in range(1, n_layers):
+            column = r_delta[:, k]
+            np.copyto(column, pick(delta0[:, k]))
+            np.nan_to_num(column, copy=False, nan=0.0)
+            if any_heat:
+                with np.errstate(invalid="ignore"):
+                    np.subtract(pick(alpha[:, k - 1]), pick(alpha[:, k]), out=change)
+                    change *= r_heat
+                    change *= pick(di[:, k])
+                lost = np.isnan(change)
+                if lost.any():
+                    # A missing coefficient matters only where there is a temperature.
+                    change[lost & ~heated] = 0.0
+                    missing = lost & heated & pick(exists[k])
+                    missing_part |= missing
+                    words = pick(flags[:, k])
+                    _flag(words, missing, InterfaceFlag.EXPANSION_NOT_GIVEN)
+                    if all_fit:
+                        flags[:, k] = words
+                    else:
+                        flags[rows, k] = words
+                column += change
+        r_pressure, _, usable = _solve(r_do, r_di, r_mask, pick(e), pick(nu), r_delta, factors)
         # A part whose pressures cannot all be worked out has none of them.
-        unknown = np.any(r_exists & np.isnan(r_pressure + r_delta), axis=1)
-        r_pressure[unknown] = np.nan
-        delta[sub] = np.where(fitted[sub], r_delta, np.nan)
-        pressure[sub] = r_pressure
-        cap, r_face = layer_fit_stress_capacity(
-            r_do, r_di, r_mask, g[sub], sum_gj[sub], r_pressure, sy[sub],
-            np.broadcast_to(as_float(factor_of_safety), shape)[sub],
-        )
-        cap[unknown] = np.nan
-        r_face[unknown] = -1
-        fit_cap[sub], face[sub] = cap, r_face
+        r_unknown = ~usable | missing_part
+        if r_unknown.any():
+            r_pressure[r_unknown] = np.nan
+        cap, r_face = _fit_stress(factors, r_pressure, r_mask, pick(g), pick(sum_gj), pick(sy),
+                                  pick(fs))
+        if r_unknown.any():
+            cap[r_unknown] = np.nan
+            r_face[r_unknown] = -1
+        if all_fit:
+            delta, pressure, fit_cap, face, cold_part = r_delta, r_pressure, cap, r_face, missing_part
+        else:
+            delta[rows], pressure[rows], fit_cap[rows], face[rows] = r_delta, r_pressure, cap, r_face
+            cold_part[rows] = missing_part
+
+    slip_columns: list[NDArray[np.float64] | None] = [None]
+    bond_columns: list[NDArray[np.float64] | None] = [None]
+    slip_failed = np.zeros(n_parts, dtype=bool)
+    bond_failed = np.zeros(n_parts, dtype=bool)
+    passing, d2, own = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        for k in range(1, n_layers):
+            np.abs(ishare[:, k], out=passing)
+            idle = passing == 0
+            np.multiply(di[:, k], di[:, k], out=d2)
+            fit_k, bond_k = fitted[k], bonded[k]
+            slip_k = bond_k_cap = None
+            if fit_k.any():
+                p = pressure[:, k]
+                good_grip = _positive(length[:, k]) & _positive(mu[:, k])
+                no_pressure = fit_k & np.isnan(p)
+                # Pressures fail together in a part: each fit says why, by the cause.
+                _flag(flags[:, k], no_pressure & cold_part, InterfaceFlag.EXPANSION_NOT_GIVEN)
+                _flag(flags[:, k], (fit_k & ~good_grip) | (no_pressure & ~cold_part),
+                      InterfaceFlag.FIT_INPUT_INVALID)
+                _flag(flags[:, k], fit_k & (p == 0), InterfaceFlag.CONTACT_LOST)
+                torque = grip[:, k]
+                np.multiply(p, length[:, k], out=torque)
+                torque *= d2
+                torque *= mu[:, k]
+                torque *= np.pi / 2.0
+                keep = fit_k & good_grip
+                if not keep.all():
+                    torque *= _one_or_nan(keep)
+                slip_k = slip[:, k]
+                np.divide(torque, passing, out=slip_k)
+                if idle.any():
+                    np.copyto(slip_k, np.inf, where=idle & ~np.isnan(torque))
+                slip_failed |= fit_k & ~(good_grip & ~np.isnan(p) & known)
+            if bond_k.any():
+                np.multiply(tau_bond[:, k], bond_len[:, k], out=own)
+                own *= d2
+                own *= np.pi / 2.0
+                good = _positive(tau_bond[:, k]) & _positive(bond_len[:, k]) & _positive(di[:, k])
+                keep = bond_k & good
+                if not keep.all():
+                    own *= _one_or_nan(keep)
+                bond_k_cap = bond[:, k]
+                np.divide(own, passing, out=bond_k_cap)
+                if idle.any():
+                    np.copyto(bond_k_cap, np.inf, where=idle & ~np.isnan(own))
+                _flag(flags[:, k], bond_k & ~good & known, InterfaceFlag.BOND_INPUT_INVALID)
+                bond_failed |= bond_k & ~(good & known)
+            slip_columns.append(slip_k)
+            bond_columns.append(bond_k_cap)
+
+    fit_columns: list[NDArray[np.float64] | None] = []
+    fit_failed = np.zeros(n_parts, dtype=bool)
     with np.errstate(invalid="ignore"):
-        bad_grip = fitted & (~(length > 0) | ~(mu > 0) | ~np.isfinite(length) | ~np.isfinite(mu))
-    no_pressure = fitted & np.isnan(pressure)
-    # Pressures fail together in a part: say why once per fit, by the cause.
-    cold = ((flags & int(InterfaceFlag.EXPANSION_NOT_GIVEN)) != 0).any(axis=1)[:, np.newaxis]
-    _flag(flags, no_pressure & cold, InterfaceFlag.EXPANSION_NOT_GIVEN)
-    _flag(flags, bad_grip | (no_pressure & ~cold), InterfaceFlag.FIT_INPUT_INVALID)
-    bad_fit = bad_grip | no_pressure
-    _flag(flags, fitted & (pressure == 0), InterfaceFlag.CONTACT_LOST)
-    grip = np.where(fitted & ~bad_fit, slip_torque(pressure, mu, di, length), np.nan)
-    slip = slip_capacity(grip, ishare)
-    bond = np.where(bonded, bond_capacity(tau_bond, di, bond_len, ishare), np.nan)
-    _flag(flags, bonded & np.isnan(bond) & known[:, np.newaxis], InterfaceFlag.BOND_INPUT_INVALID)
-
-    part_has_fit = fitted.any(axis=1)[:, np.newaxis]
-    in_fit_part = mask & part_has_fit
-    _flag(layer_flags, in_fit_part & (fit_cap == 0), InterfaceFlag.FIT_OVERSTRESSED)
-    _flag(layer_flags, in_fit_part & np.isnan(fit_cap), InterfaceFlag.FIT_INPUT_INVALID)
-
-    error = (flags & int(INTERFACE_ERRORS)) != 0
-    slip_limit, slip_slot = _smallest(np.where(fitted, slip, np.nan), error & fitted)
-    bond_limit, bond_slot = _smallest(np.where(bonded, bond, np.nan), error & bonded)
-    fit_limit, fit_slot = _smallest(fit_cap, in_fit_part & np.isnan(fit_cap))
+        for k in range(n_layers):
+            column = fit_cap[:, k]
+            in_fit = has_fit if full else has_fit & mask[:, k]
+            _flag(layer_flags[:, k], in_fit & (column == 0), InterfaceFlag.FIT_OVERSTRESSED)
+            bad = in_fit & np.isnan(column)
+            _flag(layer_flags[:, k], bad, InterfaceFlag.FIT_INPUT_INVALID)
+            fit_failed |= bad
+            fit_columns.append(column)
+    slip_limit, slip_slot = _smallest(slip_columns, slip_failed, n_parts)
+    bond_limit, bond_slot = _smallest(bond_columns, bond_failed, n_parts)
+    fit_limit, fit_slot = _smallest(fit_columns, fit_failed, n_parts)
+    for k in range(1, n_layers):
+        if not fitted[k].all():
+            delta[:, k] *= _one_or_nan(fitted[k])
     return InterfaceRating(
         interface_share=ishare,
         interference=delta,
         pressure=pressure,
         slip_torque=grip,
-        slip_capacity=np.where(fitted, slip, np.nan),
+        slip_capacity=slip,
         bond_capacity=bond,
         fit_stress_capacity=fit_cap,
         fit_stress_face=face,

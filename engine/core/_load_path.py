@@ -44,25 +44,36 @@ def _pass_through(
     values: ArrayLike, present: ArrayLike, load_path: ArrayLike
 ) -> NDArray[np.float64]:
     layer = as_float(values)
-    mask = as_bool(present)
     if layer.ndim != 2:
         raise ValueError(
             f"interface torque needs (parts, layers) arrays; got shape {layer.shape}"
         )
     n_parts, n_layers = layer.shape
+    mask = np.broadcast_to(as_bool(present), layer.shape)
     path = np.broadcast_to(as_float(load_path), (n_parts,))
-    carried = np.where(mask, layer, 0.0)
-    # inside[:, k] sums the layers below slot k; outside[:, k] the layers from slot k out.
-    inside = np.zeros_like(carried)
-    np.cumsum(carried[:, :-1], axis=1, out=inside[:, 1:])
-    outside = np.cumsum(carried[:, ::-1], axis=1)[:, ::-1]
-    core = path[:, np.newaxis] == int(LoadPath.THROUGH_CORE)
-    outer = path[:, np.newaxis] == int(LoadPath.THROUGH_OUTER_LAYER)
-    every = path[:, np.newaxis] == int(LoadPath.THROUGH_EVERY_LAYER)
-    result = np.select([core, outer, every], [outside, inside, np.zeros_like(carried)], np.nan)
-    interface = np.zeros(layer.shape, dtype=bool)
-    interface[:, 1:] = mask[:, 1:] & mask[:, :-1]
-    result[~interface] = np.nan
+    full = bool(mask.all())
+    # Column by column (a handful of slots, many parts); absent slots carry nothing.
+    columns = [layer[:, k] if full else np.where(mask[:, k], layer[:, k], 0.0)
+               for k in range(n_layers)]
+    inside = [np.zeros(n_parts)]
+    for k in range(1, n_layers):
+        inside.append(inside[-1] + columns[k - 1])
+    outside = list(columns)  # outside[k]: slot k and every slot outside it (k >= 1 used)
+    for k in range(n_layers - 2, 0, -1):
+        outside[k] = outside[k + 1] + columns[k]
+    codes = (int(LoadPath.THROUGH_CORE), int(LoadPath.THROUGH_OUTER_LAYER),
+             int(LoadPath.THROUGH_EVERY_LAYER))
+    uniform = n_parts > 0 and bool(np.all(path == path[0]))
+    result = np.full(layer.shape, np.nan, order="F")
+    for k in range(1, n_layers):
+        choices = (outside[k], inside[k], 0.0)
+        if uniform:
+            if path[0] in codes:
+                result[:, k] = choices[codes.index(path[0])]
+        else:
+            result[:, k] = np.select([path == code for code in codes], choices, np.nan)
+        if not full:
+            result[:, k][~(mask[:, k] & mask[:, k - 1])] = np.nan
     return result
 
 

@@ -21,7 +21,6 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_bool, as_float
-from ._fits import combined_stress_capacity, lame_stresses
 
 __all__ = ["stack_fit_pressures", "layer_fit_stress_capacity"]
 
@@ -109,8 +108,134 @@ def stack_fit_pressures(
     """
     do, di = as_float(outer_diameter), as_float(inner_diameter)
     mask = as_bool(present)
-    e, nu = as_float(youngs_modulus), as_float(poisson_ratio)
+    e, nu = (np.broadcast_to(as_float(v), do.shape) for v in (youngs_modulus, poisson_ratio))
     delta = np.broadcast_to(as_float(interference), do.shape)
+    pressure, opened, _ = _solve(do, di, mask, e, nu, delta)
+    return pressure, opened
+
+
+def _shape_factors(
+    do: NDArray[np.float64], di: NDArray[np.float64]
+) -> list[tuple[NDArray[np.float64], NDArray[np.float64], NDArray[np.float64]]]:
+    """Per layer slot: ``s = (D_o^2 + D_i^2) / (D_o^2 - D_i^2)``, ``D_o^2`` and ``D_i^2``."""
+    out = []
+    wall = np.empty(do.shape[0])
+    for slot in range(do.shape[1]):
+        do2 = np.multiply(do[:, slot], do[:, slot])
+        di2 = np.multiply(di[:, slot], di[:, slot])
+        s = np.add(do2, di2)
+        np.subtract(do2, di2, out=wall)
+        s /= wall
+        out.append((s, do2, di2))
+    return out
+
+
+def _solve(
+    do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
+    e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
+    factors: list[tuple[NDArray[np.float64], ...]] | None = None,
+) -> tuple[NDArray[np.float64], NDArray[np.bool_], NDArray[np.bool_]]:
+    """Interface pressures of every part, column by column, and which parts are usable.
+
+    First pass: every interface closed, a tridiagonal solve in diametral terms (row ``k``:
+    ``(c_a,in,k + c_b,out,k-1) p_k - c_b,in,k-1 p_{k-1} - c_a,out,k p_{k+1} = delta_k`` with
+    ``c_a,in = D_i (s + nu) / E``, ``c_a,out = D_i (s + 1) / E``, ``c_b,in = D_o (s - 1) / E``,
+    ``c_b,out = D_o (s - nu) / E``, the diametral growth of a layer's faces per unit
+    pressure). Rows where an interface would pull go to :func:`_solve_with_contact`.
+    """
+    n_parts, n_layers = do.shape
+    pressure = np.full((n_parts, n_layers), np.nan, order="F")
+    opened = np.zeros((n_parts, n_layers), dtype=bool, order="F")
+    usable = np.ones(n_parts, dtype=bool)
+    if n_layers < 2:
+        return pressure, opened, usable
+    factors = _shape_factors(do, di) if factors is None else factors
+    full = bool(mask.all())
+    with np.errstate(all="ignore"):
+        scratch = np.empty(n_parts, dtype=bool)
+        for slot in range(n_layers):
+            # NaN fails every comparison, so a missing value is caught here too.
+            checks = ((e[:, slot], 0.0, np.greater), (nu[:, slot], -1.0, np.greater),
+                      (nu[:, slot], 0.5, np.less_equal), (e[:, slot], np.inf, np.less),
+                      (di[:, slot], 0.0, np.greater_equal), (di[:, slot], do[:, slot], np.less))
+            good = np.ones(n_parts, dtype=bool)
+            for value, bound, compare in checks:
+                compare(value, bound, out=scratch)
+                good &= scratch
+            if not full:
+                good |= ~mask[:, slot]
+            usable &= good
+        diag, lower, upper, rhs = [], [], [], []
+        ki, ko = np.empty(n_parts), np.empty(n_parts)
+        for k in range(1, n_layers):
+            s_in, s_out = factors[k - 1][0], factors[k][0]
+            np.divide(di[:, k], e[:, k], out=ki)
+            np.divide(do[:, k - 1], e[:, k - 1], out=ko)
+            d = np.add(s_out, nu[:, k])
+            d *= ki
+            below = np.subtract(s_in, nu[:, k - 1])
+            below *= ko
+            d += below
+            diag.append(d)
+            np.subtract(s_in, 1.0, out=below)
+            below *= ko
+            lower.append(below)
+            up = np.add(s_out, 1.0)
+            up *= ki
+            upper.append(up)
+            column = delta[:, k]
+            # A copy where rows will be blanked below or NaN cleared, else the caller's column.
+            own = not full or bool(np.isnan(column).any())
+            rhs.append(np.nan_to_num(column, nan=0.0) if own else column)
+        if not full:
+            for k in range(1, n_layers):
+                gone = ~(mask[:, k] & mask[:, k - 1])
+                np.copyto(diag[k - 1], 1.0, where=gone)
+                np.copyto(rhs[k - 1], 0.0, where=gone)
+                np.copyto(lower[k - 1], 0.0, where=gone)
+                np.copyto(upper[k - 1], 0.0, where=gone)
+                if k >= 2:
+                    np.copyto(upper[k - 2], 0.0, where=gone)
+        # Thomas algorithm over the few interfaces, vectorised over the parts, in place:
+        # upper[r] becomes the elimination factor, the pressure columns hold the values.
+        for row in range(n_layers - 1):
+            value = pressure[:, row + 1]
+            if row == 0:
+                np.copyto(value, rhs[0])
+            else:
+                np.multiply(lower[row], pressure[:, row], out=value)
+                value += rhs[row]
+                lower[row] *= upper[row - 1]
+                diag[row] -= lower[row]
+            value /= diag[row]
+            upper[row] /= diag[row]
+        for row in range(n_layers - 3, -1, -1):
+            upper[row] *= pressure[:, row + 2]
+            pressure[:, row + 1] += upper[row]
+        pulling = np.zeros(n_parts, dtype=bool)
+        for k in range(1, n_layers):
+            pulling |= pressure[:, k] < 0
+        if not full:
+            pressure[:, 1:][~(mask[:, 1:] & mask[:, :-1])] = np.nan
+    rows = np.flatnonzero(pulling & usable)
+    if rows.size:
+        fixed, fixed_open = _solve_with_contact(do[rows], di[rows], mask[rows], e[rows],
+                                                nu[rows], delta[rows])
+        pressure[rows] = fixed
+        opened[rows] = fixed_open
+    if not usable.all():
+        pressure[~usable] = np.nan
+    return pressure, opened, usable
+
+
+def _solve_with_contact(
+    do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
+    e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
+) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+    """The whole solution, opening and re-closing interfaces until none pulls or overlaps.
+
+    Works on (n, L) arrays; run on the rows the first pass cannot settle.
+    """
     n_parts, n_layers = do.shape
     pressure = np.full(do.shape, np.nan)
     opened = np.zeros(do.shape, dtype=bool)
@@ -203,28 +328,93 @@ def layer_fit_stress_capacity(
         0 where the inner face governs, 1 the outer face; -1 where there is no capacity.
     """
     do, di = as_float(outer_diameter), as_float(inner_diameter)
-    mask = as_bool(present)
-    g = as_float(shear_modulus)
-    sum_gj = as_float(sum_stiffness)[:, np.newaxis]
-    p = np.nan_to_num(as_float(pressure), nan=0.0)
-    p_in = np.where(mask, p, 0.0)
-    p_in[:, 0] = 0.0
-    p_out = np.zeros_like(p_in)
-    p_out[:, :-1] = np.where(mask[:, 1:], p[:, 1:], 0.0)
-    capacities = []
-    for diameter in (di, do):
-        radial, hoop = lame_stresses(diameter / 2.0, di, do, p_in, p_out)
-        with np.errstate(divide="ignore", invalid="ignore"):
-            per_torque = g * diameter / 2.0 / sum_gj
-        capacities.append(
-            combined_stress_capacity(hoop, radial, per_torque, yield_strength, factor_of_safety)
-        )
-    inner, outer = capacities
-    with np.errstate(invalid="ignore"):
-        outer_wins = (outer < inner) | np.isnan(inner)
-    capacity = np.where(outer_wins, outer, inner)
-    face = np.where(outer_wins, 1, 0).astype(np.int8)
-    missing = np.isnan(capacity) | ~mask
-    capacity[missing] = np.nan
-    face[missing] = -1
+    shape = do.shape
+    mask = np.broadcast_to(as_bool(present), shape)
+    g, sy, fs = (np.broadcast_to(as_float(v), shape) for v in (shear_modulus, yield_strength,
+                                                               factor_of_safety))
+    pressure = np.broadcast_to(as_float(pressure), shape)
+    return _fit_stress(_shape_factors(do, di), pressure, mask, g,
+                       np.broadcast_to(as_float(sum_stiffness), shape[:1]), sy, fs)
+
+
+_TWO_OVER_ROOT3 = 2.0 / np.sqrt(3.0)
+
+
+def _fit_stress(
+    factors: list[tuple[NDArray[np.float64], ...]],
+    pressure: NDArray[np.float64],
+    mask: NDArray[np.bool_],
+    g: NDArray[np.float64],
+    sum_gj: NDArray[np.float64],
+    sy: NDArray[np.float64],
+    fs: NDArray[np.float64],
+) -> tuple[NDArray[np.float64], NDArray[np.int8]]:
+    """Column by column: with ``s`` the layer's shape factor the Lamé faces are
+    ``sigma_t(a) = p_in s - p_out (s + 1)``, ``sigma_t(b) = p_in (s - 1) - p_out s``,
+    ``sigma_r = -p`` of that face; distortion energy with ``tau = G (D/2) T / sum(G J)``
+    gives ``T = sqrt((S^2 - A) / D^2) 2 sum(G J) / (sqrt(3) G)``, ``A = st^2 + sr^2 - st sr``.
+    """
+    n_parts, n_layers = pressure.shape
+    capacity = np.full((n_parts, n_layers), np.nan, order="F")
+    face = np.full((n_parts, n_layers), -1, dtype=np.int8, order="F")
+    full = bool(mask.all())
+    zero = np.zeros(n_parts)
+
+    def squeeze(slot: int) -> NDArray[np.float64]:
+        if slot <= 0 or slot >= n_layers:
+            return zero
+        column = pressure[:, slot]
+        return np.nan_to_num(column, nan=0.0) if np.isnan(column).any() else column
+
+    with np.errstate(all="ignore"):
+        # Few buffers, reused: fresh memory for every temporary costs more than the sums.
+        hoop, work, limit = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
+        inner, outer = np.empty(n_parts), np.empty(n_parts)
+        outer_wins = np.empty(n_parts, dtype=bool)
+        p_in = zero
+        for slot in range(n_layers):
+            s, do2, di2 = factors[slot]
+            p_out = squeeze(slot + 1)
+            np.divide(sy[:, slot], fs[:, slot], out=limit)
+            strong = (sy[:, slot] > 0) & (fs[:, slot] > 0)
+            if not strong.all():
+                limit[~strong] = np.nan
+            limit *= limit
+            for room, p_face, diameter2 in ((inner, p_in, di2), (outer, p_out, do2)):
+                if room is inner:  # sigma_t(a) = p_in s - p_out (s + 1)
+                    np.multiply(p_in, s, out=hoop)
+                    np.add(s, 1.0, out=work)
+                else:  # sigma_t(b) = p_in (s - 1) - p_out s
+                    np.subtract(s, 1.0, out=hoop)
+                    hoop *= p_in
+                    np.copyto(work, s)
+                work *= p_out
+                hoop -= work
+                # A = st (st - sr) + sr^2 with sr = -p_face.
+                np.add(hoop, p_face, out=work)
+                work *= hoop
+                np.multiply(p_face, p_face, out=hoop)
+                work += hoop
+                np.subtract(limit, work, out=room)
+                np.maximum(room, 0.0, out=room)
+                room /= diameter2
+            # A solid core has no inner face: dividing by its D_i^2 = 0 gives inf, or NaN
+            # where the fit alone yields, and there its outer face, in the same uniform
+            # state, gives 0 anyway; fmin skips that NaN, and a NaN strength is NaN on both.
+            np.less(outer, inner, out=outer_wins)
+            outer_wins |= np.isnan(inner)
+            best = capacity[:, slot]
+            np.fmin(inner, outer, out=best)
+            np.sqrt(best, out=best)
+            best *= sum_gj
+            best /= g[:, slot]
+            best *= _TWO_OVER_ROOT3
+            face[:, slot] = outer_wins
+            p_in = p_out
+        missing = np.isnan(capacity)
+        if not full:
+            missing |= ~mask
+        if missing.any():
+            capacity[missing] = np.nan
+            face[missing] = -1
     return capacity, face

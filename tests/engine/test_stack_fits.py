@@ -235,8 +235,101 @@ class TestLayerFitStress:
         assert cap[0, 0] == pytest.approx(core, rel=1e-12) and face[0, 0] == 1
         assert cap[0, 1] == pytest.approx(sleeve, rel=1e-12)
 
+    def test_thin_hollow_core_governed_at_its_bore(self):
+        """A thin hollow core under a sleeve's pressure: its bore carries the largest hoop
+        compression, -2 p b^2 / (b^2 - a^2) with no radial stress (Lamé; Shigley), and
+        governs. rtol 1e-12 against the point functions."""
+        a_d, b_d, c_d, p, sy = 0.04, 0.05, 0.06, 50e6, 300e6
+        g = [79.3e9, 41.4e9]
+        gj = g[0] * math.pi * (b_d**4 - a_d**4) / 32 + g[1] * math.pi * (c_d**4 - b_d**4) / 32
+        cap, face = layer_fit_stress_capacity([[b_d, c_d]], [[a_d, b_d]], [[True, True]], [g], [gj],
+                                              [[np.nan, p]], [[sy, 900e6]])
+        hoop_bore = -2 * p * b_d**2 / (b_d**2 - a_d**2)
+        bore = combined_stress_capacity(hoop_bore, 0.0, g[0] * a_d / 2 / gj, sy)
+        radial, hoop = lame_stresses(b_d / 2, a_d, b_d, 0.0, p)
+        surface = combined_stress_capacity(hoop, radial, g[0] * b_d / 2 / gj, sy)
+        assert bore < surface
+        assert face[0, 0] == 0 and cap[0, 0] == pytest.approx(bore, rel=1e-12)
+
     def test_overstressed_fit_has_no_capacity(self):
         cap, face = layer_fit_stress_capacity([[0.05, 0.055]], [[0.0, 0.05]], [[True, True]],
                                               [[79.3e9, 41.4e9]], [1e5], [[np.nan, 200e6]],
                                               [[310e6, 200e6]])
         assert cap[0, 1] == 0.0 and face[0, 1] >= 0
+
+
+@st.composite
+def stacks(draw):
+    """A part of 1-3 layers in a batch of width 3: diameters, E, nu, G, Sy and fits (some
+    with clearance, so some interfaces open)."""
+    n = draw(st.integers(1, 3))
+    core = draw(st.floats(0.01, 0.2, **finite))
+    bore = draw(st.one_of(st.just(0.0), st.floats(0.1, 0.8, **finite))) * core
+    outer = [core]
+    for _ in range(n - 1):
+        outer.append(outer[-1] * draw(st.floats(1.05, 1.6, **finite)))
+    inner = [bore] + outer[:-1]
+    row = lambda lo, hi: draw(st.lists(st.floats(lo, hi, **finite), min_size=n, max_size=n))  # noqa: E731
+    fits = [np.nan] + [draw(st.one_of(st.just(np.nan), st.floats(-40e-6, 80e-6, **finite)))
+                       for _ in range(n - 1)]
+    return dict(outer=outer, inner=inner, e=row(60e9, 215e9), nu=row(0.25, 0.36),
+                g=row(25e9, 82e9), sy=row(150e6, 900e6), fits=fits)
+
+
+def _as_batch(parts, width=3):
+    def grid(key):
+        out = np.full((len(parts), width), np.nan)
+        for i, part in enumerate(parts):
+            out[i, :len(part[key])] = part[key]
+        return out
+
+    present = ~np.isnan(grid("outer"))
+    return {key: grid(key) for key in ("outer", "inner", "e", "nu", "g", "sy", "fits")}, present
+
+
+@SETTINGS
+@given(st.lists(stacks(), min_size=1, max_size=6))
+def test_fast_pass_agrees_with_the_full_contact_solution_and_rows_stand_alone(parts):
+    """The column-by-column first pass (with its fallback) equals the general contact
+    solution on every row, and one part alone equals the same part in a batch."""
+    from twistshare.engine.core._stack_fits import _solve_with_contact
+
+    b, present = _as_batch(parts)
+    args = (b["outer"], b["inner"], present, b["e"], b["nu"], b["fits"])
+    pressure, opened = stack_fit_pressures(*args)
+    general, general_open = _solve_with_contact(*args[:5], np.nan_to_num(b["fits"], nan=0.0))
+    np.testing.assert_allclose(pressure, general, rtol=1e-9, atol=1e-3)
+    np.testing.assert_array_equal(opened, general_open)
+    for i in range(len(parts)):
+        alone, _ = stack_fit_pressures(*(a[i:i + 1] for a in args))
+        np.testing.assert_allclose(alone[0], pressure[i], rtol=1e-12, atol=1e-6)
+    assert np.all((pressure[:, 1:] >= 0) | np.isnan(pressure[:, 1:]))
+
+
+@SETTINGS
+@given(st.lists(stacks(), min_size=1, max_size=6), st.floats(1.0, 3.0, **finite))
+def test_layer_fit_stress_equals_the_point_functions(parts, fs):
+    """The column kernel (Lamé faces through the shape factor s) equals the same check
+    composed from lame_stresses and combined_stress_capacity at each layer's two faces."""
+    b, present = _as_batch(parts)
+    pressure, _ = stack_fit_pressures(b["outer"], b["inner"], present, b["e"], b["nu"], b["fits"])
+    gj = np.nansum(b["g"] * np.pi / 32 * (b["outer"] ** 4 - b["inner"] ** 4), axis=1)
+    cap, face = layer_fit_stress_capacity(b["outer"], b["inner"], present, b["g"], gj, pressure,
+                                          b["sy"], fs)
+    p = np.nan_to_num(pressure, nan=0.0)
+    for i, part in enumerate(parts):
+        for j in range(len(part["outer"])):
+            p_in = p[i, j] if j > 0 else 0.0
+            p_out = p[i, j + 1] if j + 1 < len(part["outer"]) else 0.0
+            found = []
+            for d in (part["inner"][j], part["outer"][j]):
+                if d == 0:
+                    found.append(np.inf)
+                    continue
+                radial, hoop = lame_stresses(d / 2, part["inner"][j], part["outer"][j], p_in, p_out)
+                found.append(combined_stress_capacity(hoop, radial, part["g"][j] * d / 2 / gj[i],
+                                                      part["sy"][j], fs))
+            assert cap[i, j] == pytest.approx(min(found), rel=1e-9, abs=1e-9 * gj[i])
+            if abs(found[0] - found[1]) > 1e-6 * max(min(found), 1.0):
+                assert face[i, j] == int(found[1] < found[0])
+        assert np.isnan(cap[i, len(part["outer"]):]).all()
