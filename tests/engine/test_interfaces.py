@@ -8,8 +8,13 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from twistshare.engine.core import (
+    INTERFACE_ERRORS,
+    PLASTIC_ERRORS,
     Duty,
     InterfaceFlag,
+    PlasticFlag,
+    describe_sleeve_flag,
+    has_sleeve_error,
     LayerStack,
     LoadPath,
     combined_stress_capacity,
@@ -174,3 +179,15 @@ def test_one_part_alone_equals_the_same_part_in_a_batch(parts):
             np.testing.assert_allclose(getattr(alone, name)[0], getattr(together, name)[row],
                                        rtol=1e-12)
         np.testing.assert_array_equal(alone.interface_flags[0], together.interface_flags[row])
+
+
+def test_every_flag_is_described_and_findings_are_not_errors():
+    for flag in (*InterfaceFlag, *PlasticFlag):
+        assert describe_sleeve_flag(flag)
+    with pytest.raises(ValueError, match="takes one flag"):
+        describe_sleeve_flag(InterfaceFlag.CONTACT_LOST | InterfaceFlag.FIT_OVERSTRESSED)
+    assert not INTERFACE_ERRORS & (InterfaceFlag.CONTACT_LOST | InterfaceFlag.FIT_OVERSTRESSED)
+    assert not PLASTIC_ERRORS & PlasticFlag.REVERSE_YIELD_ON_UNLOADING
+    np.testing.assert_array_equal(
+        has_sleeve_error([0, int(InterfaceFlag.CONTACT_LOST), int(InterfaceFlag.FIT_INPUT_INVALID)],
+                         InterfaceFlag), [False, False, True])
