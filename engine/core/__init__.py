@@ -35,6 +35,7 @@ from ._buckling import (
     tube_buckling_capacity,
     tube_buckling_stress,
 )
+from ._bond import bond_capacity, bond_inputs_ok, bond_shear, bond_torque_capacity
 from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
 from ._compatibility import (
     layer_stiffness,
@@ -74,6 +75,23 @@ from ._laminate import (
     reduced_stiffness,
     transformed_stiffness,
 )
+from ._fits import (
+    FRICTION_GUIDANCE,
+    FRICTION_GUIDANCE_SOURCE,
+    REFERENCE_TEMPERATURE,
+    FrictionGuide,
+    combined_stress_capacity,
+    fit_equivalent_stress,
+    fit_hoop_stresses,
+    fit_pressure,
+    interference_at_temperature,
+    lame_stresses,
+    slip_capacity,
+    slip_torque,
+)
+
+from ._interfaces import InterfaceRating, rate_interfaces
+from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share, interface_torque
 from ._materials import (
     Material,
     complete_from_library,
@@ -83,6 +101,15 @@ from ._materials import (
     normalise_name,
 )
 from ._radius import RadiusPlace, layer_at_radius
+from ._plastic import (
+    PlasticReserve,
+    fully_plastic_torque,
+    plastic_reserve,
+    plastic_torque,
+    torque_twist_curve,
+    twist_per_length_at_torque,
+)
+from ._plastic_unloading import permanent_twist, residual_stress_profile
 from ._rating import Duty, Rating, rate
 from ._restoring import RestoreResult, restore_sleeve
 from ._shafting_code import (
@@ -122,6 +149,15 @@ from ._whirl import (
     whirl_gate_capacity,
     whirl_reserve,
 )
+from ._sleeve_diagnoses import (
+    INTERFACE_ERRORS,
+    PLASTIC_ERRORS,
+    InterfaceFlag,
+    PlasticFlag,
+    describe_sleeve_flag,
+    has_sleeve_error,
+)
+from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
 
 __all__ = [
     # enumerations and diagnoses
@@ -244,4 +280,47 @@ __all__ = [
     "tube_buckling_capacity",
     "TorsionalBuckling",
     "torsional_buckling",
+    # load path and interfaces
+    "LoadPath",
+    "DEFAULT_LOAD_PATH",
+    "interface_torque",
+    "interface_share",
+    "InterfaceFlag",
+    "INTERFACE_ERRORS",
+    "PlasticFlag",
+    "PLASTIC_ERRORS",
+    "describe_sleeve_flag",
+    "has_sleeve_error",
+    # fits
+    "REFERENCE_TEMPERATURE",
+    "FrictionGuide",
+    "FRICTION_GUIDANCE",
+    "FRICTION_GUIDANCE_SOURCE",
+    "interference_at_temperature",
+    "fit_pressure",
+    "fit_hoop_stresses",
+    "lame_stresses",
+    "slip_torque",
+    "slip_capacity",
+    "fit_equivalent_stress",
+    "combined_stress_capacity",
+    "stack_fit_pressures",
+    "layer_fit_stress_capacity",
+    # bonds
+    "bond_inputs_ok",
+    "bond_shear",
+    "bond_torque_capacity",
+    "bond_capacity",
+    # interfaces of a batch
+    "InterfaceRating",
+    "rate_interfaces",
+    # plastic reserve
+    "PlasticReserve",
+    "plastic_reserve",
+    "plastic_torque",
+    "fully_plastic_torque",
+    "torque_twist_curve",
+    "twist_per_length_at_torque",
+    "residual_stress_profile",
+    "permanent_twist",
 ]

@@ -53,13 +53,16 @@ class Material:
         an effective in-plane value that E and nu do not determine.
     note : str
         A caution that travels with the material.
+    expansion_coefficient : float, 1/K
+        Linear thermal expansion coefficient near room temperature (for an orthotropic
+        tube, the hoop value, which is what changes a fit).
 
     Raises
     ------
     ValueError
-        If the name is blank, a modulus, density or strength is not positive, or the
-        Poisson ratio is outside (-1, 0.5] for an isotropic material. The message names
-        the material, the field and the value.
+        If the name is blank, a modulus, density or strength is not positive, the
+        Poisson ratio is outside (-1, 0.5] for an isotropic material, or the expansion
+        coefficient is infinite. The message names the material, the field and the value.
     """
 
     name: str
@@ -72,6 +75,7 @@ class Material:
     sources: Mapping[str, str] = field(default_factory=dict, hash=False, compare=False)
     isotropic: bool = True
     note: str = ""
+    expansion_coefficient: float = math.nan
 
     def __post_init__(self) -> None:
         if not isinstance(self.name, str) or not self.name.strip():
@@ -87,6 +91,14 @@ class Material:
                     f"material {self.name!r}: {name} must be a positive finite number; "
                     f"got {value!r}"
                 )
+        alpha = math.nan if self.expansion_coefficient is None else float(self.expansion_coefficient)
+        object.__setattr__(self, "expansion_coefficient", alpha)
+        # May be zero or negative (fibre composites along the fibre); only infinity is wrong.
+        if math.isinf(alpha):
+            raise ValueError(
+                f"material {self.name!r}: expansion_coefficient must be a finite number; "
+                f"got {alpha!r}"
+            )
         nu = self.poisson_ratio
         upper = 0.5 if self.isotropic else math.inf
         if not math.isnan(nu) and not (-1.0 < nu <= upper):
@@ -150,6 +162,9 @@ _CLT = (
     "G12 5 GPa, nu12 0.3, fibre volume about 60 %), ply data from memory"
 )
 _COMMON_DENSITY = "common handbook value, from memory"
+_PER_K = 1e-6  # expansion coefficients are quoted in 1e-6/K
+_ASM_EXPANSION = "ASM Handbook typical value, 20-100 C, from memory"
+_CDA_EXPANSION = "Copper Development Association datasheet typical value, 20-300 C, from memory"
 
 
 def _sources(**by_field: str) -> dict[str, str]:
@@ -163,12 +178,14 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=207 * _GPA, shear_modulus=79.3 * _GPA, poisson_ratio=0.292,
             density=0.282 * _LB_PER_IN3,
             yield_strength=210 * _MPA, ultimate_strength=380 * _MPA,
+            expansion_coefficient=11.7 * _PER_K,
             sources=_sources(
                 youngs_modulus=_SHIGLEY_A5 + " (carbon steel)",
                 shear_modulus=_SHIGLEY_A5 + " (carbon steel)",
                 poisson_ratio=_SHIGLEY_A5 + " (carbon steel)",
                 density=_SHIGLEY_A5_DENSITY + " (carbon steel)",
                 yield_strength=_SHIGLEY_A20, ultimate_strength=_SHIGLEY_A20,
+                expansion_coefficient=_ASM_EXPANSION + " (plain carbon steel)",
             ),
         ),
         Material(
@@ -176,12 +193,14 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=207 * _GPA, shear_modulus=79.3 * _GPA, poisson_ratio=0.292,
             density=0.282 * _LB_PER_IN3,
             yield_strength=310 * _MPA, ultimate_strength=570 * _MPA,
+            expansion_coefficient=11.7 * _PER_K,
             sources=_sources(
                 youngs_modulus=_SHIGLEY_A5 + " (carbon steel)",
                 shear_modulus=_SHIGLEY_A5 + " (carbon steel)",
                 poisson_ratio=_SHIGLEY_A5 + " (carbon steel)",
                 density=_SHIGLEY_A5_DENSITY + " (carbon steel)",
                 yield_strength=_SHIGLEY_A20, ultimate_strength=_SHIGLEY_A20,
+                expansion_coefficient=_ASM_EXPANSION + " (plain carbon steel)",
             ),
         ),
         Material(
@@ -189,11 +208,13 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=205 * _GPA, shear_modulus=80 * _GPA, poisson_ratio=0.29,
             density=7850,
             yield_strength=655 * _MPA, ultimate_strength=758 * _MPA,
+            expansion_coefficient=12.3 * _PER_K,
             sources=_sources(
                 youngs_modulus=_ASM_TYPICAL, shear_modulus=_ASM_TYPICAL, poisson_ratio=_ASM_TYPICAL,
                 density=_ASM_TYPICAL,
                 yield_strength=_SHIGLEY_A21 + " (tempered at 650 C)",
                 ultimate_strength=_SHIGLEY_A21 + " (tempered at 650 C)",
+                expansion_coefficient=_ASM_EXPANSION,
             ),
             note="Strength depends strongly on the tempering temperature: use the certificate.",
         ),
@@ -202,12 +223,14 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=190 * _GPA, shear_modulus=73.1 * _GPA, poisson_ratio=0.305,
             density=8000,
             yield_strength=205 * _MPA, ultimate_strength=515 * _MPA,
+            expansion_coefficient=17.3 * _PER_K,
             sources=_sources(
                 youngs_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 shear_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 poisson_ratio=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 density=_ASM_TYPICAL,
                 yield_strength=_ASTM_A276, ultimate_strength=_ASTM_A276,
+                expansion_coefficient=_ASM_EXPANSION,
             ),
         ),
         Material(
@@ -215,32 +238,38 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=190 * _GPA, shear_modulus=73.1 * _GPA, poisson_ratio=0.305,
             density=8000,
             yield_strength=205 * _MPA, ultimate_strength=515 * _MPA,
+            expansion_coefficient=16.0 * _PER_K,
             sources=_sources(
                 youngs_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 shear_modulus=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 poisson_ratio=_SHIGLEY_A5 + " (stainless steel 18-8)",
                 density=_ASM_TYPICAL,
                 yield_strength=_ASTM_A276, ultimate_strength=_ASTM_A276,
+                expansion_coefficient=_ASM_EXPANSION,
             ),
         ),
         Material(
             "Aluminium bronze C95400 as cast",
             youngs_modulus=107 * _GPA, poisson_ratio=0.32, density=7450,
             yield_strength=241 * _MPA, ultimate_strength=586 * _MPA,
+            expansion_coefficient=16.2 * _PER_K,
             sources=_sources(
                 youngs_modulus=_CDA, density=_CDA, yield_strength=_CDA, ultimate_strength=_CDA,
                 poisson_ratio="typical value for copper alloys, from memory",
+                expansion_coefficient=_CDA_EXPANSION,
             ),
         ),
         Material(
             "Phosphor bronze",
             youngs_modulus=111 * _GPA, shear_modulus=41.4 * _GPA, poisson_ratio=0.349,
             density=0.295 * _LB_PER_IN3,
+            expansion_coefficient=17.8 * _PER_K,
             sources=_sources(
                 youngs_modulus=_SHIGLEY_A5, shear_modulus=_SHIGLEY_A5,
                 poisson_ratio=_SHIGLEY_A5, density=_SHIGLEY_A5_DENSITY,
                 yield_strength="no single typical value: it depends strongly on the temper",
                 ultimate_strength="no single typical value: it depends strongly on the temper",
+                expansion_coefficient=_CDA_EXPANSION + " (C51000)",
             ),
             note="Give the strength of the temper supplied.",
         ),
@@ -249,9 +278,11 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=97 * _GPA, shear_modulus=37 * _GPA, poisson_ratio=0.31,
             density=8500,
             yield_strength=310 * _MPA, ultimate_strength=385 * _MPA,
+            expansion_coefficient=20.5 * _PER_K,
             sources=_sources(
                 youngs_modulus=_CDA, shear_modulus=_CDA, poisson_ratio=_CDA, density=_CDA,
                 yield_strength=_CDA, ultimate_strength=_CDA,
+                expansion_coefficient=_CDA_EXPANSION,
             ),
         ),
         Material(
@@ -259,34 +290,43 @@ def _library_entries() -> tuple[Material, ...]:
             youngs_modulus=68.9 * _GPA, shear_modulus=26 * _GPA, poisson_ratio=0.33,
             density=2700,
             yield_strength=276 * _MPA, ultimate_strength=310 * _MPA,
-            sources={name: _ASM_TYPICAL for name in _FIELDS},
+            expansion_coefficient=23.6 * _PER_K,
+            sources={**{name: _ASM_TYPICAL for name in _FIELDS},
+                     "expansion_coefficient": _ASM_EXPANSION},
         ),
         Material(
             "Aluminium 2024-T3",
             youngs_modulus=73.1 * _GPA, shear_modulus=28 * _GPA, poisson_ratio=0.33,
             density=2780,
             yield_strength=345 * _MPA, ultimate_strength=483 * _MPA,
-            sources={name: _ASM_TYPICAL for name in _FIELDS},
+            expansion_coefficient=23.2 * _PER_K,
+            sources={**{name: _ASM_TYPICAL for name in _FIELDS},
+                     "expansion_coefficient": _ASM_EXPANSION},
         ),
         Material(
             "Aluminium 7075-T6",
             youngs_modulus=71.7 * _GPA, shear_modulus=26.9 * _GPA, poisson_ratio=0.33,
             density=2810,
             yield_strength=503 * _MPA, ultimate_strength=572 * _MPA,
-            sources={name: _ASM_TYPICAL for name in _FIELDS},
+            expansion_coefficient=23.6 * _PER_K,
+            sources={**{name: _ASM_TYPICAL for name in _FIELDS},
+                     "expansion_coefficient": _ASM_EXPANSION},
         ),
         Material(
             "Ti-6Al-4V annealed",
             youngs_modulus=113.8 * _GPA, shear_modulus=44 * _GPA, poisson_ratio=0.342,
             density=4430,
             yield_strength=880 * _MPA, ultimate_strength=950 * _MPA,
-            sources={name: _ASM_TYPICAL for name in _FIELDS},
+            expansion_coefficient=8.6 * _PER_K,
+            sources={**{name: _ASM_TYPICAL for name in _FIELDS},
+                     "expansion_coefficient": _ASM_EXPANSION},
         ),
         Material(
             "Grey cast iron class 30",
             youngs_modulus=100 * _GPA, shear_modulus=41.4 * _GPA, poisson_ratio=0.211,
             density=0.260 * _LB_PER_IN3,
             ultimate_strength=214 * _MPA,
+            expansion_coefficient=10.8 * _PER_K,
             sources=_sources(
                 youngs_modulus=_SHIGLEY_A5 + " (grey cast iron)",
                 shear_modulus=_SHIGLEY_A5 + " (grey cast iron)",
@@ -297,6 +337,7 @@ def _library_entries() -> tuple[Material, ...]:
                     "Shigley's Mechanical Engineering Design, table of grey cast iron "
                     "properties (ASTM A48 class 30, tensile), from memory"
                 ),
+                expansion_coefficient=_ASM_EXPANSION + " (grey cast iron)",
             ),
             note=(
                 "Brittle, no yield point: give the allowable shear directly, "
@@ -314,6 +355,10 @@ def _library_entries() -> tuple[Material, ...]:
                 density=_COMMON_DENSITY,
                 yield_strength="none: fibre composites have no yield point",
                 ultimate_strength="none: use the laminate's shear strength from test data",
+                expansion_coefficient=(
+                    "none: the hoop expansion of a wound tube depends on the layup; give "
+                    "the supplier's value"
+                ),
             ),
             isotropic=False,
             note=(

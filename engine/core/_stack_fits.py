@@ -1,0 +1,420 @@
+"""Fits in a stack of layers: every interface's contact pressure at once, and each layer's stress.
+
+One shrink fit squeezes everything inside it, so in a part of three or more layers the
+two-cylinder formula (:func:`fit_pressure`) is not enough: a sleeve fitted over a bonded
+sleeve also presses on the core, and two fits change each other's pressure. Here each layer
+is a Lamé cylinder in plane stress with its own E and nu; the radial displacement of each
+face is linear in the pressures on the layer's two faces, and at every interface the outer
+member's bore moves out and the inner member's surface moves in by the radial interference
+between them:
+
+``u_k(a_k) - u_{k-1}(b_{k-1}) = delta_k / 2``.
+
+That is a tridiagonal system in the interface pressures, solved for all parts at once
+(Thomas algorithm, a loop over the few interfaces). Interfaces carry compression only: one
+whose pressure would come out negative opens (``p = 0``), and the rest are solved again.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from ._arrays import as_bool, as_float
+
+__all__ = ["stack_fit_pressures", "layer_fit_stress_capacity"]
+
+
+def _face_compliances(
+    inner_diameter: NDArray[np.float64],
+    outer_diameter: NDArray[np.float64],
+    youngs: NDArray[np.float64],
+    poisson: NDArray[np.float64],
+) -> tuple[NDArray[np.float64], ...]:
+    """``u(a) = ca_in p_in - ca_out p_out``, ``u(b) = cb_in p_in - cb_out p_out`` per layer."""
+    a, b = inner_diameter / 2.0, outer_diameter / 2.0
+    a2, b2 = a * a, b * b
+    wall = b2 - a2
+    ca_in = a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall
+    ca_out = a / youngs * 2.0 * b2 / wall
+    cb_in = b / youngs * 2.0 * a2 / wall
+    cb_out = b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall
+    return ca_in, ca_out, cb_in, cb_out
+
+
+def _solve_tridiagonal(
+    sub: NDArray[np.float64], diag: NDArray[np.float64], sup: NDArray[np.float64],
+    rhs: NDArray[np.float64],
+) -> NDArray[np.float64]:
+    """Thomas algorithm along the last axis, vectorised over the leading one."""
+    m = diag.shape[1]
+    c = np.zeros_like(diag)
+    d = np.zeros_like(diag)
+    c[:, 0] = sup[:, 0] / diag[:, 0]
+    d[:, 0] = rhs[:, 0] / diag[:, 0]
+    for k in range(1, m):
+        pivot = diag[:, k] - sub[:, k] * c[:, k - 1]
+        c[:, k] = sup[:, k] / pivot
+        d[:, k] = (rhs[:, k] - sub[:, k] * d[:, k - 1]) / pivot
+    x = np.empty_like(d)
+    x[:, -1] = d[:, -1]
+    for k in range(m - 2, -1, -1):
+        x[:, k] = d[:, k] - c[:, k] * x[:, k + 1]
+    return x
+
+
+def stack_fit_pressures(
+    outer_diameter: ArrayLike,
+    inner_diameter: ArrayLike,
+    present: ArrayLike,
+    youngs_modulus: ArrayLike,
+    poisson_ratio: ArrayLike,
+    interference: ArrayLike,
+) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+    """Contact pressure at every interface of a stack of Lamé cylinders.
+
+    Parameters
+    ----------
+    outer_diameter, inner_diameter : (P, L) array_like, m
+        The layers, innermost first; 0 inner diameter for a solid core.
+    present : (P, L) array_like of bool
+    youngs_modulus : (P, L) array_like, Pa
+    poisson_ratio : (P, L) array_like, 1
+    interference : (P, L) array_like, m
+        Diametral interference of the interface below each slot, at the outer member's slot
+        (at the temperature wanted). NaN: no fit, the layers just touch (0). Slot 0 is
+        ignored.
+
+    Returns
+    -------
+    pressure : (P, L) ndarray, Pa
+        At the outer member's slot; NaN at slot 0, absent interfaces and parts whose
+        layers are not usable (a diameter, E or nu missing or out of range).
+    opened : (P, L) ndarray of bool
+        The interface carries no pressure because it would otherwise be in radial tension.
+
+    Notes
+    -----
+    Layer ``k`` spans radii ``a = D_i/2`` to ``b = D_o/2``; the interface between ``k-1``
+    and ``k`` uses the two members' own radii (they differ by the interference, nothing
+    more). With one interface this is :func:`fit_pressure` exactly.
+
+    Examples
+    --------
+    >>> p, _ = stack_fit_pressures([[0.05, 0.08]], [[0.0, 0.05]], [[True, True]],
+    ...                            [[207e9, 207e9]], [[0.292, 0.292]], [[np.nan, 40e-6]])
+    >>> round(float(p[0, 1]) / 1e6, 2)
+    50.46
+    """
+    do, di = as_float(outer_diameter), as_float(inner_diameter)
+    mask = as_bool(present)
+    e, nu = (np.broadcast_to(as_float(v), do.shape) for v in (youngs_modulus, poisson_ratio))
+    delta = np.broadcast_to(as_float(interference), do.shape)
+    pressure, opened, _ = _solve(do, di, mask, e, nu, delta)
+    return pressure, opened
+
+
+def _shape_factors(
+    do: NDArray[np.float64], di: NDArray[np.float64]
+) -> list[tuple[NDArray[np.float64], NDArray[np.float64], NDArray[np.float64]]]:
+    """Per layer slot: ``s = (D_o^2 + D_i^2) / (D_o^2 - D_i^2)``, ``D_o^2`` and ``D_i^2``."""
+    out = []
+    wall = np.empty(do.shape[0])
+    for slot in range(do.shape[1]):
+        do2 = np.multiply(do[:, slot], do[:, slot])
+        di2 = np.multiply(di[:, slot], di[:, slot])
+        s = np.add(do2, di2)
+        np.subtract(do2, di2, out=wall)
+        s /= wall
+        out.append((s, do2, di2))
+    return out
+
+
+def _solve(
+    do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
+    e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
+    factors: list[tuple[NDArray[np.float64], ...]] | None = None,
+) -> tuple[NDArray[np.float64], NDArray[np.bool_], NDArray[np.bool_]]:
+    """Interface pressures of every part, column by column, and which parts are usable.
+
+    First pass: every interface closed, a tridiagonal solve in diametral terms (row ``k``:
+    ``(c_a,in,k + c_b,out,k-1) p_k - c_b,in,k-1 p_{k-1} - c_a,out,k p_{k+1} = delta_k`` with
+    ``c_a,in = D_i (s + nu) / E``, ``c_a,out = D_i (s + 1) / E``, ``c_b,in = D_o (s - 1) / E``,
+    ``c_b,out = D_o (s - nu) / E``, the diametral growth of a layer's faces per unit
+    pressure). Rows where an interface would pull go to :func:`_solve_with_contact`.
+    """
+    n_parts, n_layers = do.shape
+    pressure = np.full((n_parts, n_layers), np.nan, order="F")
+    opened = np.zeros((n_parts, n_layers), dtype=bool, order="F")
+    usable = np.ones(n_parts, dtype=bool)
+    if n_layers < 2:
+        return pressure, opened, usable
+    factors = _shape_factors(do, di) if factors is None else factors
+    full = bool(mask.all())
+    with np.errstate(all="ignore"):
+        scratch = np.empty(n_parts, dtype=bool)
+        for slot in range(n_layers):
+            # NaN fails every comparison, so a missing value is caught here too.
+            checks = ((e[:, slot], 0.0, np.greater), (nu[:, slot], -1.0, np.greater),
+                      (nu[:, slot], 0.5, np.less_equal), (e[:, slot], np.inf, np.less),
+                      (di[:, slot], 0.0, np.greater_equal), (di[:, slot], do[:, slot], np.less))
+            good = np.ones(n_parts, dtype=bool)
+            for value, bound, compare in checks:
+                compare(value, bound, out=scratch)
+                good &= scratch
+            if not full:
+                good |= ~mask[:, slot]
+            usable &= good
+        diag, lower, upper, rhs = [], [], [], []
+        ki, ko = np.empty(n_parts), np.empty(n_parts)
+        for k in range(1, n_layers):
+            s_in, s_out = factors[k - 1][0], factors[k][0]
+            np.divide(di[:, k], e[:, k], out=ki)
+            np.divide(do[:, k - 1], e[:, k - 1], out=ko)
+            d = np.add(s_out, nu[:, k])
+            d *= ki
+            below = np.subtract(s_in, nu[:, k - 1])
+            below *= ko
+            d += below
+            diag.append(d)
+            np.subtract(s_in, 1.0, out=below)
+            below *= ko
+            lower.append(below)
+            up = np.add(s_out, 1.0)
+            up *= ki
+            upper.append(up)
+            column = delta[:, k]
+            # A copy where rows will be blanked below or NaN cleared, else the caller's column.
+            own = not full or bool(np.isnan(column).any())
+            rhs.append(np.nan_to_num(column, nan=0.0) if own else column)
+        if not full:
+            for k in range(1, n_layers):
+                gone = ~(mask[:, k] & mask[:, k - 1])
+                np.copyto(diag[k - 1], 1.0, where=gone)
+                np.copyto(rhs[k - 1], 0.0, where=gone)
+                np.copyto(lower[k - 1], 0.0, where=gone)
+                np.copyto(upper[k - 1], 0.0, where=gone)
+                if k >= 2:
+                    np.copyto(upper[k - 2], 0.0, where=gone)
+        # Thomas algorithm over the few interfaces, vectorised over the parts, in place:
+        # upper[r] becomes the elimination factor, the pressure columns hold the values.
+        for row in range(n_layers - 1):
+            value = pressure[:, row + 1]
+            if row == 0:
+                np.copyto(value, rhs[0])
+            else:
+                np.multiply(lower[row], pressure[:, row], out=value)
+                value += rhs[row]
+                lower[row] *= upper[row - 1]
+                diag[row] -= lower[row]
+            value /= diag[row]
+            upper[row] /= diag[row]
+        for row in range(n_layers - 3, -1, -1):
+            upper[row] *= pressure[:, row + 2]
+            pressure[:, row + 1] += upper[row]
+        pulling = np.zeros(n_parts, dtype=bool)
+        for k in range(1, n_layers):
+            pulling |= pressure[:, k] < 0
+        if not full:
+            pressure[:, 1:][~(mask[:, 1:] & mask[:, :-1])] = np.nan
+    rows = np.flatnonzero(pulling & usable)
+    if rows.size:
+        fixed, fixed_open = _solve_with_contact(do[rows], di[rows], mask[rows], e[rows],
+                                                nu[rows], delta[rows])
+        pressure[rows] = fixed
+        opened[rows] = fixed_open
+    if not usable.all():
+        pressure[~usable] = np.nan
+    return pressure, opened, usable
+
+
+def _solve_with_contact(
+    do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
+    e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
+) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+    """The whole solution, opening and re-closing interfaces until none pulls or overlaps.
+
+    Works on (n, L) arrays; run on the rows the first pass cannot settle.
+    """
+    n_parts, n_layers = do.shape
+    pressure = np.full(do.shape, np.nan)
+    opened = np.zeros(do.shape, dtype=bool)
+    if n_layers < 2:
+        return pressure, opened
+    with np.errstate(all="ignore"):
+        usable = (di >= 0) & (di < do) & np.isfinite(do) & (e > 0) & np.isfinite(e) & (
+            nu > -1.0) & (nu <= 0.5)
+        part_ok = np.all(usable | ~mask, axis=1)
+        ca_in, ca_out, cb_in, cb_out = _face_compliances(di, do, e, nu)
+        exists = mask[:, 1:] & mask[:, :-1] & part_ok[:, np.newaxis]
+        # Unknowns p_1 .. p_{L-1}; row k-1 is the interface at slot k. Scaling each row by
+        # its radius makes the matrix symmetric (the compliance matrix of the stack).
+        radius = di[:, 1:] / 2.0
+        diag = radius * (ca_in[:, 1:] + cb_out[:, :-1])
+        sub = -radius * cb_in[:, :-1]
+        sup = np.zeros_like(diag)
+        sup[:, :-1] = -radius[:, :-1] * ca_out[:, 1:-1]
+        rhs = radius * np.nan_to_num(delta[:, 1:], nan=0.0) / 2.0
+        # Couplings to a missing interface, and rows of missing ones, drop out.
+        sub[:, 0] = 0.0
+        sub[:, 1:] = np.where(exists[:, 1:] & exists[:, :-1], sub[:, 1:], 0.0)
+        sup[:, :-1] = np.where(exists[:, :-1] & exists[:, 1:], sup[:, :-1], 0.0)
+        diag = np.where(exists, diag, 1.0)
+        rhs = np.where(exists, rhs, 0.0)
+        active = exists.copy()
+        p = np.zeros_like(diag)
+        for _ in range(2 * n_layers):
+            a_sub = np.zeros_like(sub)
+            a_sub[:, 1:] = np.where(active[:, 1:] & active[:, :-1], sub[:, 1:], 0.0)
+            a_sup = np.zeros_like(sup)
+            a_sup[:, :-1] = np.where(active[:, :-1] & active[:, 1:], sup[:, :-1], 0.0)
+            p = _solve_tridiagonal(
+                a_sub, np.where(active, diag, 1.0), a_sup, np.where(active, rhs, 0.0)
+            )
+            # Interference an open interface would not take up under these pressures: it
+            # would overlap, so it closes again.
+            untaken = rhs - diag * p
+            untaken[:, 1:] -= sub[:, 1:] * p[:, :-1]
+            untaken[:, :-1] -= sup[:, :-1] * p[:, 1:]
+            reclose = exists & ~active & (untaken > 0)
+            release = active & (p < 0)
+            if not (reclose.any() or release.any()):
+                break
+            active = (active & ~release) | reclose
+        p = np.where(active, p, 0.0)
+        pressure[:, 1:] = np.where(exists, p, np.nan)
+        opened[:, 1:] = exists & ~active
+    return pressure, opened
+
+
+def layer_fit_stress_capacity(
+    outer_diameter: ArrayLike,
+    inner_diameter: ArrayLike,
+    present: ArrayLike,
+    shear_modulus: ArrayLike,
+    sum_stiffness: ArrayLike,
+    pressure: ArrayLike,
+    yield_strength: ArrayLike,
+    factor_of_safety: ArrayLike = 1.0,
+) -> tuple[NDArray[np.float64], NDArray[np.int8]]:
+    """Section torque at which a layer's fit stresses plus torsion reach ``S_y / FS``.
+
+    Each layer is checked at its inner and outer face, where the fit stresses and the
+    torsional shear are largest: Lamé stresses from the pressures on its two faces
+    (:func:`lame_stresses`) and ``tau = G r T / sum(G J)``, combined by distortion energy
+    (:func:`combined_stress_capacity`). For an interface these faces are the outer member's
+    bore and the inner member's surface.
+
+    Parameters
+    ----------
+    outer_diameter, inner_diameter : (P, L) array_like, m
+    present : (P, L) array_like of bool
+    shear_modulus : (P, L) array_like, Pa
+    sum_stiffness : (P,) array_like, N*m^2
+        ``sum(G J)`` of the section.
+    pressure : (P, L) array_like, Pa
+        Interface pressures at the outer member's slot (:func:`stack_fit_pressures`); NaN
+        where there is no interface counts as none (0).
+    yield_strength : (P, L) array_like, Pa
+    factor_of_safety : array_like, 1
+        Broadcast against (P, L).
+
+    Returns
+    -------
+    capacity : (P, L) ndarray, N*m
+        0 where the fit alone reaches ``S_y / FS``; NaN for absent slots and missing
+        strengths.
+    face : (P, L) ndarray of int8
+        0 where the inner face governs, 1 the outer face; -1 where there is no capacity.
+    """
+    do, di = as_float(outer_diameter), as_float(inner_diameter)
+    shape = do.shape
+    mask = np.broadcast_to(as_bool(present), shape)
+    g, sy, fs = (np.broadcast_to(as_float(v), shape) for v in (shear_modulus, yield_strength,
+                                                               factor_of_safety))
+    pressure = np.broadcast_to(as_float(pressure), shape)
+    return _fit_stress(_shape_factors(do, di), pressure, mask, g,
+                       np.broadcast_to(as_float(sum_stiffness), shape[:1]), sy, fs)
+
+
+_TWO_OVER_ROOT3 = 2.0 / np.sqrt(3.0)
+
+
+def _fit_stress(
+    factors: list[tuple[NDArray[np.float64], ...]],
+    pressure: NDArray[np.float64],
+    mask: NDArray[np.bool_],
+    g: NDArray[np.float64],
+    sum_gj: NDArray[np.float64],
+    sy: NDArray[np.float64],
+    fs: NDArray[np.float64],
+) -> tuple[NDArray[np.float64], NDArray[np.int8]]:
+    """Column by column: with ``s`` the layer's shape factor the Lamé faces are
+    ``sigma_t(a) = p_in s - p_out (s + 1)``, ``sigma_t(b) = p_in (s - 1) - p_out s``,
+    ``sigma_r = -p`` of that face; distortion energy with ``tau = G (D/2) T / sum(G J)``
+    gives ``T = sqrt((S^2 - A) / D^2) 2 sum(G J) / (sqrt(3) G)``, ``A = st^2 + sr^2 - st sr``.
+    """
+    n_parts, n_layers = pressure.shape
+    capacity = np.full((n_parts, n_layers), np.nan, order="F")
+    face = np.full((n_parts, n_layers), -1, dtype=np.int8, order="F")
+    full = bool(mask.all())
+    zero = np.zeros(n_parts)
+
+    def squeeze(slot: int) -> NDArray[np.float64]:
+        if slot <= 0 or slot >= n_layers:
+            return zero
+        column = pressure[:, slot]
+        return np.nan_to_num(column, nan=0.0) if np.isnan(column).any() else column
+
+    with np.errstate(all="ignore"):
+        # Few buffers, reused: fresh memory for every temporary costs more than the sums.
+        hoop, work, limit = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
+        inner, outer = np.empty(n_parts), np.empty(n_parts)
+        outer_wins = np.empty(n_parts, dtype=bool)
+        p_in = zero
+        for slot in range(n_layers):
+            s, do2, di2 = factors[slot]
+            p_out = squeeze(slot + 1)
+            np.divide(sy[:, slot], fs[:, slot], out=limit)
+            strong = (sy[:, slot] > 0) & (fs[:, slot] > 0)
+            if not strong.all():
+                limit[~strong] = np.nan
+            limit *= limit
+            for room, p_face, diameter2 in ((inner, p_in, di2), (outer, p_out, do2)):
+                if room is inner:  # sigma_t(a) = p_in s - p_out (s + 1)
+                    np.multiply(p_in, s, out=hoop)
+                    np.add(s, 1.0, out=work)
+                else:  # sigma_t(b) = p_in (s - 1) - p_out s
+                    np.subtract(s, 1.0, out=hoop)
+                    hoop *= p_in
+                    np.copyto(work, s)
+                work *= p_out
+                hoop -= work
+                # A = st (st - sr) + sr^2 with sr = -p_face.
+                np.add(hoop, p_face, out=work)
+                work *= hoop
+                np.multiply(p_face, p_face, out=hoop)
+                work += hoop
+                np.subtract(limit, work, out=room)
+                np.maximum(room, 0.0, out=room)
+                room /= diameter2
+            # A solid core has no inner face: dividing by its D_i^2 = 0 gives inf, or NaN
+            # where the fit alone yields, and there its outer face, in the same uniform
+            # state, gives 0 anyway; fmin skips that NaN, and a NaN strength is NaN on both.
+            np.less(outer, inner, out=outer_wins)
+            outer_wins |= np.isnan(inner)
+            best = capacity[:, slot]
+            np.fmin(inner, outer, out=best)
+            np.sqrt(best, out=best)
+            best *= sum_gj
+            best /= g[:, slot]
+            best *= _TWO_OVER_ROOT3
+            face[:, slot] = outer_wins
+            p_in = p_out
+        missing = np.isnan(capacity)
+        if not full:
+            missing |= ~mask
+        if missing.any():
+            capacity[missing] = np.nan
+            face[missing] = -1
+    return capacity, face

@@ -1,0 +1,121 @@
+"""Benchmark: the plastic torque-twist curve and the interface checks of sleeved parts.
+
+Run as a script (not collected by pytest)::
+
+    python tests/perf/bench_sleeves.py [--curve-parts N] [--parts N] [--repeats N]
+
+Prints the figures, then one JSON line with ``curve_100k_50pts_s`` (best time of the
+torque-twist curve at 50 points, scaled to 10^5 three-layer parts; target <= 2 s) and
+``interfaces_1m_ratio`` (rate() plus rate_interfaces() over rate() alone on the same 10^6
+parts in the same run, best of the repeats; target <= 1.5). The parts are bench_engine's
+random three-layer parts, with a shrink fit at the first interface, a bond at the second and,
+on half the parts, a second fit there too, half of them at an operating temperature.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+import time
+
+import numpy as np
+from bench_engine import random_parts
+
+from twistshare.engine.core import rate, rate_interfaces, torque_twist_curve
+
+
+def interface_inputs(n_parts: int, outer: np.ndarray, seed: int = 7) -> dict[str, np.ndarray]:
+    """Fit and bond data for the parts (invented, plausible): about 1 um of interference per
+    mm of diameter, dry steel friction, bonds of 10-25 MPa."""
+    rng = np.random.default_rng(seed)
+    nan = np.full((n_parts, 3), np.nan)
+    interference = nan.copy()
+    interference[:, 1] = outer[:, 0] * rng.uniform(0.4e-3, 1.2e-3, n_parts)
+    second = rng.random(n_parts) < 0.5
+    interference[:, 2] = np.where(second, outer[:, 1] * rng.uniform(0.2e-3, 0.8e-3, n_parts), np.nan)
+    bond = nan.copy()
+    bond[:, 2] = rng.uniform(10e6, 25e6, n_parts)
+    return dict(
+        youngs_modulus=rng.uniform(70e9, 210e9, (n_parts, 3)),
+        poisson_ratio=rng.uniform(0.28, 0.34, (n_parts, 3)),
+        yield_strength=rng.uniform(200e6, 700e6, (n_parts, 3)),
+        expansion_coefficient=rng.uniform(10e-6, 24e-6, (n_parts, 3)),
+        interference=interference,
+        fit_length=rng.uniform(0.01, 0.06, (n_parts, 3)),
+        friction=0.12,
+        bond_allowable=bond,
+        bond_length=rng.uniform(0.01, 0.06, (n_parts, 3)),
+        operating_temperature=np.where(rng.random(n_parts) < 0.5, 353.15, np.nan),
+        factor_of_safety=1.5,
+    )
+
+
+def _best(call, repeats: int) -> tuple[float, list[float]]:
+    runs = []
+    for _ in range(repeats):
+        start = time.perf_counter()
+        result = call()
+        runs.append(time.perf_counter() - start)
+        del result
+    return min(runs), runs
+
+
+def time_curve(n_parts: int, repeats: int) -> tuple[float, list[float]]:
+    """Best and all times of the 50-point torque-twist curve of ``n_parts`` parts."""
+    stack, _ = random_parts(n_parts)
+    shear_yield = stack.allowable_shear * 2.0  # a yield above the allowable, as in practice
+    layers = (stack.outer_diameter, stack.inner_diameter, stack.shear_modulus, shear_yield,
+              stack.present)
+    return _best(lambda: torque_twist_curve(*layers, n_points=50), repeats)
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--curve-parts", type=int, default=100_000)
+    parser.add_argument("--parts", type=int, default=1_000_000)
+    parser.add_argument("--repeats", type=int, default=3)
+    args = parser.parse_args(argv)
+
+    curve_best, curve_runs = time_curve(args.curve_parts, args.repeats)
+    curve_100k = curve_best * 1e5 / args.curve_parts
+
+    stack, duty = random_parts(args.parts)
+    inputs = interface_inputs(args.parts, stack.outer_diameter)
+    rate(stack, duty)  # touch the memory once
+    rate_best, rate_runs = _best(lambda: rate(stack, duty), args.repeats)
+    rating = rate(stack, duty)
+    share, sum_gj = rating.share, rating.sum_gj
+
+    def both():
+        rated = rate(stack, duty)
+        return rate_interfaces(stack, share=rated.share, sum_stiffness=rated.sum_gj, **inputs)
+
+    check = rate_interfaces(stack, share=share, sum_stiffness=sum_gj, **inputs)
+    assert np.isfinite(check.slip_limit).all() and np.isfinite(check.bond_limit).all()
+    del rating, check
+    alone_best, alone_runs = _best(
+        lambda: rate_interfaces(stack, share=share, sum_stiffness=sum_gj, **inputs), args.repeats)
+    both_best, both_runs = _best(both, args.repeats)
+    ratio = both_best / rate_best
+
+    print(f"torque-twist curve, {args.curve_parts:,} parts x 50 points: "
+          f"{', '.join(f'{r:.3f}' for r in curve_runs)} s (best scaled to 10^5: {curve_100k:.3f} s)")
+    print(f"rate(), {args.parts:,} parts:               {', '.join(f'{r:.3f}' for r in rate_runs)} s")
+    print(f"rate_interfaces() alone:              {', '.join(f'{r:.3f}' for r in alone_runs)} s")
+    print(f"rate() + rate_interfaces():           {', '.join(f'{r:.3f}' for r in both_runs)} s")
+    print(f"(rate + interfaces) / rate:           {ratio:.2f} (target <= 1.5)")
+    print(json.dumps({
+        "curve_parts": args.curve_parts,
+        "curve_100k_50pts_s": round(curve_100k, 4),
+        "parts": args.parts,
+        "rate_s": round(rate_best, 4),
+        "interfaces_alone_s": round(alone_best, 4),
+        "rate_plus_interfaces_s": round(both_best, 4),
+        "interfaces_1m_ratio": round(ratio, 3),
+    }))
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
