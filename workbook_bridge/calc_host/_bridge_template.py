@@ -11,7 +11,8 @@ engine is reached in one of two ways, chosen on the first call and kept for the 
   process and asked over a pipe (its standard input and output; no port is opened). It ends
   when LibreOffice ends.
 
-Environment variable ``TWISTSHARE_CALC_ENGINE``: ``auto`` (default), ``in-process`` or ``helper``.
+Environment variable ``TWISTSHARE_CALC_ENGINE``: ``auto`` (default), ``in-process`` or ``helper``;
+``TWISTSHARE_CALC_REPORT``: a file to which the way the engine was reached is appended.
 Only standard-library modules are used here. Every failure comes back as a ``⚠`` text: nothing
 may escape into Calc.
 """
@@ -169,8 +170,21 @@ def engine():
                 _SESSION["engine"] = _connect()
             except EngineUnavailable as error:
                 _SESSION["failed"] = str(error)
+                _note(f"unavailable: {error}")
                 raise
+            _note(_SESSION["engine"].how)
         return _SESSION["engine"]
+
+
+def _note(text):
+    """Say how the engine was reached, in the file TWISTSHARE_CALC_REPORT names (a diagnostic)."""
+    path = os.environ.get("TWISTSHARE_CALC_REPORT")
+    if path:
+        try:
+            with open(path, "a", encoding="utf-8") as f:
+                f.write(text + "\n")
+        except OSError:
+            pass
 
 
 def _tuples(value):

@@ -2,8 +2,7 @@
 
 LibreOffice runs on a private, throw-away profile holding our functions and one setting
 (recalculate every formula when a workbook is loaded, so stale cached values are renewed too).
-The book itself is never opened: a copy in a temporary folder is, with the ``_xludf.`` prefix
-Excel writes before functions it does not know taken off our functions' names. LibreOffice
+The book itself is never opened: a copy in a temporary folder is (see `_feed`). LibreOffice
 writes nothing; its values come back through UNO and go into a copy of the user's package.
 
 The private profile is made once per LibreOffice version, set of functions and engine, kept in
@@ -14,12 +13,10 @@ from __future__ import annotations
 
 import hashlib
 import os
-import re
 import shutil
 import sys
 import tempfile
 import time
-import zipfile
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -27,10 +24,11 @@ from typing import Any
 
 from twistshare.workbook_bridge._grid import cell_ref, parse_ref
 
-from ._errors import CalcHostError, LibreOfficeFailed
+from ._errors import CalcHostError, LibreOfficeFailed, LibreOfficeTimeout
+from ._feed import feed_copy
 from ._names import ENGINE_ENV
 from ._office import Office, find_office, run_office, start_profile
-from ._package_values import CellValue, OfficeError, copy_package, formula_cells, write_with_values
+from ._package_values import CellValue, OfficeError, formula_cells, write_with_values
 from ._profile import Installed, install, user_folder
 from ._runtime import WARNING_SIGN
 from ._specs import _function_specs
@@ -108,27 +106,6 @@ def private_profile(folder: Path, office: Office, files: Installed, timeout: flo
     return target
 
 
-def _our_names() -> tuple[str, ...]:
-    return tuple(s.name for s in _function_specs())
-
-
-def _feed_copy(book: Path, info, folder: Path) -> Path:
-    """The copy LibreOffice opens: ``_xludf.TWS_...`` (Excel's mark of an unknown function) unmarked."""
-    names = "|".join(re.escape(n) for n in _our_names())
-    marked = re.compile(r"_xludf\.(?=(?:" + names + r")\s*\()", re.I)
-    feed = folder / ("book" + (book.suffix.lower() if book.suffix.lower() in (".xlsx", ".xlsm") else ".xlsx"))
-    edits = {}
-    with zipfile.ZipFile(book) as zf:
-        for sheet in info.sheets:
-            if sheet.part and b"_xludf." in zf.read(sheet.part).lower():
-                edits[sheet.part] = lambda text: marked.sub("", text)
-    if edits:
-        copy_package(book, feed, edits)
-    else:
-        shutil.copyfile(book, feed)
-    return feed
-
-
 def _open(book: Path):
     from twistshare.workbook_bridge.ooxml import OoxmlError, inspect_package
 
@@ -168,11 +145,9 @@ def _compute(book: Path, info, cells: dict[str, list[tuple[int, int]]], timeout:
         folder = Path(tmp)
         profile = private_profile(folder, office, files, timeout)
         prepared = time.monotonic() - started
-        feed = _feed_copy(book, info, folder)
+        feed = feed_copy(book, info, folder, [f.name for f in _function_specs()])
         remaining = timeout - (time.monotonic() - started)
         if remaining <= 0:
-            from ._errors import LibreOfficeTimeout
-
             raise LibreOfficeTimeout(f"LibreOffice did not finish within {timeout:g} s", timeout)
         env = {ENGINE_ENV: os.environ[ENGINE_ENV]} if ENGINE_ENV in os.environ else None
         answer = run_office(office, profile, feed, cells, timeout=remaining, env=env)

@@ -8,7 +8,7 @@ Calc. It computes nothing itself.
 LibreOffice hands a Basic function a cell range as a 2-D array; the bridge sees it as a tuple of
 row tuples. Empty cells are None, whole numbers come as int (Basic's choice), a left-out argument
 in the middle of a formula (``f(a;;c)``) arrives as 0 (Calc's choice: it cannot be told from a
-typed 0).
+typed 0): see `_left_out`.
 """
 
 from __future__ import annotations
@@ -19,7 +19,7 @@ from collections.abc import Iterable, Sequence
 from typing import Any
 
 from ._names import SETUP_COMMAND
-from ._specs import HostFunction, _function_specs
+from ._specs import HostArgument, HostFunction, _function_specs
 
 __all__ = ["Runtime", "from_calc", "to_calc", "WARNING_SIGN"]
 
@@ -112,6 +112,22 @@ def to_calc(result: Any) -> Any:
     return tuple(tuple(r + [""] * (width - len(r))) for r in rows)
 
 
+def _left_out(value: Any, argument: HostArgument) -> bool:
+    """An optional argument Calc handed over as "not given".
+
+    ``""`` always. A bare 0 too where 0 cannot be a valid value: for a block, and for an argument
+    that takes a unit (a unit text, a length, an angle, ...; the engine refuses a number without
+    its unit). That 0 is how Calc passes a left-out argument (``f(a;;c)``); a plain-number
+    argument (a factor of safety, a layer number) keeps its 0 and gets the engine's message.
+    """
+    if not argument.optional:
+        return False
+    if isinstance(value, str):
+        return value == ""
+    is_zero = isinstance(value, numbers.Real) and not isinstance(value, bool) and value == 0
+    return is_zero and (argument.block or bool(argument.unit))
+
+
 class Runtime:
     """The cell functions by name, called with LibreOffice's values.
 
@@ -146,7 +162,7 @@ class Runtime:
             return f"{WARNING_SIGN} {spec.name} takes at most {len(spec.arguments)} arguments, got {len(args)}"
         args += [None] * (len(spec.arguments) - len(args))
         try:
-            values = [from_calc(v, block=a.block) for v, a in zip(args, spec.arguments)]
+            values = [None if _left_out(v, a) else from_calc(v, block=a.block) for v, a in zip(args, spec.arguments)]
             return to_calc(spec.function(*values))
         except Exception as error:  # the cell shows why; nothing may escape into Calc
             return f"{WARNING_SIGN} {spec.name} could not compute: {type(error).__name__}: {error}"
