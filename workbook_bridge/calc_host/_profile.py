@@ -21,7 +21,7 @@ import os
 import re
 import sys
 import tempfile
-from collections.abc import Iterable
+from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -47,12 +47,17 @@ def default_profile() -> Path:
     Linux and other Unix: ``$XDG_CONFIG_HOME/libreoffice/4`` (``~/.config/libreoffice/4``);
     macOS: ``~/Library/Application Support/LibreOffice/4``; Windows: ``%APPDATA%\\LibreOffice\\4``.
     """
-    if os.name == "nt":
-        base = os.environ.get("APPDATA") or str(Path.home() / "AppData" / "Roaming")
+    return profile_folder_for("win32" if os.name == "nt" else sys.platform, os.environ, Path.home())
+
+
+def profile_folder_for(platform: str, environ: Mapping[str, str], home: Path) -> Path:
+    """`default_profile` for a given platform (``sys.platform``), environment and home folder."""
+    if platform == "win32":
+        base = environ.get("APPDATA") or str(home / "AppData" / "Roaming")
         return Path(base) / "LibreOffice" / "4"
-    if sys.platform == "darwin":
-        return Path.home() / "Library" / "Application Support" / "LibreOffice" / "4"
-    base = os.environ.get("XDG_CONFIG_HOME") or str(Path.home() / ".config")
+    if platform == "darwin":
+        return home / "Library" / "Application Support" / "LibreOffice" / "4"
+    base = environ.get("XDG_CONFIG_HOME") or str(home / ".config")
     return Path(base) / "libreoffice" / "4"
 
 

@@ -141,6 +141,15 @@ def _compute(book: Path, info, cells: dict[str, list[tuple[int, int]]], timeout:
     started = time.monotonic()
     office = find_office()
     files = Installed.build()
+    try:
+        return _compute_with(office, files, book, info, cells, timeout, started)
+    except LibreOfficeTimeout:
+        raise LibreOfficeTimeout(f"LibreOffice did not finish within {timeout:g} s; it was stopped and "
+                                 "nothing was written", timeout) from None
+
+
+def _compute_with(office: Office, files: Installed, book: Path, info, cells: dict[str, list[tuple[int, int]]],
+                  timeout: float, started: float) -> _Run:
     with tempfile.TemporaryDirectory(prefix="twistshare-calc-") as tmp:
         folder = Path(tmp)
         profile = private_profile(folder, office, files, timeout)
@@ -148,7 +157,7 @@ def _compute(book: Path, info, cells: dict[str, list[tuple[int, int]]], timeout:
         feed = feed_copy(book, info, folder, [f.name for f in _function_specs()])
         remaining = timeout - (time.monotonic() - started)
         if remaining <= 0:
-            raise LibreOfficeTimeout(f"LibreOffice did not finish within {timeout:g} s", timeout)
+            raise LibreOfficeTimeout("no time left", timeout)
         env = {ENGINE_ENV: os.environ[ENGINE_ENV]} if ENGINE_ENV in os.environ else None
         answer = run_office(office, profile, feed, cells, timeout=remaining, env=env)
     seconds = {k: float(v) for k, v in answer.get("seconds", {}).items()}
