@@ -11,15 +11,29 @@
 Run as ``python -m twistshare.workbook_bridge.calc_host setup|undo|recalc ...`` (see `main`).
 """
 
-from ._cli import main
-from ._errors import CalcHostError, LibreOfficeFailed, LibreOfficeMissing, LibreOfficeTimeout, ProfileRefused
-from ._profile import SetupReport, default_profile
-from ._recalc import BookRefused, ComputedValues, RecalcReport, computed_values, recalculate
-from ._setup import setup_profile
+from importlib import import_module
+from typing import Any
 
-__all__ = [
-    "setup_profile", "recalculate", "computed_values", "main", "default_profile",
-    "SetupReport", "RecalcReport", "ComputedValues",
-    "CalcHostError", "LibreOfficeMissing", "LibreOfficeTimeout", "LibreOfficeFailed", "ProfileRefused",
-    "BookRefused",
-]
+# Where each public name lives. Loaded on first use: LibreOffice's Python imports this package
+# on the way to the small `_runtime` module and should not pay for the rest.
+_PUBLIC = {
+    "setup_profile": "_setup", "recalculate": "_recalc", "computed_values": "_recalc", "main": "_cli",
+    "default_profile": "_profile", "SetupReport": "_profile", "RecalcReport": "_recalc",
+    "ComputedValues": "_recalc", "BookRefused": "_recalc", "CalcHostError": "_errors",
+    "LibreOfficeMissing": "_errors", "LibreOfficeTimeout": "_errors", "LibreOfficeFailed": "_errors",
+    "ProfileRefused": "_errors",
+}
+
+__all__ = list(_PUBLIC)
+
+
+def __getattr__(name: str) -> Any:
+    if name not in _PUBLIC:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(import_module(f"{__name__}.{_PUBLIC[name]}"), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted([*globals(), *_PUBLIC])

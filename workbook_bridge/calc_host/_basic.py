@@ -81,7 +81,7 @@ Private Function TwsCells(vResult As Variant) As Variant
 End Function
 
 Private Function TwsCall(sName As String, aArgs As Variant) As Variant
-    Dim aOutIndex(), aOut(), sHint As String, oFactory As Object
+    Dim aOutIndex(), aOut(), sHint As String, oFactory As Object, vResult As Variant
     On Error GoTo Failed
     sHint = ""
     If IsNull(twsScript) Then
@@ -92,7 +92,9 @@ Private Function TwsCall(sName As String, aArgs As Variant) As Variant
         twsScript = oFactory.createScriptProvider("").getScript("{_SCRIPT_URI}")
         sHint = ""
     End If
-    TwsCall = TwsCells(twsScript.invoke(Array(sName, aArgs), aOutIndex, aOut))
+    vResult = twsScript.invoke(Array(sName, aArgs), aOutIndex, aOut)
+    If IsArray(vResult) Then vResult = TwsCells(vResult)
+    TwsCall = vResult
     Exit Function
 Failed:
     TwsCall = TwsFailure(sName, Err, Error$, Erl, sHint)

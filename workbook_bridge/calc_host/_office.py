@@ -118,10 +118,20 @@ def _clean_env(extra: dict[str, str] | None = None, *, office_python: str | None
     return env
 
 
+def _surely_has_uno(python: str, soffice: str) -> bool:
+    """The uno module lies beside this Python (LibreOffice's own, or Debian's python3-uno): no probe needed."""
+    program = Path(os.path.realpath(soffice)).parent
+    if Path(python).parent in (program, program.parent / "Resources"):
+        return (Path(python).parent / "uno.py").is_file() or (program / "uno.py").is_file()
+    return python == "/usr/bin/python3" and Path("/usr/lib/python3/dist-packages/uno.py").is_file()
+
+
 def find_office() -> Office:
     """LibreOffice and its UNO Python; raises LibreOfficeMissing."""
     soffice = find_soffice()
     for python in _python_candidates(soffice):
+        if _surely_has_uno(python, soffice):
+            return Office(soffice, python)
         try:
             probe = subprocess.run([python, "-c", "import uno"], capture_output=True, timeout=30,
                                    env=_clean_env(), stdin=subprocess.DEVNULL)
