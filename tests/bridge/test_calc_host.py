@@ -16,6 +16,7 @@ import math
 import os
 import re
 import subprocess
+import sys
 import uuid
 import zipfile
 from pathlib import Path
@@ -27,7 +28,7 @@ from openpyxl.worksheet.formula import ArrayFormula
 
 from twistshare.engine import cells
 from twistshare.workbook_bridge import calc_host
-from twistshare.workbook_bridge.calc_host import _office, _profile
+from twistshare.workbook_bridge.calc_host import _office, _profile, _recalc
 from twistshare.workbook_bridge.calc_host._basic import basic_source
 from twistshare.workbook_bridge.calc_host._bridge import EngineLocation, bridge_source, engine_location
 from twistshare.workbook_bridge.calc_host._feed import fill_left_out_arguments
@@ -132,6 +133,9 @@ def office_env(tmp_path_factory):
     with pytest.MonkeyPatch.context() as mp:
         mp.setenv("XDG_CACHE_HOME", str(tmp_path_factory.mktemp("cache")))
         mp.setenv(TAG, tag)
+        if sys.prefix != sys.base_prefix:  # as in a shell where this virtual environment is activated
+            mp.setenv("PATH", str(Path(sys.executable).parent) + os.pathsep + os.environ.get("PATH", ""))
+            mp.setenv("VIRTUAL_ENV", sys.prefix)
         yield tag
 
 
@@ -369,6 +373,32 @@ def test_a_basic_module_of_our_name_that_is_not_ours_is_refused(tmp_path):
 ])
 def test_default_profile_is_where_libreoffice_keeps_it(platform, env, expected):
     assert _profile.profile_folder_for(platform, env, Path("/home/ann")) == expected
+
+
+def test_libreoffice_never_sees_a_virtual_environment_on_its_path(tmp_path, monkeypatch):
+    venv = tmp_path / "venv"
+    (venv / "bin").mkdir(parents=True)
+    (venv / "pyvenv.cfg").write_text("home = /somewhere\n")
+    (venv / "bin" / "python3").write_text("")
+    monkeypatch.setenv("PATH", os.pathsep.join([str(venv / "bin"), "/usr/bin", "/bin"]))
+    monkeypatch.setenv("VIRTUAL_ENV", str(venv))
+    monkeypatch.setenv("PYTHONHOME", str(venv))
+    env = _office.office_environment(_office.Office("/usr/bin/soffice", "/usr/bin/python3"), {"X": "1"})
+    assert env["PATH"].split(os.pathsep) == ["/usr/bin", "/bin"]
+    assert "VIRTUAL_ENV" not in env and "PYTHONHOME" not in env and env["X"] == "1"
+
+
+def test_a_book_without_formulas_is_copied_without_libreoffice(tmp_path, monkeypatch):
+    monkeypatch.setattr(_recalc, "find_office", lambda: pytest.fail("LibreOffice was started"))
+    wb = openpyxl.Workbook()
+    wb.active["A1"] = "MPD-S-014"
+    wb.save(tmp_path / "plain.xlsx")
+    report = calc_host.recalculate(tmp_path / "plain.xlsx", tmp_path / "copy.xlsx")
+    assert report.formulas == 0 and not report.problems
+    with zipfile.ZipFile(tmp_path / "plain.xlsx") as a, zipfile.ZipFile(tmp_path / "copy.xlsx") as b:
+        assert {n: a.read(n) for n in a.namelist()} == {n: b.read(n) for n in b.namelist()}
+    with pytest.raises(calc_host.BookRefused, match="is the input workbook"):
+        calc_host.recalculate(tmp_path / "plain.xlsx", tmp_path / "plain.xlsx")
 
 
 def test_missing_libreoffice_is_one_clear_line(tmp_path, monkeypatch, capsys):

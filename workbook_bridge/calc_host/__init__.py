@@ -19,7 +19,7 @@ from typing import Any
 _PUBLIC = {
     "setup_profile": "_setup", "recalculate": "_recalc", "computed_values": "_recalc", "main": "_cli",
     "default_profile": "_profile", "SetupReport": "_profile", "RecalcReport": "_recalc",
-    "ComputedValues": "_recalc", "BookRefused": "_recalc", "CalcHostError": "_errors",
+    "ComputedValues": "_recalc", "BookRefused": "_errors", "CalcHostError": "_errors",
     "LibreOfficeMissing": "_errors", "LibreOfficeTimeout": "_errors", "LibreOfficeFailed": "_errors",
     "ProfileRefused": "_errors",
 }

@@ -2,7 +2,8 @@
 
 from __future__ import annotations
 
-__all__ = ["CalcHostError", "LibreOfficeMissing", "LibreOfficeTimeout", "LibreOfficeFailed", "ProfileRefused"]
+__all__ = ["CalcHostError", "LibreOfficeMissing", "LibreOfficeTimeout", "LibreOfficeFailed", "ProfileRefused",
+           "BookRefused"]
 
 
 class CalcHostError(Exception):
@@ -33,3 +34,7 @@ class LibreOfficeFailed(CalcHostError, RuntimeError):
 
 class ProfileRefused(CalcHostError, ValueError):
     """A profile setup or undo would touch something that is not ours; nothing was changed."""
+
+
+class BookRefused(CalcHostError, ValueError):
+    """The book cannot be read, or the output cannot be written there; nothing was written."""

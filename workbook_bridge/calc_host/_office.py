@@ -105,9 +105,10 @@ def _clean_env(extra: dict[str, str] | None = None, *, office_python: str | None
                for_office: bool = False) -> dict[str, str]:
     """The environment for LibreOffice or a Python: no PYTHONHOME and the like.
 
-    For LibreOffice (`for_office`, or `office_python` given) also no folder on PATH that holds another Python:
-    LibreOffice's embedded Python looks along PATH for its home, and a virtual environment's
-    folder there (an activated venv) makes it load a foreign standard library and fail.
+    For LibreOffice (`for_office`, or `office_python` given) also no folder on PATH that holds
+    another Python: LibreOffice's embedded Python looks along PATH for its home, and a virtual
+    environment's folder there (an activated venv) makes it load a foreign standard library and
+    fail (every call then ends in "C++ code threw std::bad_alloc").
     """
     env = {k: v for k, v in os.environ.items() if k not in _SCRUBBED}
     if office_python is not None or for_office:
@@ -226,9 +227,12 @@ def start_profile(soffice: str, profile: Path, timeout: float = 120.0, *, office
     Until a profile has been started once, LibreOffice copies its default Standard library over
     whatever is in it; so nothing is written into a profile before this.
     """
-    process = _spawn(_office_args(soffice, profile) + ["--terminate_after_init"],
-                     _clean_env(office_python=office_python, for_office=True),
-                     stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    try:
+        process = _spawn(_office_args(soffice, profile) + ["--terminate_after_init"],
+                         _clean_env(office_python=office_python, for_office=True),
+                         stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    except OSError as error:
+        raise LibreOfficeFailed(f"could not start LibreOffice ({soffice}): {error}") from None
     try:
         process.wait(timeout=timeout)
     except subprocess.TimeoutExpired:
@@ -273,15 +277,21 @@ def run_office(office: Office, profile: Path, book: Path, cells: dict[str, list[
     started = time.monotonic()
     pipe = f"twistshare-{os.getpid()}-{uuid.uuid4().hex[:12]}"
     office_env = _clean_env(env, office_python=office.uno_python)
-    office_process = _spawn(_office_args(office.soffice, profile) + [f"--accept=pipe,name={pipe};urp;"],
-                            office_env, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    try:
+        office_process = _spawn(_office_args(office.soffice, profile) + [f"--accept=pipe,name={pipe};urp;"],
+                                office_env, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    except OSError as error:
+        raise LibreOfficeFailed(f"could not start LibreOffice ({office.soffice}): {error}") from None
     answered = False
     try:
         request = {"pipe": pipe, "book": str(Path(book).resolve()), "connect_seconds": timeout,
                    "terminate": grace > 0,
                    "cells": {name: [list(rc) for rc in refs] for name, refs in cells.items()}}
-        driver = subprocess.Popen([office.uno_python, str(_DRIVER)], stdin=subprocess.PIPE,
-                                  stdout=subprocess.PIPE, stderr=subprocess.PIPE, env=_clean_env())
+        try:
+            driver = subprocess.Popen([office.uno_python, str(_DRIVER)], stdin=subprocess.PIPE,
+                                      stdout=subprocess.PIPE, stderr=subprocess.PIPE, env=_clean_env())
+        except OSError as error:
+            raise LibreOfficeFailed(f"could not start LibreOffice's Python ({office.uno_python}): {error}") from None
         try:
             out, err = driver.communicate(json.dumps(request).encode("utf-8"),
                                           timeout=max(timeout - (time.monotonic() - started), 0.01))

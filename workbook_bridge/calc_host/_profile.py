@@ -120,8 +120,8 @@ class SetupReport:
                     if self.actions else
                     f"twistshare: the cell functions are already installed in {self.profile}; nothing changed")
             tail = ["Restart LibreOffice to use them; a book's TWS_... formulas are computed when it opens "
-                    "(stale values: Data > Calculate > Recalculate Hard).",
-                    f"To remove them again: {UNDO_COMMAND}{where}"]
+                    "(stale values: Data > Calculate > Recalculate Hard)."] if self.actions else []
+            tail.append(f"To remove them again: {UNDO_COMMAND}{where}")
         lines = [head] + [f"  - {a}" for a in self.actions] + [f"  note: {n}" for n in self.notes] + tail
         return "\n".join(lines)
 

@@ -24,7 +24,7 @@ from typing import Any
 
 from twistshare.workbook_bridge._grid import cell_ref, parse_ref
 
-from ._errors import CalcHostError, LibreOfficeFailed, LibreOfficeTimeout
+from ._errors import BookRefused, LibreOfficeFailed, LibreOfficeTimeout
 from ._feed import feed_copy
 from ._names import ENGINE_ENV
 from ._office import Office, find_office, run_office, start_profile
@@ -33,16 +33,12 @@ from ._profile import Installed, install, user_folder
 from ._runtime import WARNING_SIGN
 from ._specs import _function_specs
 
-__all__ = ["RecalcReport", "ComputedValues", "BookRefused", "recalculate", "computed_values", "DEFAULT_TIMEOUT"]
+__all__ = ["RecalcReport", "ComputedValues", "recalculate", "computed_values", "DEFAULT_TIMEOUT"]
 
 DEFAULT_TIMEOUT = 300.0  # seconds for one run, LibreOffice's start included
 _RECALC_ON_LOAD = ('<item oor:path="/org.openoffice.Office.Calc/Formula/Load">'
                    '<prop oor:name="OOXMLRecalcMode" oor:op="fuse"><value>0</value></prop></item>\n')
 _TEMPLATE_VERSION = "1"
-
-
-class BookRefused(CalcHostError, ValueError):
-    """The book cannot be read, or the output cannot be written there; nothing was written."""
 
 
 def _cache_root() -> Path:
@@ -65,7 +61,7 @@ def _office_identity(office: Office) -> bytes:
 
 def _build_profile(profile: Path, office: Office, files: Installed, timeout: float) -> None:
     profile.mkdir(parents=True)
-    start_profile(office.soffice, profile, timeout)
+    start_profile(office.soffice, profile, timeout, office_python=office.uno_python)
     install(profile, files)
     xcu = user_folder(profile) / "registrymodifications.xcu"
     text = xcu.read_text(encoding="utf-8")
@@ -249,10 +245,13 @@ def recalculate(book: str | os.PathLike, out: str | os.PathLike, *, timeout: flo
     except BookUnusable as error:
         raise BookRefused(str(error)) from None
     cells = formula_cells(book, info)
-    run = _compute(book, info, cells, timeout)
+    # Nothing to compute: the copy is the book itself, and LibreOffice need not start.
+    run = _compute(book, info, cells, timeout) if cells else _Run({}, (), {"total": 0.0})
     values = {name: {rc: v for rc, v in run.values.get(name, {}).items()} for name in cells}
     problems = tuple((name, cell_ref(r, c), _problem(v) or "")
                      for name, got in values.items() for (r, c), v in sorted(got.items()) if _problem(v))
+    problems += tuple((name, "", "LibreOffice did not find this sheet: its formulas keep their old values")
+                      for name in run.missing_sheets)
     try:
         kept = keep_previous(out, False)
         write_with_values(book, out, info, values)
