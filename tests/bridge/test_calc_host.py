@@ -242,6 +242,24 @@ def test_computed_values_for_what_the_small_evaluator_cannot_do(recalculated):
 
 
 @needs_office
+def test_the_sample_book_agrees_with_the_values_only_copy(office_env, tmp_path):
+    """LibreOffice's values of the bundled sample equal those `twistshare share` computes itself."""
+    from twistshare.workbook_bridge.cli import main as twistshare
+
+    sample = Path(__file__).resolve().parents[2] / "sample_books" / "marrowby_cell_functions.xlsx"
+    assert twistshare(["share", str(sample), "-o", str(tmp_path / "shared.xlsx"), "-q"]) == 0
+    shared = openpyxl.load_workbook(tmp_path / "shared.xlsx", data_only=True)
+    got = calc_host.computed_values(sample, timeout=240)
+    assert len(got.values) >= 20 and not got.not_computed
+    for (sheet, ref), value in got.values.items():
+        want = shared[sheet][ref].value
+        if isinstance(want, float):
+            _close(value, want)
+        else:
+            assert value == want, (sheet, ref)
+
+
+@needs_office
 def test_the_helper_process_gives_the_same_values_and_ends(office_env, tmp_path, monkeypatch):
     book = make_book(tmp_path / "helper.xlsx")
     trace = tmp_path / "engine.txt"
