@@ -335,6 +335,14 @@ def test_setup_twice_then_undo_and_the_functions_work_in_a_book_opened_after_set
     assert got[(2, 0)].startswith("⚠ power:")
     assert _tagged_processes(office_env) == []
 
+    # The Python bridge gone: the Basic wrappers trap the error, say what to do, and LibreOffice still ends.
+    (profile / "user" / "Scripts" / "python" / "twistshare_calc.py").unlink()
+    answer = _office.run_office(OFFICE, profile, tmp_path / "opened.xlsx", {"Sheet1": [(0, 0)]}, timeout=240,
+                                grace=30)
+    shown = answer["sheets"]["Sheet1"]["values"][0][2]
+    assert shown.startswith("⚠ TWS_TORQUE_FROM_POWER could not run in LibreOffice") and "setup again" in shown
+    assert _tagged_processes(office_env) == []
+
     undone = calc_host.setup_profile(profile, undo=True)
     assert undone.changed
     assert _standard(profile) == original  # byte for byte, the user's module included
@@ -359,6 +367,8 @@ def _fake_profile(root: Path) -> Path:
 
 def test_install_and_uninstall_touch_only_what_is_ours(tmp_path):
     profile = _fake_profile(tmp_path / "p")
+    xlb = profile / "user" / "basic" / "Standard" / "script.xlb"
+    xlb.chmod(0o640)
     before = _standard(profile)
     files = _profile.Installed.build()
     report = _profile.install(profile, files)
@@ -367,6 +377,7 @@ def test_install_and_uninstall_touch_only_what_is_ours(tmp_path):
     assert not _profile.install(profile, files).changed
     _profile.uninstall(profile)
     assert _standard(profile) == before
+    assert xlb.stat().st_mode & 0o777 == 0o640
     assert (profile / "user" / "Scripts").is_dir() and not (profile / "user" / "Scripts" / "python").exists()
 
 

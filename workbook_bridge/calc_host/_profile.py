@@ -127,12 +127,15 @@ class SetupReport:
 
 
 def _write_atomic(path: Path, data: bytes) -> None:
+    """Write a file through a temporary one beside it; an existing file keeps its permissions."""
+    mode = (path.stat().st_mode & 0o7777) if path.exists() else 0o644
     fd, tmp = tempfile.mkstemp(prefix="." + path.name + ".", suffix=".partial", dir=path.parent)
     try:
         with os.fdopen(fd, "wb") as f:
             f.write(data)
             f.flush()
             os.fsync(f.fileno())
+        os.chmod(tmp, mode)
         os.replace(tmp, path)
     except BaseException:
         try:
