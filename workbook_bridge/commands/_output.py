@@ -11,12 +11,13 @@ from pathlib import Path
 
 from twistshare.engine.errors import BookUnusable
 
-from ..ooxml import BookWriter, backup_path, inspect_package
+from ..ooxml import check_output_name, check_output_place, inspect_package, keep_previous, write_book
 from ..reading import MAX_TABLE_ROWS, OpenBook, open_book
 from ..sheets import RESULT_SHEET_PREFIX
 
 __all__ = ["EXIT_OK", "EXIT_PART_ERRORS", "EXIT_UNUSABLE", "say", "fail", "prepare", "refuse_rated_book",
            "check_output_place", "keep_previous", "write_book", "check_output_name", "open_for_rating"]
+
 
 EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
 
@@ -56,55 +57,6 @@ def refuse_rated_book(info, path: Path) -> None:
             f"{path.name} already holds twistshare's sheets ({', '.join(ours[:4])}) from an earlier run: "
             "rate the original book instead (after --in-place, its backup BOOK.xlsx.bak-...), or delete "
             "those sheets and our comments first")
-
-
-def check_output_place(out: Path) -> None:
-    """Fail early, in words, where the output cannot be written."""
-    folder = out.parent if str(out.parent) else Path(".")
-    if not folder.exists():
-        raise BookUnusable(f"cannot write {out}: the folder {folder} does not exist")
-    if not folder.is_dir():
-        raise BookUnusable(f"cannot write {out}: {folder} is not a folder")
-    if not os.access(folder, os.W_OK):
-        raise BookUnusable(f"cannot write {out}: the folder {folder} is not writable")
-    if out.is_dir():
-        raise BookUnusable(f"cannot write {out}: it is a folder")
-
-
-def keep_previous(out: Path, in_place: bool) -> str | None:
-    """An existing file under the output name is kept as a timestamped backup, never lost."""
-    if in_place or not out.exists():
-        return None
-    backup = backup_path(str(out))
-    shutil.copy2(out, backup)
-    return backup
-
-
-def write_book(writer: BookWriter, out: Path, in_place: bool) -> str | None:
-    """Write the output, keeping any file already there; OS errors become one clear line."""
-    try:
-        previous = keep_previous(out, in_place)
-        writer.write(out, in_place=in_place)
-    except OSError as exc:
-        reason = {errno.ENOSPC: "the disk is full", errno.EACCES: "permission denied",
-                  errno.EROFS: "the folder is read-only", errno.ENOENT: "the folder does not exist"}.get(
-                      exc.errno, exc.strerror or str(exc))
-        raise BookUnusable(f"cannot write {out}: {reason}; nothing was written") from None
-    return previous
-
-
-def check_output_name(info, out: Path) -> None:
-    """Refuse an output name whose extension would make a spreadsheet program refuse the file."""
-    macro = bool(getattr(info, "macro_enabled", False))
-    ext = out.suffix.lower()
-    if macro and ext != ".xlsm":
-        raise BookUnusable(f"{out.name}: the book holds macros, so the copy must keep them under an .xlsm "
-                           f"name (Excel refuses a macro book named {ext or 'without an extension'}): "
-                           f"use -o {out.with_suffix('.xlsm').name}")
-    if not macro and ext not in (".xlsx", ".xlsm"):
-        raise BookUnusable(f"{out.name}: the output must be named .xlsx")
-    if not macro and ext == ".xlsm":
-        raise BookUnusable(f"{out.name}: the book holds no macros: name the output .xlsx")
 
 
 def open_for_rating(book_path: Path, out: Path):

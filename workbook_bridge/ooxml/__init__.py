@@ -9,6 +9,7 @@ from ._cells import Cell
 from ._charts import BarChart, ScatterChart, SeriesData, range_ref
 from ._errors import OoxmlError, PackageRefused, WriteRefused
 from ._naming import backup_path
+from ._output_place import check_output_name, check_output_place, keep_previous, write_book
 from ._package import Limits
 from ._safety import HUGE_ROWS, DefinedName, ExternalLink, PackageInfo, SheetInfo, TableInfo, inspect_package
 from ._styles import STYLE_NAMES
@@ -18,5 +19,5 @@ __all__ = [
     "BarChart", "BookWriter", "Cell", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
     "OoxmlError", "PackageInfo", "PackageRefused", "STYLE_NAMES", "ScatterChart", "SeriesData",
     "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
-    "backup_path", "range_ref",
+    "backup_path", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
 ]

@@ -1,0 +1,39 @@
+"""LibreOffice Calc as a second spreadsheet host for the cell functions, and headless recalculation.
+
+- `setup_profile` puts the ``TWS_...`` functions into a LibreOffice user profile: Basic wrappers
+  in its Standard library and a Python bridge in its Scripts folder, both generated from the one
+  list of functions (`_specs._function_specs`); ``undo=True`` takes out exactly that.
+- `recalculate` recomputes every formula of a book in headless LibreOffice on a private profile
+  and writes a copy whose formula cells hold the new values; the book is never touched.
+- `computed_values` gives the values of chosen cells after such a recalculation (for the
+  values-only copy), and which cells could not be computed.
+
+Run as ``python -m twistshare.workbook_bridge.hosts.calc setup|undo|recalc ...`` (see `main`).
+"""
+
+from importlib import import_module
+from typing import Any
+
+# Where each public name lives. Loaded on first use: LibreOffice's Python imports this package
+# on the way to the small `_runtime` module and should not pay for the rest.
+_PUBLIC = {
+    "setup_profile": "_setup", "recalculate": "_recalc", "computed_values": "_recalc", "main": "_cli",
+    "default_profile": "_profile", "SetupReport": "_profile", "RecalcReport": "_recalc",
+    "ComputedValues": "_recalc", "BookRefused": "_errors", "CalcHostError": "_errors",
+    "LibreOfficeMissing": "_errors", "LibreOfficeTimeout": "_errors", "LibreOfficeFailed": "_errors",
+    "ProfileRefused": "_errors",
+}
+
+__all__ = list(_PUBLIC)
+
+
+def __getattr__(name: str) -> Any:
+    if name not in _PUBLIC:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(import_module(f"{__name__}.{_PUBLIC[name]}"), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted([*globals(), *_PUBLIC])
