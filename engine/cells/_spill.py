@@ -103,14 +103,14 @@ def merge(*problem_lists: list[str | None]) -> list[str | None]:
     return merged
 
 
-def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None
-               ) -> tuple[Rating, list[str | None]]:
+def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,
+               inputs: dict[str, NDArray[np.float64]] | None = None) -> tuple[Rating, list[str | None]]:
     """Rate the block's parts; per part the message that stops it, or None.
 
     Order: problems reading the block, then the arguments' (`extra`), then the core's
     diagnoses, worded by the intake.
     """
-    rating = rate(block.stack(), duty)
+    rating = rate(block.stack(), duty, inputs={**block.parts.inputs, **(inputs or {})})
     problems = merge(list(block.problems), extra) if extra is not None else list(block.problems)
     unrated = [i for i, p in enumerate(problems) if p is None and not rating.valid[i]]
     if unrated:

@@ -1,16 +1,19 @@
 """The criteria a part is rated against, as a list: each gives its capacity, the least governs.
 
-A criterion is a small function of the `Section` (the stack, the duty and the section's
-stiffness) returning the section torque at which it is reached: per part ``(P,)`` or per layer
-slot ``(P, L)``, NaN where it does not apply to a slot, +inf where it sets no limit. Adding one
-is a function here (or in its own module), a `Criterion` member and a line in `CRITERIA`; the
-governing limit, the rating and every output pick it up from the list.
+A criterion is a small function of the `Section` (the stack, the duty, the section's stiffness
+and any further inputs by name) returning the section torque at which it is reached: per part
+``(P,)`` or per layer slot ``(P, L)``, NaN where it does not apply to a slot, +inf where it sets
+no limit (its inputs not given). Adding one is a function in its own module, a `Criterion`
+member, a line in `CRITERIA` and a words entry (`twistshare.engine.intake.CRITERION_WORDS`); the
+governing limit, the rating and every output pick it up from the list. A criterion's further
+inputs arrive in ``Section.inputs`` under the keys the intake's schema reads them into
+(``rate(stack, duty, inputs={...})``); a key not given means the criterion sets no limit.
 """
 
 from __future__ import annotations
 
-from collections.abc import Callable, Sequence
-from dataclasses import dataclass
+from collections.abc import Callable, Mapping, Sequence
+from dataclasses import dataclass, field
 
 import numpy as np
 from numpy.typing import NDArray
@@ -33,6 +36,12 @@ class Section:
         NaN for parts that are not rated.
     unused : (P, L) ndarray of bool
         Absent slots and the slots of parts that are not rated.
+    layer_torque : (P, L) ndarray, N*m
+        Each layer's torque at the applied torque.
+    stress_outer, stress_inner : (P, L) ndarray, Pa
+        Nominal shear stress at each layer's radii at the applied torque.
+    inputs : mapping of str to ndarray
+        Further inputs by name, ``(P,)`` or ``(P, L)``, SI; NaN where not given.
     """
 
     stack: object
@@ -40,6 +49,19 @@ class Section:
     gj: NDArray[np.float64]
     sum_gj: NDArray[np.float64]
     unused: NDArray[np.bool_]
+    layer_torque: NDArray[np.float64] | None = None
+    stress_outer: NDArray[np.float64] | None = None
+    stress_inner: NDArray[np.float64] | None = None
+    inputs: Mapping[str, NDArray[np.float64]] = field(default_factory=dict)
+
+    def input(self, key: str, per_layer: bool = False) -> NDArray[np.float64] | None:
+        """A further input by name, or None where the caller gave none."""
+        value = self.inputs.get(key)
+        if value is None:
+            return None
+        value = np.asarray(value, dtype=float)
+        shape = self.gj.shape if per_layer else self.sum_gj.shape
+        return np.broadcast_to(value, shape)
 
 
 @dataclass(frozen=True)

@@ -347,6 +347,7 @@ def rate(
     stack: LayerStack,
     duty: Duty,
     *,
+    inputs: Mapping[str, ArrayLike] | None = None,
     contact_abs_tol: float = DEFAULT_CONTACT_ABS_TOL,
     contact_rel_tol: float = DEFAULT_CONTACT_REL_TOL,
 ) -> Rating:
@@ -363,6 +364,9 @@ def rate(
         P parts of L layer slots.
     duty : Duty
         P parts, or one duty applied to every part.
+    inputs : mapping of str to array_like, optional
+        Further inputs of the criteria beyond torsion, by name (see `CRITERIA`); ``(P,)`` or
+        ``(P, L)``, SI, NaN where not given. A criterion whose inputs are absent sets no limit.
     contact_abs_tol : float, m
         Absolute tolerance of the layer-contact check (default 0.01 mm).
     contact_rel_tol : float, 1
@@ -430,7 +434,8 @@ def rate(
             for array in (stress_outer, stress_inner):
                 np.copyto(array, nan, where=unused)
 
-        section = Section(stack, duty, gj, sum_gj, unused)
+        section = Section(stack, duty, gj, sum_gj, unused, layer_torque, stress_outer, stress_inner,
+                          MappingProxyType(dict(inputs or {})))
         capacities = {check.criterion: check.capacity(section) for check in CRITERIA}
         for code, values in capacities.items():
             if invalid is not None and values.ndim == 1:

@@ -167,7 +167,7 @@ def rate_tables(book: TableSource) -> BookRating:
     ok = ~parts.input_error
     # Parts whose inputs are unusable still go to the engine with NaNs so shapes stay whole;
     # their results are discarded below and their problems come from the cells.
-    rating = rate(parts.stack(), parts.duty())
+    rating = rate(parts.stack(), parts.duty(), inputs=parts.inputs)
     result.rating = rating
     findings.extend(problems_from_rating(rating, parts, ok))
     result.rated = ok & np.asarray(rating.valid, dtype=bool)

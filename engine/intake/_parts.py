@@ -7,7 +7,7 @@ small table. Materials are looked up once per distinct name.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
@@ -54,6 +54,8 @@ class PartsInput:
     # A row-per-layer table's data rows: the part and slot each became (-1: none).
     source_part: np.ndarray | None = None
     source_slot: np.ndarray | None = None
+    # Further inputs of the criteria beyond torsion, by the keys `rate(..., inputs=)` takes.
+    inputs: dict[str, np.ndarray] = field(default_factory=dict)
 
     @property
     def count(self) -> int:

@@ -31,7 +31,8 @@ def test_all_resolves_without_duplicates():
 
 def test_rate_signature():
     parameters = inspect.signature(core.rate).parameters
-    assert list(parameters) == ["stack", "duty", "contact_abs_tol", "contact_rel_tol"]
+    assert list(parameters) == ["stack", "duty", "inputs", "contact_abs_tol", "contact_rel_tol"]
+    assert parameters["inputs"].kind is inspect.Parameter.KEYWORD_ONLY
     assert parameters["contact_abs_tol"].default == 1e-5
     assert parameters["contact_rel_tol"].default == 2e-4
     assert parameters["contact_abs_tol"].kind is inspect.Parameter.KEYWORD_ONLY

@@ -23,6 +23,9 @@ __all__ = ["READING_THE_RESULTS", "results_rows", "lowest_margins", "criterion_c
 
 RESULTS_SHEET = "Twistshare results"
 
+# The three torsion criteria have columns of their own above; any other gets a capacity column.
+_TORSION = frozenset({Criterion.LAYER_STRESS, Criterion.TWIST_ANGLE, Criterion.TWIST_PER_LENGTH})
+
 READING_THE_RESULTS = (
     "Governing limit: the section torque at which the first criterion is reached (a layer's allowable "
     "shear stress with its Kt, or a twist limit); margin = limit / demand − 1.",
@@ -71,6 +74,12 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
             f"L{n} torque [{tu}]", f"L{n} nominal stress at outer [{su}]", f"L{n} nominal stress at inner [{su}]",
             f"L{n} capacity (section torque) [{tu}]", f"L{n} utilisation with Kt [%]",
         ]
+    # Every criterion beyond torsion that some part was rated against: one capacity column each
+    # (the smallest over the layers for a criterion per layer), in the words of what governs.
+    further = [] if r is None else [
+        (c, values) for c, values in r.criterion_capacity.items()
+        if c not in _TORSION and np.isfinite(np.asarray(values, dtype=float)).any()]
+    header += [f"Capacity: {CRITERION_NOUNS[c]} [{tu}]" for c, _ in further]
     header.append("First problem")
     rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)
     nan = np.full(P, np.nan)
@@ -114,11 +123,17 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
             _column(si[:, j], keep), _column(lcap[:, j], keep),
             [Styled(u, "fail+fixed1") if o else u for u, o in zip(_column(util[:, j], keep), over.tolist())],
         ]
+    for _, values in further:
+        values = np.asarray(values, dtype=float)
+        with np.errstate(all="ignore"):
+            per_part = np.nanmin(np.where(np.isnan(values), np.inf, values), axis=1) if values.ndim == 2 else values
+        cols.append(_column(np.where(np.isinf(per_part), np.nan, per_part) / tf, rated))
     cols.append(errors)
     rows = itertools.chain([[Styled(h, "header") for h in header]], zip(*cols))
-    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [60]
+    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * len(further) + [60]
     styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
-              "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L
+              "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L \
+        + ["fixed1"] * len(further)
     return rows, widths, styles
 
 
