@@ -9,13 +9,10 @@ The files are reproducible byte for byte: fixed document timestamps, fixed zip m
 
 from __future__ import annotations
 
-import datetime as _dt
 import io
 import re
 import zipfile
-from dataclasses import dataclass
 from pathlib import Path
-from typing import Union
 
 from openpyxl import Workbook
 from openpyxl.styles import Alignment, Font, PatternFill
@@ -23,14 +20,6 @@ from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.worksheet import Worksheet
 
 from ._scenario import (  # the scenario's data, written here
-    CATALOGUE_FILE,
-    CATALOGUE_LONG_FILE,
-    CAUTIONS,
-    CELL_FUNCTIONS_FILE,
-    Cell,
-    LAYER_HEADERS,
-    MATERIAL_HEADERS,
-    PART_HEADERS,
     _AB,
     _AUTHOR,
     _FIXED_TIME,
@@ -38,12 +27,20 @@ from ._scenario import (  # the scenario's data, written here
     _LONG_REVERSED_PART,
     _MATERIAL_ROWS,
     _PARTS,
-    _Part,
     _Q2,
     _SS,
+    CATALOGUE_FILE,
+    CATALOGUE_LONG_FILE,
+    CAUTIONS,
+    CELL_FUNCTIONS_FILE,
+    LAYER_HEADERS,
+    MATERIAL_HEADERS,
+    PART_HEADERS,
+    Cell,
     _layer_cells,
     _long_layer_rows,
     _long_parts,
+    _Part,
     _part_cells,
     _wide_part_headers,
     planted_problems,

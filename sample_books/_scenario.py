@@ -11,7 +11,6 @@ from dataclasses import dataclass
 from typing import Union
 
 from openpyxl.utils import get_column_letter
-
 from twistshare.engine.intake import CAUTION_LINES
 
 CATALOGUE_FILE = "marrowby_catalogue.xlsx"

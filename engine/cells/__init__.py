@@ -31,7 +31,11 @@ from ._functions import (
 )
 from ._registry import CATEGORY, Argument, CellFunction, function_spec
 
-__all__ = [*_functions.__all__, "registry", "list_functions", "CellFunction", "Argument", "CATEGORY"]
+__all__ = [
+    "TWS_SHARE", "TWS_LAYER_CAPACITY", "TWS_GOVERNING_LIMIT", "TWS_GOVERNS", "TWS_STRESS", "TWS_STRESS_AT",
+    "TWS_TWIST_ANGLE", "TWS_TWIST_PER_LENGTH", "TWS_MARGIN", "TWS_TORQUE_FROM_POWER", "TWS_ALLOWABLE",
+    "registry", "list_functions", "CellFunction", "Argument", "CATEGORY",
+]
 
 
 def registry() -> tuple[CellFunction, ...]:

@@ -24,7 +24,6 @@ from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
-
 from twistshare.engine.intake import (
     LAYER_ROW_FIELDS,
     MATERIAL_FIELDS,
@@ -37,10 +36,10 @@ from twistshare.engine.intake import (
     locate_table,
     match_header,
     match_layer_group_header,
+    material_key,
     read_layer_table_parts,
     read_materials,
     read_parts,
-    material_key,
     stops,
     unknown_headers,
 )

@@ -16,7 +16,6 @@ from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
-
 from twistshare.engine.core import (
     AllowableRule,
     Duty,
@@ -28,8 +27,16 @@ from twistshare.engine.core import (
 from twistshare.engine.intake import field_by_key, governs_text
 from twistshare.engine.intake._allowable_rule import allowable_of
 
-from ._arguments import WARNING_SIGN, CellError, is_empty, read_field, read_flag, read_layer_number, read_rule, \
-    result_factor
+from ._arguments import (
+    WARNING_SIGN,
+    CellError,
+    is_empty,
+    read_field,
+    read_flag,
+    read_layer_number,
+    read_rule,
+    result_factor,
+)
 from ._blocks import Block, read_block
 from ._registry import Argument, cell_function
 from ._spill import merge, per_part, rate_block, spill_layers, spill_parts, unit_label

@@ -8,7 +8,6 @@ from typing import Any
 
 import numpy as np
 from numpy.typing import NDArray
-
 from twistshare.engine.core import Duty, Rating, rate
 from twistshare.engine.intake import Field, cell_value, describe_kind, header_factor, problems_from_rating, stops
 from twistshare.engine.intake._words import error_value_text

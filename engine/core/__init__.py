@@ -24,6 +24,7 @@ from ._allowables import (
     allowable_shear,
 )
 from ._bending import SectionBending, area_moment, section_area, section_bending
+from ._bond import bond_capacity, bond_inputs_ok, bond_shear, bond_torque_capacity
 from ._buckling import (
     BUCKLING_KNOCK_DOWN,
     SHORT_TUBE_Z,
@@ -35,8 +36,8 @@ from ._buckling import (
     tube_buckling_capacity,
     tube_buckling_stress,
 )
-from ._bond import bond_capacity, bond_inputs_ok, bond_shear, bond_torque_capacity
 from ._capacity import layer_capacity, twist_angle_capacity, twist_per_length_capacity
+from ._combined import CombinedStress, combined_capacity, combined_stress, equivalent_stress
 from ._compatibility import (
     layer_stiffness,
     shear_stress_at,
@@ -44,8 +45,8 @@ from ._compatibility import (
     torque_share,
     twist_per_length,
 )
-from ._combined import CombinedStress, combined_capacity, combined_stress, equivalent_stress
 from ._criteria import AllowableRule, Criterion
+from ._criteria_list import CRITERIA, CriterionCheck, Section, governing_of
 from ._demand import torque_from_power
 from ._diagnoses import (
     ALLOWABLE_ERRORS,
@@ -63,18 +64,6 @@ from ._diagnoses import (
     is_error,
     split_flags,
 )
-from ._criteria_list import CRITERIA, CriterionCheck, Section, governing_of
-from ._governing import governing_limit, margin, reserve_factor
-
-from ._laminate import (
-    LaminateModuli,
-    PlySet,
-    laminate_moduli,
-    ply_flags,
-    ply_library,
-    reduced_stiffness,
-    transformed_stiffness,
-)
 from ._fits import (
     FRICTION_GUIDANCE,
     FRICTION_GUIDANCE_SOURCE,
@@ -89,8 +78,17 @@ from ._fits import (
     slip_capacity,
     slip_torque,
 )
-
+from ._governing import governing_limit, margin, reserve_factor
 from ._interfaces import InterfaceRating, rate_interfaces
+from ._laminate import (
+    LaminateModuli,
+    PlySet,
+    laminate_moduli,
+    ply_flags,
+    ply_library,
+    reduced_stiffness,
+    transformed_stiffness,
+)
 from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share, interface_torque
 from ._materials import (
     Material,
@@ -100,7 +98,6 @@ from ._materials import (
     material_library,
     normalise_name,
 )
-from ._radius import RadiusPlace, layer_at_radius
 from ._plastic import (
     PlasticReserve,
     fully_plastic_torque,
@@ -110,15 +107,9 @@ from ._plastic import (
     twist_per_length_at_torque,
 )
 from ._plastic_unloading import permanent_twist, residual_stress_profile
+from ._radius import RadiusPlace, layer_at_radius
 from ._rating import Duty, Rating, rate
 from ._restoring import RestoreResult, restore_sleeve
-from ._shafting_code import (
-    SHAFTING_CODE_SHOCK_FATIGUE_FACTORS,
-    ShockFatigueFactors,
-    shafting_code_capacity,
-    shafting_code_diameter,
-    shafting_code_shear_stress,
-)
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -126,6 +117,13 @@ from ._section import (
     interface_gaps,
     polar_moment,
     shear_modulus_from_elastic,
+)
+from ._shafting_code import (
+    SHAFTING_CODE_SHOCK_FATIGUE_FACTORS,
+    ShockFatigueFactors,
+    shafting_code_capacity,
+    shafting_code_diameter,
+    shafting_code_shear_stress,
 )
 from ._sizing import (
     DEFAULT_SIZE_TOL,
@@ -137,6 +135,15 @@ from ._sizing import (
     sizing_slot,
     solve_dimension,
 )
+from ._sleeve_diagnoses import (
+    INTERFACE_ERRORS,
+    PLASTIC_ERRORS,
+    InterfaceFlag,
+    PlasticFlag,
+    describe_sleeve_flag,
+    has_sleeve_error,
+)
+from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
 from ._stock import StockResult, StockStatus, round_up_to_stock
 from ._whirl import (
     WHIRL_SPEED_RATIO_LIMIT,
@@ -149,15 +156,6 @@ from ._whirl import (
     whirl_gate_capacity,
     whirl_reserve,
 )
-from ._sleeve_diagnoses import (
-    INTERFACE_ERRORS,
-    PLASTIC_ERRORS,
-    InterfaceFlag,
-    PlasticFlag,
-    describe_sleeve_flag,
-    has_sleeve_error,
-)
-from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
 
 __all__ = [
     # enumerations and diagnoses

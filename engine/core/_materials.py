@@ -8,12 +8,11 @@ certificate and the applicable standard.
 
 from __future__ import annotations
 
-from functools import lru_cache
-
 import math
 import re
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
+from functools import lru_cache
 from types import MappingProxyType
 
 __all__ = ["Material", "material_library", "find_material", "normalise_name", "is_steel",

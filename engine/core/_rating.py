@@ -11,8 +11,8 @@ from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_float, frozen_view
 from ._criteria import Criterion
-from ._diagnoses import LAYER_ERRORS, PART_ERRORS, LayerFlag, PartFlag
 from ._criteria_list import CRITERIA, Section, governing_of
+from ._diagnoses import LAYER_ERRORS, PART_ERRORS, LayerFlag, PartFlag
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,
     DEFAULT_CONTACT_REL_TOL,
@@ -437,7 +437,7 @@ def rate(
         section = Section(stack, duty, gj, sum_gj, unused, layer_torque, stress_outer, stress_inner,
                           MappingProxyType(dict(inputs or {})))
         capacities = {check.criterion: check.capacity(section) for check in CRITERIA}
-        for code, values in capacities.items():
+        for values in capacities.values():
             if invalid is not None and values.ndim == 1:
                 values[invalid] = nan
         capacity = capacities[Criterion.LAYER_STRESS]

@@ -13,7 +13,6 @@ from pathlib import Path
 from typing import Protocol
 
 import numpy as np
-
 from twistshare.engine.core import Rating, rate
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.units import si_factor

@@ -6,15 +6,13 @@ A cell holding its own unit (``52 mm``) is parsed on its own and overrides the h
 
 from __future__ import annotations
 
-from types import MappingProxyType
-
 import datetime as _dt
 import math
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
+from types import MappingProxyType
 
 import numpy as np
-
 from twistshare.engine.units import UnitProblem, parse_value, si_factor
 
 from ._grid import SheetGrid, cell_ref

@@ -7,7 +7,6 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-
 from twistshare.engine.core import torque_from_power
 
 from ._cellrefs import CellRefs

@@ -5,13 +5,18 @@ from __future__ import annotations
 from types import MappingProxyType
 
 import numpy as np
+from twistshare.engine.core import (
+    DEFAULT_CONTACT_ABS_TOL,
+    DEFAULT_CONTACT_REL_TOL,
+    LayerFlag,
+    PartFlag,
+    Rating,
+    describe,
+)
 
-from twistshare.engine.core import (DEFAULT_CONTACT_ABS_TOL, DEFAULT_CONTACT_REL_TOL, LayerFlag, PartFlag, Rating,
-                                    describe)
-
+from ._parts import PartsInput
 from ._problems import Problem, Severity
 from ._wording import Display
-from ._parts import PartsInput
 from ._words import where_text
 
 __all__ = ["problems_from_rating"]

@@ -8,11 +8,9 @@ material's.
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, replace
 
 import numpy as np
-
 from twistshare.engine.units import UnitProblem, parse_value
 
 from ._cellrefs import CellRefs
@@ -295,7 +293,7 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     """
     rows = list(spot.data_rows)
     n_rows = len(rows)
-    pcol, lcol = spot.column("part"), spot.column("layer")
+    pcol = spot.column("part")
     keys, key_errors = keys or part_keys(grid, spot)
     if pcol is None:
         keys = [""] * n_rows

@@ -2,17 +2,12 @@
 
 from __future__ import annotations
 
-from types import MappingProxyType
-
 import math
 from dataclasses import dataclass, field, replace
 
 import numpy as np
-
 from twistshare.engine.core import (
-    AllowableFlag,
     AllowableRule,
-    allowable_flags,
     allowable_shear,
     complete_from_library,
     find_material,
@@ -26,7 +21,7 @@ from ._grid import SheetGrid, cell_ref, parse_ref
 from ._problems import Problem, Severity
 from ._schema import MATERIAL_FIELDS
 from ._tables import TableSpot
-from ._words import RULE_CHOICES, RULE_FORMULAS, material_key, rule_from_text
+from ._words import RULE_CHOICES, material_key, rule_from_text
 
 __all__ = ["ResolvedMaterial", "FilledCell", "MaterialSet", "read_materials"]
 

@@ -10,7 +10,6 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 
 import numpy as np
-
 from twistshare.engine.core import Duty, LayerStack
 from twistshare.engine.units import unit_system
 

@@ -9,6 +9,7 @@ from dataclasses import replace
 
 from twistshare.engine.units import split_header
 
+from ._columns import read_text
 from ._grid import SheetGrid, cell_ref, parse_ref
 from ._materials import MaterialSet
 from ._parts import PartsInput
@@ -16,7 +17,6 @@ from ._problems import Problem, Severity
 from ._schema import LAYER_FIELDS, split_layer_group
 from ._tables import TableSpot
 from ._words import header_key, material_key, quoted
-from ._columns import read_text
 
 __all__ = ["hidden_and_merged", "anchor_merged", "unknown_headers", "refuse_conflicting_materials",
            "refuse_conflicting_parts"]

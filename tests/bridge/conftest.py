@@ -150,7 +150,7 @@ def build_rich(path: Path, macro: bool = False) -> Path:
         wb_rels = zf.read("xl/_rels/workbook.xml.rels").decode()
         ct = zf.read("[Content_Types].xml").decode()
         pictures = zf.read(sheets["Pictures"]).decode()
-        pivot = zf.read(sheets["Pivot"]).decode()
+        zf.read(sheets["Pivot"])  # the pivot sheet must be there
         parts_xml = zf.read(sheets["Parts"]).decode()
     replace, add = {}, {}
     # Image on "Pictures".

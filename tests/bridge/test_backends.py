@@ -11,11 +11,10 @@ import io
 from pathlib import Path
 
 import openpyxl
-
+from twistshare.workbook_bridge.commands import main
 from twistshare.workbook_bridge.commands._progress import Progress
 from twistshare.workbook_bridge.hosts import validate_and_comment
 from twistshare.workbook_bridge.hosts.xlwings_book import _MARK, XlwingsBook
-from twistshare.workbook_bridge.commands import main
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 

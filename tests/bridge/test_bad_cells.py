@@ -18,15 +18,12 @@ import io
 import math
 from pathlib import Path
 
+import _bookmaker
 import pytest
 from hypothesis import HealthCheck, Phase, given, settings
 from hypothesis import strategies as st
-
 from twistshare.engine.core import find_material
 from twistshare.workbook_bridge.commands import main
-
-import _bookmaker
-
 
 bm = _bookmaker  # the book builder shared by the bad-input tests (tests/bridge on pythonpath)
 Case, ErrorValue, RawNumber = bm.Case, bm.ErrorValue, bm.RawNumber
@@ -637,7 +634,7 @@ def _inner_ge_outer(draw):
 _KNOWN = {CORE.lower(), SLEEVE.lower()}
 _NAME = st.text(alphabet=st.sampled_from("abcdefghijklmnopqrstuvwxyz ABCDEFXYZ0123456789-/()"),
                 min_size=1, max_size=24).filter(
-    lambda s: s.strip() and not s.strip()[0] in "=+-" and " ".join(s.lower().split()) not in _KNOWN
+    lambda s: s.strip() and s.strip()[0] not in "=+-" and " ".join(s.lower().split()) not in _KNOWN
     and find_material(s) is None)
 
 

@@ -25,7 +25,6 @@ import numpy as np
 import openpyxl
 import pytest
 from openpyxl.worksheet.formula import ArrayFormula
-
 from twistshare.engine import cells
 from twistshare.workbook_bridge.hosts import calc as calc_host
 from twistshare.workbook_bridge.hosts.calc import _office, _profile, _recalc

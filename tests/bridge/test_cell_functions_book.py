@@ -15,9 +15,8 @@ from pathlib import Path
 import numpy as np
 import openpyxl
 import pytest
-
-from twistshare.engine.core import Duty, LayerStack, find_material, rate
 from twistshare.engine.cells import list_functions
+from twistshare.engine.core import Duty, LayerStack, find_material, rate
 from twistshare.workbook_bridge.commands import main
 
 ROOT = Path(__file__).resolve().parents[2]

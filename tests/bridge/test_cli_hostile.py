@@ -20,12 +20,10 @@ import sys
 import zipfile
 from pathlib import Path
 
-import pytest
-
-from twistshare.workbook_bridge.reading import MAX_TABLE_ROWS
-from twistshare.workbook_bridge.commands import main
-
 import _bookmaker
+import pytest
+from twistshare.workbook_bridge.commands import main
+from twistshare.workbook_bridge.reading import MAX_TABLE_ROWS
 
 CONSOLE = Path(sys.executable).with_name("twistshare")
 

@@ -8,7 +8,6 @@ from pathlib import Path
 
 import openpyxl
 import pytest
-
 from twistshare.workbook_bridge.commands import main
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"

@@ -1,10 +1,13 @@
 """Finding and evaluating formulas that call our cell functions."""
 
 import pytest
-
-from twistshare.workbook_bridge.commands._formula_eval import (
-    NotEvaluable, evaluate_formula, find_our_formulas, shift_formula)
 from twistshare.engine.intake import SheetGrid
+from twistshare.workbook_bridge.commands._formula_eval import (
+    NotEvaluable,
+    evaluate_formula,
+    find_our_formulas,
+    shift_formula,
+)
 
 NAMES = frozenset({"TWS_ECHO", "TWS_SUM"})
 

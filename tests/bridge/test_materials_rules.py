@@ -13,7 +13,6 @@ from pathlib import Path
 
 import openpyxl
 import pytest
-
 from twistshare.engine.core import AllowableRule, find_material
 from twistshare.engine.intake import rate_tables as rate_open_book
 from twistshare.workbook_bridge.commands._output import prepare

@@ -5,7 +5,6 @@ from __future__ import annotations
 import xml.etree.ElementTree as ET
 
 import pytest
-
 from twistshare.workbook_bridge.ooxml import BarChart, BookWriter, ScatterChart, SeriesData, WriteRefused, range_ref
 
 C = "{http://schemas.openxmlformats.org/drawingml/2006/chart}"

@@ -6,7 +6,6 @@ import re
 import xml.etree.ElementTree as ET
 
 import pytest
-
 from twistshare.workbook_bridge.ooxml import BookWriter, WriteRefused
 
 MAIN = "{http://schemas.openxmlformats.org/spreadsheetml/2006/main}"
@@ -101,7 +100,7 @@ class TestNewComments:
         with BookWriter(ooxml_plain_book) as book:
             book.add_comments("Locked", many)
             book.add_comments("Parts", {"A5": "one more"})
-            report = book.write(out)
+            book.write(out)
         after = ooxml_kit.members(out)
         ids = []
         for name, data in after.items():

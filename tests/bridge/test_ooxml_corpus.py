@@ -6,9 +6,7 @@ import shutil
 import subprocess
 
 import pytest
-
-from twistshare.workbook_bridge.ooxml import (BarChart, BookWriter, Cell, ScatterChart, SeriesData,
-                                              inspect_package)
+from twistshare.workbook_bridge.ooxml import BarChart, BookWriter, Cell, ScatterChart, SeriesData, inspect_package
 
 CAUTION = ("Preliminary design aid. Verify against the applicable codes and standards and have a "
            "qualified engineer review the results; local codes and licensed practice prevail.")

@@ -6,7 +6,6 @@ import hashlib
 
 import openpyxl
 import pytest
-
 from twistshare.workbook_bridge.ooxml import BookWriter, Cell, WriteRefused
 
 

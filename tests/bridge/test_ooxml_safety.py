@@ -8,8 +8,7 @@ import tracemalloc
 import zipfile
 
 import pytest
-
-from twistshare.workbook_bridge.ooxml import (BookWriter, Limits, PackageRefused, inspect_package)
+from twistshare.workbook_bridge.ooxml import BookWriter, Limits, PackageRefused, inspect_package
 
 
 def _refused(path, match, **kwargs) -> PackageRefused:

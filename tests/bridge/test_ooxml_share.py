@@ -6,7 +6,6 @@ import re
 import zipfile
 
 import pytest
-
 from twistshare.workbook_bridge.ooxml import BookWriter, WriteRefused
 
 

@@ -7,7 +7,6 @@ import re
 import zipfile
 
 import pytest
-
 from twistshare.workbook_bridge.ooxml import STYLE_NAMES, BookWriter, Cell, WriteRefused
 
 

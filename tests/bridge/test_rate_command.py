@@ -17,7 +17,6 @@ from pathlib import Path
 import numpy as np
 import openpyxl
 import pytest
-
 from twistshare.engine.core import AllowableRule, Duty, LayerStack, allowable_shear, find_material, rate
 from twistshare.engine.units import UnitProblem, parse_value, split_header
 from twistshare.sample_books import planted_problems

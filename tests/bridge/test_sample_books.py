@@ -11,7 +11,6 @@ from pathlib import Path
 import openpyxl
 import pytest
 from openpyxl.worksheet.formula import ArrayFormula
-
 from twistshare.engine.core import material_library
 from twistshare.engine.units import parse_value
 from twistshare.sample_books import _builder as sb

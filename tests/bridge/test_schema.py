@@ -1,9 +1,13 @@
 """Header recognition of the workbook convention (DEVELOPERS.md, 'Workbook convention')."""
 
 import pytest
-
 from twistshare.engine.intake._schema import (
-    LAYER_FIELDS, MATERIAL_FIELDS, PART_FIELDS, match_header, match_layer_group_header)
+    LAYER_FIELDS,
+    MATERIAL_FIELDS,
+    PART_FIELDS,
+    match_header,
+    match_layer_group_header,
+)
 
 
 class TestMatchHeader:

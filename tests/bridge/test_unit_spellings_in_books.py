@@ -18,12 +18,9 @@ from __future__ import annotations
 import math
 from pathlib import Path
 
-import pytest
-
-from twistshare.workbook_bridge.commands import main
-
 import _bookmaker
-
+import pytest
+from twistshare.workbook_bridge.commands import main
 
 bm = _bookmaker  # the book builder shared by the bad-input tests (tests/bridge on pythonpath)
 Case = bm.Case

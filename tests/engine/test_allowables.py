@@ -6,7 +6,6 @@ import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
-
 from twistshare.engine.core import (
     ALLOWABLE_ERRORS,
     AllowableFlag,

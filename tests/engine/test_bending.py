@@ -5,10 +5,9 @@ import math
 
 import numpy as np
 import pytest
+import twistshare.engine.core._bending as bending_module
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
-import twistshare.engine.core._bending as bending_module
 from twistshare.engine.core import LoadFlag, area_moment, section_area, section_bending
 
 SETTINGS = settings(max_examples=100, deadline=None, database=None,

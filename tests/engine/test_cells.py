@@ -16,7 +16,6 @@ import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
-
 from twistshare.engine import cells
 from twistshare.engine.cells import (
     TWS_ALLOWABLE,

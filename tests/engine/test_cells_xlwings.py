@@ -19,10 +19,9 @@ import types
 from pathlib import Path
 
 import pytest
-import xlwings
-
 import twistshare.engine.cells as cells
 import twistshare.engine.cells.hosts.xlwings_udfs as udf_host
+import xlwings
 
 HOST_FILE = Path(udf_host.__file__)
 UDF_MODULE = "twistshare.engine.cells.hosts.xlwings_udfs"

@@ -5,7 +5,6 @@ import importlib
 import inspect
 
 import pytest
-
 import twistshare.engine.core as core
 
 CONTRACT = [

@@ -5,7 +5,6 @@ import math
 import numpy as np
 import pint
 import pytest
-
 from twistshare.engine.core import torque_from_power
 
 # NIST SP 811 (Guide for the Use of the SI), conversion factors: both follow from the

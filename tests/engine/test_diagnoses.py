@@ -4,7 +4,6 @@ import math
 
 import numpy as np
 import pytest
-
 from twistshare.engine.core import (
     LAYER_ERRORS,
     PART_ERRORS,

@@ -6,16 +6,15 @@ import math
 
 import numpy as np
 import pytest
+import twistshare.engine.core._fits as fits_module
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
-import twistshare.engine.core._fits as fits_module
 from twistshare.engine.core import (
     FRICTION_GUIDANCE,
     FRICTION_GUIDANCE_SOURCE,
     combined_stress_capacity,
-    fit_equivalent_stress,
     find_material,
+    fit_equivalent_stress,
     fit_hoop_stresses,
     fit_pressure,
     interference_at_temperature,

@@ -2,7 +2,6 @@
 
 import numpy as np
 import pytest
-
 from twistshare.engine.core import Criterion, governing_limit, margin, reserve_factor
 
 INF = np.inf

@@ -6,19 +6,18 @@ import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
 from twistshare.engine.core import (
     INTERFACE_ERRORS,
     PLASTIC_ERRORS,
     Duty,
     InterfaceFlag,
-    PlasticFlag,
-    describe_sleeve_flag,
-    has_sleeve_error,
     LayerStack,
     LoadPath,
+    PlasticFlag,
     combined_stress_capacity,
+    describe_sleeve_flag,
     fit_pressure,
+    has_sleeve_error,
     rate,
     rate_interfaces,
 )

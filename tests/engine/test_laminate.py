@@ -6,10 +6,9 @@ import math
 
 import numpy as np
 import pytest
+import twistshare.engine.core._laminate as laminate_module
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
-import twistshare.engine.core._laminate as laminate_module
 from twistshare.engine.core import (
     PlyFlag,
     PlySet,

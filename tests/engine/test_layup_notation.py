@@ -4,10 +4,9 @@ Daniel and Ishai, Engineering Mechanics of Composite Materials; from memory) rea
 import doctest
 
 import pytest
+import twistshare.engine.layup_notation as notation
 from hypothesis import given, settings
 from hypothesis import strategies as st
-
-import twistshare.engine.layup_notation as notation
 from twistshare.engine.layup_notation import LayupNotationError, parse_layup
 
 

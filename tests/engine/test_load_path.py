@@ -4,10 +4,9 @@ import doctest
 
 import numpy as np
 import pytest
+import twistshare.engine.core._load_path as load_path_module
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
-import twistshare.engine.core._load_path as load_path_module
 from twistshare.engine.core import (
     DEFAULT_LOAD_PATH,
     Duty,

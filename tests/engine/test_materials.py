@@ -4,7 +4,6 @@ import dataclasses
 import math
 
 import pytest
-
 from twistshare.engine.core import (
     Material,
     complete_from_library,

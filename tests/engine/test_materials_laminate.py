@@ -10,7 +10,6 @@ import math
 
 import numpy as np
 import pytest
-
 from twistshare.engine.core import material_library
 
 E1, E2, G12, NU12 = 135e9, 10e9, 5e9, 0.3  # typical standard-modulus carbon/epoxy ply (from memory)

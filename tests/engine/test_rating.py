@@ -5,7 +5,6 @@ import math
 
 import numpy as np
 import pytest
-
 from twistshare.engine.core import AllowableRule, Criterion, Duty, LayerStack, Rating, rate
 
 

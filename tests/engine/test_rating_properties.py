@@ -4,7 +4,6 @@ import numpy as np
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
 from twistshare.engine.core import Duty, LayerStack, rate
 
 SETTINGS = settings(max_examples=150, deadline=None, database=None,

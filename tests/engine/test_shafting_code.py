@@ -5,7 +5,6 @@ import math
 
 import numpy as np
 import pytest
-
 import twistshare.engine.core._shafting_code as code_module
 from twistshare.engine.core import (
     SHAFTING_CODE_SHOCK_FATIGUE_FACTORS,

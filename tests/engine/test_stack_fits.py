@@ -5,10 +5,9 @@ import math
 
 import numpy as np
 import pytest
+import twistshare.engine.core._stack_fits as stack_fits_module
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-
-import twistshare.engine.core._stack_fits as stack_fits_module
 from twistshare.engine.core import (
     combined_stress_capacity,
     fit_hoop_stresses,

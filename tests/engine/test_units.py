@@ -19,7 +19,6 @@ import pint
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
-
 from twistshare.engine import units
 from twistshare.engine.units import (
     KINDS,

@@ -23,7 +23,6 @@ import time
 
 import numpy as np
 from bench_engine import random_parts  # same folder: the parts bench_engine.py rates
-
 from twistshare.engine.core import (
     AllowableRule,
     EndSupport,

@@ -37,7 +37,6 @@ import time
 from pathlib import Path
 
 import openpyxl
-
 from twistshare.engine import cells
 from twistshare.workbook_bridge.hosts.calc import recalculate
 

@@ -22,7 +22,6 @@ import time
 import tracemalloc
 
 import numpy as np
-
 from twistshare.engine.core import Duty, LayerStack, rate
 
 

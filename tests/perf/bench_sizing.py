@@ -22,7 +22,6 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 from bench_engine import random_parts  # noqa: E402  (the helper sits beside this script)
-
 from twistshare.engine.core import (  # noqa: E402
     SizingStatus,
     rate,

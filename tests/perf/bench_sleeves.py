@@ -21,7 +21,6 @@ import time
 
 import numpy as np
 from bench_engine import random_parts
-
 from twistshare.engine.core import rate, rate_interfaces, torque_twist_curve
 
 

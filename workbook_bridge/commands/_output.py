@@ -3,9 +3,6 @@ and place, keeping what was there, writing atomically, and the exit codes."""
 
 from __future__ import annotations
 
-import errno
-import os
-import shutil
 import sys
 from pathlib import Path
 

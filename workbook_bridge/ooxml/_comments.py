@@ -6,11 +6,10 @@ our text is added after the user's text in the same comment.
 
 from __future__ import annotations
 
-from types import MappingProxyType
-
 import math
 import re
 import xml.etree.ElementTree as ET
+from types import MappingProxyType
 from typing import Mapping
 
 from ._opc import tag_attributes

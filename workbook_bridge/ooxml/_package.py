@@ -147,7 +147,7 @@ class Package:
                                         f"{lim.max_total_uncompressed:,} allowed (zip bomb?)")
         # Overlapping members (many directory entries sharing one compressed stream) are a bomb.
         spans = sorted((i.header_offset, i.header_offset + i.compress_size, i.filename) for i in infos)
-        for (a_start, a_end, a_name), (b_start, _, b_name) in zip(spans, spans[1:]):
+        for (_, a_end, a_name), (b_start, _, b_name) in zip(spans, spans[1:]):
             if b_start < a_end:
                 raise PackageRefused(shown, f"zip members {a_name!r} and {b_name!r} overlap (zip bomb?)")
         self.total_uncompressed = total

@@ -2,12 +2,11 @@
 
 from __future__ import annotations
 
-from types import MappingProxyType
-
 import os
 import re
 import xml.etree.ElementTree as ET
 from dataclasses import dataclass
+from types import MappingProxyType
 
 from ._errors import PackageRefused
 from ._opc import CT, RT, Relationship, parse_content_types, parse_rels, rels_path_of

@@ -6,10 +6,9 @@ user's cells refer to them by index); ours are appended and their new indexes ha
 
 from __future__ import annotations
 
-from types import MappingProxyType
-
 import re
 from dataclasses import dataclass, replace
+from types import MappingProxyType
 
 from ._xmltext import NS_MAIN, XML_DECL, escape_attr, find_element_span, root_prefix
 

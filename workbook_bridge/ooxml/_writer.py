@@ -29,19 +29,56 @@ from typing import Any, BinaryIO, Iterable, Mapping, Sequence
 
 from ._cells import Cell, stream_rows
 from ._charts import BarChart, ScatterChart, anchor_cell, chart_xml, drawing_xml, range_ref
-from ._comments import (SEPARATOR, comment_refs, merge_comments_part, merge_vml, new_comments_part,
-                        new_vml, vml_blocks, vml_note_cells)
+from ._comments import (
+    SEPARATOR,
+    comment_refs,
+    merge_comments_part,
+    merge_vml,
+    new_comments_part,
+    new_vml,
+    vml_blocks,
+    vml_note_cells,
+)
 from ._errors import PackageRefused, WriteRefused
 from ._naming import backup_path, free_part, unique_sheet_name
-from ._opc import (CT, RT, add_overrides, append_rels, new_rels, next_rel_id, parse_content_types, parse_rels,
-                   rels_path_of, relative_target, remove_overrides, remove_rels, tag_attributes)
+from ._opc import (
+    CT,
+    RT,
+    add_overrides,
+    append_rels,
+    new_rels,
+    next_rel_id,
+    parse_content_types,
+    parse_rels,
+    relative_target,
+    rels_path_of,
+    remove_overrides,
+    remove_rels,
+    tag_attributes,
+)
 from ._package import Limits, Package
 from ._safety import PackageInfo, SheetInfo, read_package_info
-from ._sheetxml import (StyledValue, insert_link_element, insert_missing_cells, relationship_prefix, replace_cells, sheet_head,
-                        sheet_tail)
+from ._sheetxml import (
+    StyledValue,
+    insert_link_element,
+    insert_missing_cells,
+    relationship_prefix,
+    replace_cells,
+    sheet_head,
+    sheet_tail,
+)
 from ._styles import MINIMAL_STYLES, StyleBook
-from ._xmltext import (NS_REL, column_letters, decode_xml, escape_attr, escape_text, find_element_span,
-                       iter_top_level, root_prefix, split_ref)
+from ._xmltext import (
+    NS_REL,
+    column_letters,
+    decode_xml,
+    escape_attr,
+    escape_text,
+    find_element_span,
+    iter_top_level,
+    root_prefix,
+    split_ref,
+)
 
 __all__ = ["BookWriter", "SheetHandle", "WriteReport"]
 

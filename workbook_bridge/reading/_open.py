@@ -3,18 +3,16 @@
 from __future__ import annotations
 
 import zipfile
+import zlib
 from dataclasses import dataclass
 from pathlib import Path
 
-import zlib
-
 import python_calamine as pc
-
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.intake import SheetGrid, TableRegion
 
-from ._sheet_extras import SheetExtras, sheet_extras
 from ..ooxml import Limits
+from ._sheet_extras import SheetExtras, sheet_extras
 
 __all__ = ["BookUnusable", "OpenBook", "open_book", "MAX_TABLE_ROWS"]
 

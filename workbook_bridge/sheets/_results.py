@@ -6,13 +6,10 @@ writer's named styles. Units sit in the headers, in the results' unit system.
 
 from __future__ import annotations
 
-from types import MappingProxyType
-
-import math
 import itertools
+import math
 
 import numpy as np
-
 from twistshare.engine.core import Criterion
 from twistshare.engine.intake import CRITERION_NOUNS, Display, governs_text
 from twistshare.engine.units import si_factor

@@ -7,7 +7,6 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-
 from twistshare.engine.core import stress_profile
 from twistshare.engine.intake import RULE_FORMULAS, Display, Problem, Severity, governs_text
 

@@ -16,7 +16,6 @@ from types import MappingProxyType
 from typing import Any
 
 import xlwings as xw
-
 from twistshare.engine.cells import CATEGORY, CellFunction, registry
 
 __all__ = [spec.name for spec in registry()] + ["com_error_text"]

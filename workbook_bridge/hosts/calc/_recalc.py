@@ -232,8 +232,8 @@ def recalculate(book: str | os.PathLike, out: str | os.PathLike, *, timeout: flo
     LibreOfficeMissing, LibreOfficeTimeout, LibreOfficeFailed, BookRefused
         With a one-line message; nothing was written.
     """
-    from twistshare.workbook_bridge.ooxml import check_output_name, check_output_place, keep_previous
     from twistshare.engine.errors import BookUnusable
+    from twistshare.workbook_bridge.ooxml import check_output_name, check_output_place, keep_previous
 
     book, out = Path(book), Path(out)
     info = _open(book)
