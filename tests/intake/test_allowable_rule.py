@@ -1,0 +1,67 @@
+"""The allowable a material gives by its rule — one decision for a materials row and TWS_ALLOWABLE.
+
+Rules (BRIEF §2): max shear (Tresca) 0.5·Sy/FS and distortion energy (von Mises) Sy/(√3·FS),
+textbook factors; the classic transmission-shafting code rule min(0.30·Sy, 0.18·Su), ×0.75 with
+a keyway, with its own allowance (no FS on top) — as quoted in machine-design texts, from memory.
+"""
+
+import math
+
+import pytest
+from twistshare.engine.core import AllowableRule
+from twistshare.engine.intake._allowable_rule import allowable_of
+
+NAN = math.nan
+MPA = 1e6
+
+
+@pytest.mark.parametrize("rule, sy, su, fs, keyway, expected", [
+    (AllowableRule.MAX_SHEAR, 300, NAN, 2, False, 0.5 * 300 / 2),
+    (AllowableRule.DISTORTION_ENERGY, 300, NAN, 2, False, 300 / (math.sqrt(3) * 2)),
+    (AllowableRule.SHAFTING_CODE, 300, 500, NAN, False, min(0.30 * 300, 0.18 * 500)),
+    (AllowableRule.SHAFTING_CODE, 300, 400, NAN, True, 0.75 * min(0.30 * 300, 0.18 * 400)),
+])
+def test_rules_give_the_textbook_values(rule, sy, su, fs, keyway, expected):
+    decision = allowable_of("MPD shaft steel", rule, NAN, sy * MPA, su * MPA, fs, keyway)
+    assert decision.missing is None and decision.notes == ()
+    assert decision.allowable == pytest.approx(expected * MPA, rel=1e-12)
+
+
+def test_no_rule_and_an_allowable_means_given():
+    decision = allowable_of("MPD bronze", None, 45 * MPA, NAN, NAN, NAN, False)
+    assert decision.rule is AllowableRule.GIVEN and decision.allowable == 45 * MPA
+
+
+def test_no_rule_for_a_steel_is_the_code_rule_stated_as_an_assumption():
+    decision = allowable_of("AISI 1045 hot rolled", None, NAN, 310 * MPA, 570 * MPA, NAN, False)
+    assert decision.rule is AllowableRule.SHAFTING_CODE
+    assert decision.allowable == pytest.approx(93 * MPA, rel=1e-12)
+    assert [n.assumed for n in decision.notes] == [True]
+
+
+def test_no_rule_for_a_bronze_gives_no_allowable():
+    decision = allowable_of("MPD bronze", None, NAN, 200 * MPA, 400 * MPA, NAN, False)
+    assert math.isnan(decision.allowable) and "rule for steel shafting" in decision.missing
+
+
+@pytest.mark.parametrize("rule, sy, su, fs, keyway, words", [
+    (AllowableRule.SHAFTING_CODE, 300, 500, 2, False, "factor of safety is not used"),
+    (AllowableRule.SHAFTING_CODE, 300, 500, 1, False, "factor of safety is not used"),  # any FS typed
+    (AllowableRule.MAX_SHEAR, 300, NAN, 2, True, "keyway is not used by this rule"),
+    (AllowableRule.MAX_SHEAR, 300, 200, 2, False, "ultimate strength is below the yield strength"),
+])
+def test_doubts_are_notes_beside_a_number(rule, sy, su, fs, keyway, words):
+    decision = allowable_of("MPD shaft steel", rule, NAN, sy * MPA, su * MPA, fs, keyway)
+    assert not math.isnan(decision.allowable)
+    assert any(words in n.message and not n.assumed for n in decision.notes), decision.notes
+
+
+@pytest.mark.parametrize("rule, sy, su, fs, missing", [
+    (AllowableRule.MAX_SHEAR, 300, NAN, NAN, "needs a factor of safety"),
+    (AllowableRule.SHAFTING_CODE, 300, NAN, NAN, "needs the ultimate strength"),
+    (AllowableRule.SHAFTING_CODE, NAN, NAN, NAN, "needs the yield strength and the ultimate strength"),
+    (AllowableRule.GIVEN, NAN, NAN, NAN, "no allowable shear stress"),
+])
+def test_missing_inputs_are_named(rule, sy, su, fs, missing):
+    decision = allowable_of(None, rule, NAN, sy * MPA, su * MPA, fs, False)
+    assert math.isnan(decision.allowable) and missing in decision.missing
