@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
-from twistshare.engine.units import UnitProblem, parse_value, si_factor
+from twistshare.engine.units import UnitProblem, describe_kind, parse_value, si_factor
 
 from ._grid import SheetGrid, cell_ref
 from ._problems import Problem, Severity
@@ -22,24 +22,6 @@ from ._words import QUOTE_MAX, error_value_text, flag_from_value, quoted
 
 __all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind", "quoted", "error_problem",
            "example_unit"]
-
-_KIND_WORDS = MappingProxyType({
-    "length": "a length",
-    "stress": "a stress or modulus",
-    "torque": "a torque",
-    "power": "a power",
-    "speed": "a rotational speed",
-    "angle": "an angle",
-    "angle_per_length": "an angle per length",
-    "density": "a density",
-    "dimensionless": "a plain number",
-})
-
-
-def describe_kind(kind: str) -> str:
-    """A few words for a unit kind: ``"a length"``."""
-    return _KIND_WORDS.get(kind, kind)
-
 
 def _fmt(x: float) -> str:
     return f"{x:.6g}"

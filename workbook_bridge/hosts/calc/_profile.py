@@ -20,10 +20,11 @@ import json
 import os
 import re
 import sys
-import tempfile
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
+
+from twistshare.workbook_bridge.ooxml import atomic_file
 
 from ._basic import MARKER, basic_module_xml
 from ._bridge import EngineLocation, bridge_source, engine_location
@@ -129,20 +130,8 @@ class SetupReport:
 def _write_atomic(path: Path, data: bytes) -> None:
     """Write a file through a temporary one beside it; an existing file keeps its permissions."""
     mode = (path.stat().st_mode & 0o7777) if path.exists() else 0o644
-    fd, tmp = tempfile.mkstemp(prefix="." + path.name + ".", suffix=".partial", dir=path.parent)
-    try:
-        with os.fdopen(fd, "wb") as f:
-            f.write(data)
-            f.flush()
-            os.fsync(f.fileno())
-        os.chmod(tmp, mode)
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except FileNotFoundError:
-            pass
-        raise
+    with atomic_file(path, mode) as f:
+        f.write(data)
 
 
 def _read_manifest(user: Path) -> dict:
