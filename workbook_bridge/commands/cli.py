@@ -1,7 +1,8 @@
 """The ``twistshare`` command: rate, check, handout, demo, functions.
 
 Exit codes: 0 every part rated; 1 some parts had errors (the output is still written);
-2 the input is unusable (nothing written), with a one-line reason.
+2 the input is unusable (nothing written), with a one-line reason; 3 (``rate --exit-if-failing``)
+every part rated, but some fail their demand.
 """
 
 from __future__ import annotations
@@ -48,6 +49,11 @@ def _parser() -> argparse.ArgumentParser:
                    help="unit system of the results (default: that of the book's parts table)")
     r.add_argument("--profile-part", default=None,
                    help="part whose shear stress across the radius is charted (default: the lowest margin)")
+    r.add_argument("--results", type=Path, default=None, metavar="FILE",
+                   help="also write every part's results for scripts: FILE.csv as CSV, any other name as JSON "
+                   "(the results sheet's headers, units and words)")
+    r.add_argument("--exit-if-failing", action="store_true",
+                   help="exit 3 when every input was read but some parts fail their demand (margin below 0)")
     book_command("check", "validate the tables only: warnings as comments in a copy, a report here",
                  "-checked")
     book_command("handout", "a values-only copy for people without the add-in: every formula calling a "
@@ -106,7 +112,8 @@ def _run(args: argparse.Namespace) -> int:
     out = args.book if args.in_place else (args.output or _default_output(args.book, suffix))
     if args.command == "rate":
         code = run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
-                        profile_part=args.profile_part)
+                        profile_part=args.profile_part, results_file=args.results,
+                        exit_if_failing=args.exit_if_failing, lenient=args.lenient)
     else:
         code = run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
     return EXIT_OK if (args.lenient and code == EXIT_PART_ERRORS) else code
