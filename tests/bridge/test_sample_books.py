@@ -430,7 +430,9 @@ def test_cell_functions_book_inputs_rate_as_a_hand_calculation():
 
 def test_a_part_id_names_one_part_across_the_sample_books():
     """The cell-functions book's shaft has an id of its own: the catalogue's ids name other parts."""
-    catalogue_ids = set(sb.sample_part_ids())
+    from twistshare.sample_books import sample_part_ids
+
+    catalogue_ids = set(sample_part_ids())
     ws_names = _load(SAMPLES / sb.CELL_FUNCTIONS_FILE).sheetnames
     shaft = next(name for name in ws_names if name.startswith("Shaft "))
     assert shaft.removeprefix("Shaft ") not in catalogue_ids
