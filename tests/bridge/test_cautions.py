@@ -6,7 +6,6 @@ from pathlib import Path
 
 import openpyxl
 import pytest
-
 from twistshare.engine.intake import CAUTION_LINES
 from twistshare.workbook_bridge.commands import main
 
