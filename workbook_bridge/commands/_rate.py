@@ -42,7 +42,7 @@ def _exit_code(result: BookRating) -> int:
 
 def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str = "book", quiet: bool = False,
              profile_part: str | None = None, results_file: Path | None = None, exit_if_failing: bool = False,
-             lenient: bool = False) -> int:
+             lenient: bool = False, worked: list[str] | None = None) -> int:
     """Rate every part of `book_path` and write the rated copy to `out`; the exit code."""
     progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
     try:
@@ -57,7 +57,7 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
     display = Display(result.system if units == "book" else units)
     try:
         with BookWriter(book_path) as writer:
-            add_rating_sheets(writer, result, display, profile_part)
+            add_rating_sheets(writer, result, display, profile_part, worked)
             write_comments(writer, result, result.problems)
             previous = write_book(writer, out, in_place)
     except (OoxmlError, BookUnusable) as exc:

@@ -49,6 +49,9 @@ def _parser() -> argparse.ArgumentParser:
                    help="unit system of the results (default: that of the book's parts table)")
     r.add_argument("--profile-part", default=None,
                    help="part whose shear stress across the radius is charted (default: the lowest margin)")
+    r.add_argument("--worked", action="append", default=None, metavar="PART",
+                   help="write a worked calculation sheet (native formulas a checker can audit) for this part; "
+                   "repeat for more (default: the part with the lowest margin)")
     r.add_argument("--results", type=Path, default=None, metavar="FILE",
                    help="also write every part's results for scripts: FILE.csv as CSV, any other name as JSON "
                    "(the results sheet's headers, units and words)")
@@ -113,7 +116,7 @@ def _run(args: argparse.Namespace) -> int:
     if args.command == "rate":
         code = run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
                         profile_part=args.profile_part, results_file=args.results,
-                        exit_if_failing=args.exit_if_failing, lenient=args.lenient)
+                        exit_if_failing=args.exit_if_failing, lenient=args.lenient, worked=args.worked)
     else:
         code = run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
     return EXIT_OK if (args.lenient and code == EXIT_PART_ERRORS) else code
