@@ -18,6 +18,7 @@ from pathlib import Path
 import numpy as np
 import openpyxl
 import pytest
+import test_calc_host
 from _bookmaker import read_output
 from openpyxl.worksheet.formula import ArrayFormula
 from test_calc_host import (
@@ -29,12 +30,14 @@ from test_calc_host import (
     _tagged_processes,
     make_book,
     needs_office,
-    office_env,  # noqa: F401  (a fixture: the private cache folder and the process tag)
 )
 from twistshare.engine import cells
 from twistshare.engine.core import Duty, LayerStack, rate
 from twistshare.workbook_bridge.commands import main as twistshare
 from twistshare.workbook_bridge.hosts.calc import _office
+
+# The Calc host tests' fixture: a private cache folder (profile templates) and a tag on every process started.
+office_env = test_calc_host.office_env
 
 # Two invented Marrowby Pump & Drive parts, a steel core in a bronze sleeve: one rated at a
 # torque, one at a power and speed. The same parts as a workbook (Materials, Parts) and as
@@ -130,7 +133,7 @@ def _engine(part):
 
 
 @pytest.fixture(scope="module")
-def every_function(office_env, tmp_path_factory):  # noqa: F811
+def every_function(office_env, tmp_path_factory):
     """One LibreOffice run (``twistshare recalc``, default output name) and one ``twistshare rate``."""
     folder = tmp_path_factory.mktemp("every")
     book = make_every_function_book(folder / "marrowby-every-function.xlsx")
