@@ -15,6 +15,7 @@ __all__ = ["run_demo"]
 
 
 def run_demo(directory: Path) -> int:
+    """Write the sample books into `directory`, keeping any different file already there."""
     from twistshare.sample_books import write_all
 
     if directory.exists() and not directory.is_dir():

@@ -38,6 +38,7 @@ class OfficeAnswer:
 
     @property
     def answered(self) -> bool:
+        """LibreOffice was there and recalculated the book."""
         return not self.missing and self.failure is None
 
 

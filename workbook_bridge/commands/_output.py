@@ -47,7 +47,7 @@ def prepare(path: Path) -> tuple[object, OpenBook]:
     return info, book
 
 
-def refuse_rated_book(info, path: Path) -> None:
+def refuse_rated_book(info: object, path: Path) -> None:
     """Rating a book we already rated would double our comments and sheets: refuse it."""
     ours = [s.name for s in info.sheets if s.name.startswith(RESULT_SHEET_PREFIX)]
     if ours:
@@ -57,7 +57,7 @@ def refuse_rated_book(info, path: Path) -> None:
             "those sheets and our comments first")
 
 
-def open_for_rating(book_path: Path, out: Path):
+def open_for_rating(book_path: Path, out: Path) -> OpenBook:
     """The checks both `rate` and `check` make before reading a table; raises with the reason."""
     info, book = prepare(book_path)
     refuse_rated_book(info, book_path)

@@ -56,7 +56,7 @@ def write_book(writer: BookWriter, out: Path, in_place: bool) -> str | None:
     return previous
 
 
-def check_output_name(info, out: Path) -> None:
+def check_output_name(info: object, out: Path) -> None:
     """Refuse an output name whose extension would make a spreadsheet program refuse the file."""
     macro = bool(getattr(info, "macro_enabled", False))
     ext = out.suffix.lower()

@@ -150,6 +150,7 @@ def office_environment(office: Office, extra: dict[str, str] | None = None) -> d
 
 
 def profile_url(profile: Path) -> str:
+    """The ``file://`` URL LibreOffice takes for a profile folder (-env:UserInstallation)."""
     return Path(profile).resolve().as_uri()
 
 

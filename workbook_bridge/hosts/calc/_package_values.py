@@ -39,6 +39,7 @@ class OfficeError:
 
     @property
     def value(self) -> str:
+        """The spreadsheet error text of this error code."""
         return _ERROR_VALUES.get(self.code, "#VALUE!")
 
     def __str__(self) -> str:

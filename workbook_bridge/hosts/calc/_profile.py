@@ -63,6 +63,7 @@ def profile_folder_for(platform: str, environ: Mapping[str, str], home: Path) ->
 
 
 def user_folder(profile: Path) -> Path:
+    """The profile's ``user`` folder, where Basic and Python scripts live."""
     return Path(profile) / "user"
 
 
@@ -81,6 +82,7 @@ class Installed:
     @classmethod
     def build(cls, specs: Iterable[HostFunction] | None = None,
               engine: EngineLocation | None = None) -> "Installed":
+        """What setup installs for these functions and this engine."""
         chosen = tuple(_function_specs() if specs is None else specs)
         return cls(basic_module_xml(chosen), bridge_source(chosen, engine or engine_location()))
 
@@ -108,6 +110,7 @@ class SetupReport:
 
     @property
     def changed(self) -> bool:
+        """Setup or undo changed the profile."""
         return bool(self.actions)
 
     def __str__(self) -> str:
