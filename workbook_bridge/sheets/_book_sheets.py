@@ -9,24 +9,30 @@ from ._charts import add_charts
 from ._comments import fill_library_values, first_errors
 from ._materials_sheet import MATERIALS_SHEET, materials_rows
 from ._results import RESULTS_SHEET, results_rows
+from ._sizing_sheet import SIZING_SHEET, sizing_rows
 from ._summary import SUMMARY_SHEET, summary_rows
 from ._warnings import WARNINGS_SHEET, add_warnings_sheet
 
 __all__ = ["add_rating_sheets", "RESULT_SHEETS", "RESULT_SHEET_PREFIX"]
 
 #: The sheets `rate` adds; every name starts with `RESULT_SHEET_PREFIX`.
-RESULT_SHEETS = (RESULTS_SHEET, SUMMARY_SHEET, WARNINGS_SHEET, MATERIALS_SHEET)
+RESULT_SHEETS = (RESULTS_SHEET, SUMMARY_SHEET, WARNINGS_SHEET, MATERIALS_SHEET, SIZING_SHEET)
 RESULT_SHEET_PREFIX = "Twistshare "
 
 
 def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, profile_part: str | None) -> None:
-    """The results, summary, warnings and materials sheets, the charts and the library fill-ins."""
+    """The results, sizing (when a part asks), summary, warnings and materials sheets, the charts
+    and the library fill-ins."""
     parts = result.parts
     if parts is not None and parts.count:
         rows, widths, col_styles = results_rows(result, display, first_errors(result.problems))
         res = writer.add_sheet(RESULTS_SHEET, rows, column_widths=widths, column_styles=col_styles,
                                tab_color="FF1F3A4D", header_height=32)
         writer.set_print_titles(res, columns=2, rows=1)  # part id and status on every printed page
+    if result.sizing is not None and parts is not None and parts.count:
+        zrows, zwidths, zstyles = sizing_rows(result, display)
+        writer.add_sheet(SIZING_SHEET, zrows, column_widths=zwidths, column_styles=zstyles,
+                         tab_color="FF1F3A4D", header_height=32)
     srows, layout = summary_rows(result, display, profile_part)
     summ = writer.add_sheet(SUMMARY_SHEET, srows, column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
