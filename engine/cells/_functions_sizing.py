@@ -20,7 +20,7 @@ from twistshare.engine.core import (
     round_up_to_stock,
     solve_dimension,
 )
-from twistshare.engine.intake import LAYER_FIELDS, field_by_key
+from twistshare.engine.intake import LAYER_FIELDS, field_by_key, header_factor
 from twistshare.engine.intake._sizing_input import parse_stock_list
 from twistshare.engine.intake._wording import SIZING_STATUS_WORDS, STOCK_STATUS_WORDS
 from twistshare.engine.intake._words import (
@@ -167,8 +167,6 @@ def _stock_list(stock: Any) -> list[float]:
         cells = cells[1:]
     factor = None
     if unit is not None:
-        from twistshare.engine.intake import header_factor
-
         factor, issue = header_factor(_STOCK, unit, "stock")
         if issue:
             raise CellError("stock", issue)
@@ -176,19 +174,6 @@ def _stock_list(stock: Any) -> list[float]:
     for cell in cells:
         if error_value_text(cell) is not None:
             raise CellError("stock", f"cell holds the error {error_value_text(cell)}")
-        if isinstance(cell, str) and unit is None:
-            # a list whose last size carries the unit ('60; 63; 65 mm') gives it to all
-            parts = [p.strip() for p in cell.replace(",", ";").split(";")]
-            tail = split_header(f"x [{parts[-1].lstrip('0123456789.+-eE ').strip()}]")[1] if parts else None
-            if tail and all(p.replace(".", "", 1).isdigit() for p in parts[:-1]):
-                from twistshare.engine.intake import header_factor
-
-                tail_factor, _ = header_factor(_STOCK, tail, "stock")
-                if tail_factor is not None:
-                    got, problem = parse_stock_list(cell, _STOCK, tail, tail_factor)
-                    if problem is None:
-                        sizes += got
-                        continue
         got, problem = parse_stock_list(cell, _STOCK, unit, factor,
                                         "no unit: write it with its unit, e.g. '60; 63; 65 mm'")
         if problem is not None:

@@ -22,7 +22,7 @@ from ._grid import SheetGrid
 from ._materials import MaterialSet, read_materials
 from ._parts import PartsInput, read_parts
 from ._problems import Problem, Severity
-from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS
+from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS, SIZING_FIELDS
 from ._sizing_input import BookSizing, read_sizing, size_parts, sizing_problems
 from ._table_checks import (
     anchor_merged,
@@ -34,6 +34,8 @@ from ._table_checks import (
 from ._tables import TableRegion, TableSpot, locate_table
 
 __all__ = ["BookRating", "TableSource", "rate_tables", "TABLE_NAMES"]
+
+SIZING_KEYS = frozenset(f.key for f in SIZING_FIELDS)
 
 #: The tables a book holds, by sheet name or workbook-table name.
 TABLE_NAMES = ("Materials", "Parts", "Layers")
@@ -159,8 +161,7 @@ def rate_tables(book: TableSource) -> BookRating:
         parts.input_error[:] = True
     refuse_conflicting_parts(pgrid, pspot, lgrid, lspot, parts, findings)
     request = None
-    if parts.count and pspot.column("size") is not None or any(
-            c.field.key in ("target_reserve", "stock", "outer_layers") for c in pspot.columns):
+    if any(c.field.key in SIZING_KEYS for c in pspot.columns):  # else no sizing work at all
         request = read_sizing(pgrid, pspot, parts.ids, parts.rows, parts.stack(), parts.input_error, findings,
                               set())
     result.materials, result.parts = materials, parts

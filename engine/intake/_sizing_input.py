@@ -7,7 +7,8 @@ A part asks to be sized by a filled ``Size`` cell (``layer 2 outer diameter``, `
 part is not rated, the others are. No part asks: nothing is read or solved.
 
 A stock list is one cell: sizes separated by ``;`` or ``,`` (``60; 63; 65`` or ``60, 63, 65``),
-each a number in the header's unit or with its own (``2.5 in; 2.75 in``), ascending. The decimal
+each a number in the header's unit or with its own (``2.5 in; 2.75 in``), ascending; without a
+unit in the header, a unit after the last size serves the bare ones (``60; 63; 65 mm``). The decimal
 separator is the point, as everywhere else in a book; since a comma separates sizes, ``60,5``
 reads as the two sizes 60 and 5 and is refused for not ascending.
 """
@@ -27,6 +28,7 @@ from twistshare.engine.core import (
     round_up_to_stock,
     solve_dimension,
 )
+from twistshare.engine.units import UnitProblem, si_factor
 
 from ._columns import cell_value, error_problem, header_factor, read_numeric, read_text
 from ._grid import SheetGrid, cell_ref
@@ -46,6 +48,7 @@ from ._words import (
 __all__ = ["SizingRequest", "BookSizing", "read_sizing", "size_parts", "parse_stock_list", "sizing_problems"]
 
 _SEPARATORS = re.compile(r"[;,]")
+_TAIL_UNIT = re.compile(r"^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*([^\d\s.+-].*)$")
 
 
 @dataclass(frozen=True)
@@ -101,13 +104,21 @@ def parse_stock_list(raw: object, field: Field, unit: str | None, factor: float 
     """One stock-list cell as ascending SI sizes, or the problem, worded.
 
     A number is a list of one; text is split on ``;`` and ``,``; each item is read by the
-    field's one rule (unit, sign, plausible range).
+    field's one rule (unit, sign, plausible range). A bare size takes ``unit`` (the header's);
+    without one, the unit written after the last size (``60; 63; 65 mm``).
     """
     if isinstance(raw, str):
         items = [t.strip() for t in _SEPARATORS.split(raw)]
         if any(not t for t in items):
             return [], (f"{quoted(raw)}: an empty entry in the list; write the sizes ascending, separated "
                         "by ';' or ',' (the decimal separator is the point)")
+        tail = _TAIL_UNIT.match(items[-1])
+        if unit is None and tail is not None and len(items) > 1:
+            # '60; 63; 65 mm': without a header unit, the unit after the last size serves them all
+            try:
+                factor, unit = si_factor(tail.group(1), field.kind), tail.group(1)
+            except UnitProblem:
+                pass  # the last size's own reading words the problem
     else:
         items = [raw]
     sizes: list[float] = []

@@ -47,6 +47,8 @@ class TestStockList:
         ("60, 63, 65", "mm", [60, 63, 65]), ("60; 63.5; 65", "mm", [60, 63.5, 65]),
         (60, "mm", [60]), ("2.5 in; 2.75 in", None, [63.5, 69.85]),  # 1 in = 25.4 mm exactly
         ("60 mm, 2.5 in", "mm", [60, 63.5]),
+        ("60; 63; 65 mm", None, [60, 63, 65]),  # no header unit: the last size's unit serves all
+        ("2.5; 2.75 in", None, [63.5, 69.85]),
     ])
     def test_read(self, raw, unit, expected_mm):
         factor = 1e-3 if unit == "mm" else None
@@ -61,3 +63,7 @@ class TestStockList:
     def test_refused(self, raw, words):
         sizes, problem = parse_stock_list(raw, STOCK, "mm", 1e-3)
         assert sizes == [] and words in problem
+
+    def test_bare_sizes_without_any_unit_refused(self):
+        sizes, problem = parse_stock_list("60; 63; 65", STOCK, None, None, "no unit")
+        assert sizes == [] and "no unit" in problem
