@@ -45,7 +45,8 @@ CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
 #: The outcome of sizing a part, as the sizing sheet, the summary and the cell functions write it.
 SIZING_STATUS_WORDS: Mapping[SizingStatus, str] = MappingProxyType({
     SizingStatus.SOLVED: "solved",
-    SizingStatus.HOLDS_AT_LEAST: "holds already at the smallest size tried",
+    SizingStatus.HOLDS_AT_LEAST: ("holds already with the least material tried (smallest diameter or wall, "
+                                  "largest bore)"),
     SizingStatus.SHORT_AT_MOST: "no size in the range holds",
     SizingStatus.NOT_MONOTONE: "capacity falls as material is added: rate the sizes around it",
     SizingStatus.NOT_RATED: "a size tried could not be rated",
