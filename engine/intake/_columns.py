@@ -187,6 +187,21 @@ def read_numeric(
                 ok &= (nums >= rng.low) & (nums <= rng.high)
         values[ok] = nums[ok]
         slow = np.flatnonzero(~ok).tolist()
+    memo: dict[str, tuple[float, str | None, str]] = {}  # a column repeats its texts ("52 mm")
+    errors = grid.errors
+    if n and not errors and not grid.uncached and (factor is None or len(slow) == n):
+        # A column of texts: each distinct text read once, the column filled by lookup; only the
+        # cells that need a message are visited one by one below.
+        raw_col = grid.cells(col, rows)
+        if set(map(type, raw_col)) == {str}:
+            for text in dict.fromkeys(raw_col):
+                memo[text] = cell_value(text, field, column.unit, factor, header_issue,
+                                        is_error=error_value_text(text) is not None) if text.strip() else (
+                    math.nan, None, "empty")
+            got = [memo[x] for x in raw_col]
+            values[:] = [g[0] for g in got]
+            slow = [i for i, g in enumerate(got) if g[1] is not None or g[2] == "empty"]
+            values[slow] = math.nan
     for i in slow:
         r = rows[i]
         raw = grid.value(r, col)
@@ -201,8 +216,15 @@ def read_numeric(
         if raw is None:
             empty[i] = True
             continue
-        v, problem, code = cell_value(raw, field, column.unit, factor, header_issue,
-                                      is_error=(r, col) in grid.errors or error_value_text(raw) is not None)
+        if raw.__class__ is str and not (errors and (r, col) in errors):
+            got = memo.get(raw)
+            if got is None:
+                got = memo[raw] = cell_value(raw, field, column.unit, factor, header_issue,
+                                             is_error=error_value_text(raw) is not None)
+            v, problem, code = got
+        else:
+            v, problem, code = cell_value(raw, field, column.unit, factor, header_issue,
+                                          is_error=(r, col) in errors or error_value_text(raw) is not None)
         if problem is not None:
             bad[i] = True
             if code == "unit" and header_issue and column.unit is None and key not in header_problem_reported \

@@ -12,11 +12,12 @@ from ..ooxml import check_output_name, check_output_place, inspect_package, keep
 from ..reading import MAX_TABLE_ROWS, OpenBook, open_book
 from ..sheets import RESULT_SHEET_PREFIX
 
-__all__ = ["EXIT_OK", "EXIT_PART_ERRORS", "EXIT_UNUSABLE", "say", "fail", "prepare", "refuse_rated_book",
+__all__ = ["EXIT_OK", "EXIT_PART_ERRORS", "EXIT_UNUSABLE", "EXIT_PARTS_FAIL", "say", "fail", "prepare", "refuse_rated_book",
            "check_output_place", "keep_previous", "write_book", "check_output_name", "open_for_rating"]
 
 
 EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
+EXIT_PARTS_FAIL = 3  # with --exit-if-failing: every input read, but some parts fail their demand
 
 
 def say(msg: str) -> None:

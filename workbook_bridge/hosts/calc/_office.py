@@ -240,6 +240,9 @@ def start_profile(soffice: str, profile: Path, timeout: float = 120.0, *, office
                                  "it was stopped", timeout) from None
     finally:
         end_process_group(process, 0.0)
+    if not (profile / "user").is_dir():
+        raise LibreOfficeFailed(f"LibreOffice ({soffice}) ended (exit code {process.returncode}) without creating "
+                                f"its profile in {profile}; nothing was written")
 
 
 def run_office(office: Office, profile: Path, book: Path, cells: dict[str, list[tuple[int, int]]], *,
