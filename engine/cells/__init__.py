@@ -15,9 +15,10 @@ Examples
 
 from typing import Any
 
-from . import _functions, _functions_scalar, _functions_stress
+from . import _functions, _functions_scalar, _functions_sizing, _functions_stress
 from ._functions import TWS_GOVERNING_LIMIT, TWS_GOVERNS, TWS_LAYER_CAPACITY, TWS_MARGIN, TWS_SHARE
 from ._functions_scalar import TWS_ALLOWABLE, TWS_TORQUE_FROM_POWER
+from ._functions_sizing import TWS_RESTORE_SLEEVE, TWS_SIZE_FOR, TWS_STOCK_SIZE
 from ._functions_stress import TWS_STRESS, TWS_STRESS_AT, TWS_TWIST_ANGLE, TWS_TWIST_PER_LENGTH
 from ._registry import CATEGORY, Argument, CellFunction, function_spec
 
@@ -25,12 +26,13 @@ __all__ = [
     # in the registry's order
     "TWS_SHARE", "TWS_LAYER_CAPACITY", "TWS_GOVERNING_LIMIT", "TWS_GOVERNS", "TWS_MARGIN", "TWS_STRESS",
     "TWS_STRESS_AT", "TWS_TWIST_ANGLE", "TWS_TWIST_PER_LENGTH", "TWS_TORQUE_FROM_POWER", "TWS_ALLOWABLE",
+    "TWS_SIZE_FOR", "TWS_STOCK_SIZE", "TWS_RESTORE_SLEEVE",
     "registry", "list_functions", "CellFunction", "Argument", "CATEGORY",
 ]
 
 
 #: The modules of cell functions, in the order the hosts list them; a new module adds one entry.
-_MODULES = (_functions, _functions_stress, _functions_scalar)
+_MODULES = (_functions, _functions_stress, _functions_scalar, _functions_sizing)
 
 
 def registry() -> tuple[CellFunction, ...]:

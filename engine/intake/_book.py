@@ -22,7 +22,8 @@ from ._grid import SheetGrid
 from ._materials import MaterialSet, read_materials
 from ._parts import PartsInput, read_parts
 from ._problems import Problem, Severity
-from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS
+from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS, SIZING_FIELDS
+from ._sizing_input import BookSizing, read_sizing, size_parts, sizing_problems
 from ._table_checks import (
     anchor_merged,
     hidden_and_merged,
@@ -33,6 +34,8 @@ from ._table_checks import (
 from ._tables import TableRegion, TableSpot, locate_table
 
 __all__ = ["BookRating", "TableSource", "rate_tables", "TABLE_NAMES"]
+
+SIZING_KEYS = frozenset(f.key for f in SIZING_FIELDS)
 
 #: The tables a book holds, by sheet name or workbook-table name.
 TABLE_NAMES = ("Materials", "Parts", "Layers")
@@ -65,6 +68,7 @@ class BookRating:
     parts_spot: TableSpot | None = None
     layers_spot: TableSpot | None = None
     materials_spot: TableSpot | None = None
+    sizing: BookSizing | None = None  # only when some part asks to be sized
 
 
 def _spot(book: TableSource, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -156,6 +160,10 @@ def rate_tables(book: TableSource) -> BookRating:
     if header_blocks:
         parts.input_error[:] = True
     refuse_conflicting_parts(pgrid, pspot, lgrid, lspot, parts, findings)
+    request = None
+    if any(c.field.key in SIZING_KEYS for c in pspot.columns):  # else no sizing work at all
+        request = read_sizing(pgrid, pspot, parts.ids, parts.rows, parts.stack(), parts.input_error, findings,
+                              set())
     result.materials, result.parts = materials, parts
     result.parts_spot, result.layers_spot, result.materials_spot = pspot, lspot, mspot
     result.system = parts.system
@@ -170,5 +178,8 @@ def rate_tables(book: TableSource) -> BookRating:
     result.rating = rating
     findings.extend(problems_from_rating(rating, parts, ok))
     result.rated = ok & np.asarray(rating.valid, dtype=bool)
+    if request is not None:  # sizing work only when a part asks
+        result.sizing = size_parts(parts.stack(), parts.duty(), request, result.rated)
+        findings.extend(sizing_problems(result.sizing, parts.ids))
     anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

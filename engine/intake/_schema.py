@@ -32,6 +32,7 @@ __all__ = [
     "LAYER_FIELDS",
     "LAYER_ROW_FIELDS",
     "DUTY_FIELDS",
+    "SIZING_FIELDS",
     "field_by_key",
     "match_header",
     "match_layer_group_header",
@@ -143,7 +144,22 @@ DUTY_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1e-6, math.pi, "deg/m", _DEG)),
 )
 
-PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS
+# Sizing a part (optional; a blank Size cell asks for none). The Size cell names the dimension in
+# the words of `_words.size_request_from_text`; the stock list is read by `_sizing_input`.
+SIZING_FIELDS: tuple[Field, ...] = (
+    _f("size", "text", "dimension to size", "size", "size for", "solve for", "sizing"),
+    # at least 1: the allowables already hold the materials' factors of safety, so a target
+    # below 1 would size a part to overstress them (common practice)
+    _f("target_reserve", "dimensionless", "target reserve factor", "target reserve factor",
+       "target reserve", "target rf", "reserve factor target", blank=Blank.ONE,
+       plausible=Plausible(1.0, 20.0, "", 1.0)),
+    # diameters, walls or bores, as the Size cell says; one cell holds the whole list
+    _f("stock", "length", "stock sizes", "stock sizes", "stock size", "stock", "stock list",
+       plausible=_DIAMETER),
+    _f("outer_layers", "text", "outer layers (move or fixed)", "outer layers", "layers outside"),
+)
+
+PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS + SIZING_FIELDS
 
 LAYER_FIELDS: tuple[Field, ...] = (
     # A material name, or (in a cell block) the layer's shear modulus G written with its unit.
@@ -172,11 +188,11 @@ LAYER_ROW_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1.0, 10_000.0, "", 1.0, positive=False)),
 ) + LAYER_FIELDS
 
-_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS}
+_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS + SIZING_FIELDS}
 
 
 def field_by_key(key: str) -> Field:
-    """A materials or duty field by its key (``"torque"``, ``"yield_strength"``)."""
+    """A materials, duty or sizing field by its key (``"torque"``, ``"yield_strength"``)."""
     return _BY_KEY[key]
 
 

@@ -9,10 +9,11 @@ from __future__ import annotations
 from collections.abc import Mapping
 from types import MappingProxyType
 
-from twistshare.engine.core import Criterion
+from twistshare.engine.core import Criterion, SizingStatus, StockStatus
 from twistshare.engine.units import display_unit, si_factor
 
-__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "governs_text", "Display"]
+__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "governs_text", "Display",
+           "SIZING_STATUS_WORDS", "STOCK_STATUS_WORDS", "SIZING_CAUTION"]
 
 #: The caution every output carries, one sentence a line.
 CAUTION_LINES: tuple[str, ...] = (
@@ -39,6 +40,32 @@ CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
 })
+
+
+#: The outcome of sizing a part, as the sizing sheet, the summary and the cell functions write it.
+SIZING_STATUS_WORDS: Mapping[SizingStatus, str] = MappingProxyType({
+    SizingStatus.SOLVED: "solved",
+    SizingStatus.HOLDS_AT_LEAST: ("holds already with the least material tried (smallest diameter or wall, "
+                                  "largest bore)"),
+    SizingStatus.SHORT_AT_MOST: "no size in the range holds",
+    SizingStatus.NOT_MONOTONE: "capacity falls as material is added: rate the sizes around it",
+    SizingStatus.NOT_RATED: "a size tried could not be rated",
+    SizingStatus.NOT_APPLICABLE: "the part has no such dimension",
+    SizingStatus.BAD_INPUT: "nothing to size for (no torque, or no range to search)",
+})
+
+#: The outcome of rounding a sized part up to a stock size.
+STOCK_STATUS_WORDS: Mapping[StockStatus, str] = MappingProxyType({
+    StockStatus.FOUND: "stock size found",
+    StockStatus.NONE_HOLDS: "no stock size listed holds",
+    StockStatus.NOT_RATED: "a stock size tried could not be rated",
+    StockStatus.NOT_APPLICABLE: "no stock size to choose (nothing sized)",
+})
+
+#: Beside every sizing result.
+SIZING_CAUTION = ("Sizing solves one dimension for the target reserve factor against the criteria rated "
+                  "here only (layer stresses with Kt, twist limits); fits, bonds, fatigue and bending are "
+                  "not in it. Re-rate the size chosen with its real tolerances before it is made.")
 
 
 def governs_text(criterion: int, layer: int, material: str | None = None) -> str:

@@ -10,7 +10,7 @@ import re
 from collections.abc import Mapping
 from types import MappingProxyType
 
-from twistshare.engine.core import AllowableRule, normalise_name
+from twistshare.engine.core import AllowableRule, OuterLayers, SizedDimension, normalise_name
 
 __all__ = [
     "header_key",
@@ -27,6 +27,12 @@ __all__ = [
     "where_text",
     "error_value_text",
     "ERROR_VALUES",
+    "size_request_from_text",
+    "size_text",
+    "SIZE_CHOICES",
+    "outer_layers_from_text",
+    "OUTER_LAYERS_WORDS",
+    "OUTER_LAYERS_CHOICES",
 ]
 
 _HEADER_RUNS = re.compile(r"[\s_\-]+")
@@ -149,3 +155,79 @@ def error_value_text(value: object) -> str | None:
         stripped = value.strip().upper()
         return stripped if stripped in ERROR_VALUES else None
     return None
+
+
+# --- Sizing: which dimension a Size cell names, and what the layers outside it do -------------
+
+_OUTER_WORDS = ("outer diameter", "outer dia", "outer dia.", "outer d", "od", "outside diameter",
+                "diameter")
+_WALL_WORDS = ("wall", "wall thickness", "thickness")
+_BORE_WORDS = ("bore", "inner diameter", "inner dia", "id", "inside diameter")
+_WHO = r"(?:(?:layer|l)\s*(?P<n>\d{1,2})|(?P<core>core)|(?P<sleeve>sleeve|outer layer|outermost layer))"
+_SIZE_PATTERN = re.compile(rf"^(?:{_WHO}\s*[:.]?\s+)?(?P<what>.+?)$")
+
+SIZE_CHOICES = ("'layer 2 outer diameter', 'layer 2 wall', 'core bore' (or 'outer diameter' / "
+                "'wall' for the outermost layer, 'core outer diameter')")
+
+
+def size_request_from_text(text: object) -> tuple[SizedDimension, int] | None:
+    """The dimension a Size cell names and its layer slot (0-based; -1 = the outermost layer).
+
+    ``"layer 2 outer diameter"`` -> (OUTER_DIAMETER, 1); ``"L3 wall"`` -> (WALL, 2);
+    ``"core bore"``, ``"bore"``, ``"layer 1 inner diameter"`` -> (BORE, 0); ``"outer diameter"``,
+    ``"sleeve wall"`` -> the outermost layer (-1); ``"core outer diameter"`` -> slot 0. Case,
+    spaces, ``-`` and ``_`` do not matter. None for anything else (a bore of any layer but the
+    core, a layer 0).
+    """
+    if not isinstance(text, str):
+        return None
+    m = _SIZE_PATTERN.match(header_key(text))
+    if m is None:
+        return None
+    what = m.group("what").strip()
+    if m.group("n") is not None:
+        slot = int(m.group("n")) - 1
+        if slot < 0:
+            return None
+    elif m.group("core"):
+        slot = 0
+    else:
+        slot = -1
+    if what in _BORE_WORDS:
+        # only the innermost layer has a bore to open up; elsewhere it is an interface
+        return (SizedDimension.BORE, 0) if slot == 0 or (slot == -1 and not m.group("sleeve")) else None
+    if what in _OUTER_WORDS:
+        return SizedDimension.OUTER_DIAMETER, slot
+    if what in _WALL_WORDS:
+        return SizedDimension.WALL, slot
+    return None
+
+
+def size_text(dimension: SizedDimension, slot: int) -> str:
+    """How outputs name a sized dimension: ``layer 2 outer diameter``, ``core bore``."""
+    dimension = SizedDimension(dimension)
+    if dimension == SizedDimension.BORE:
+        return "core bore"
+    what = "outer diameter" if dimension == SizedDimension.OUTER_DIAMETER else "wall"
+    return f"layer {slot + 1} {what}" if slot >= 0 else f"outermost layer {what}"
+
+
+_OUTER_LAYER_NAMES: Mapping[str, OuterLayers] = MappingProxyType({
+    "move": OuterLayers.MOVE, "moves": OuterLayers.MOVE, "moving": OuterLayers.MOVE,
+    "move with it": OuterLayers.MOVE, "follow": OuterLayers.MOVE,
+    "fixed": OuterLayers.FIXED, "fix": OuterLayers.FIXED, "stay": OuterLayers.FIXED,
+    "stays": OuterLayers.FIXED, "keep": OuterLayers.FIXED, "kept": OuterLayers.FIXED,
+})
+
+#: The one word of each choice, as outputs write it.
+OUTER_LAYERS_WORDS: Mapping[OuterLayers, str] = MappingProxyType({
+    OuterLayers.MOVE: "move", OuterLayers.FIXED: "fixed"})
+
+OUTER_LAYERS_CHOICES = "'move' (the layers outside keep their walls and move out) or 'fixed'"
+
+
+def outer_layers_from_text(text: object) -> OuterLayers | None:
+    """What the layers outside a sized diameter do: ``move`` or ``fixed`` (None: neither)."""
+    if not isinstance(text, str):
+        return None
+    return _OUTER_LAYER_NAMES.get(header_key(text))

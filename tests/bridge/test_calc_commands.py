@@ -115,9 +115,43 @@ def make_every_function_book(path: Path) -> Path:
         ws[f"K{top + 5}"] = f'=TWS_TWIST_PER_LENGTH({block},{t},"°/m")'
         inner = layers[1][2] / 2
         ws[f"K{top + 6}"] = f'=TWS_STRESS_AT({block},{t},"{inner:g} mm",2)'  # layer 2 at its inner radius
+        # sizing: the sleeve's outer diameter for a reserve factor of 1.2, its stock size, and the
+        # bronze sleeve that restores the steel core turned down from the sleeve's diameter
+        for col, formula in zip("MNO", _sizing_formulas(PARTS[k], block, t, lim)):
+            if col == "O":
+                ws[f"O{top + 2}"] = ArrayFormula(f"O{top + 2}:P{top + 2}", formula)
+            else:
+                ws[f"{col}{top + 2}"] = formula
     ws["M1"] = BAD_UNIT
     wb.save(path)
     return path
+
+
+STOCK = "55; 60; 65; 70; 75; 80; 90; 100 mm"
+
+
+def _sizing_formulas(part, block, t, lim):
+    """TWS_SIZE_FOR, TWS_STOCK_SIZE and TWS_RESTORE_SLEEVE on the part, as the sheet calls them."""
+    (_m1, _od1, _i1, _k1), (_m2, od2, id2, _k2) = part[5]
+    return (f'=TWS_SIZE_FOR({block},{t},"layer 2 outer diameter",1.2,{lim})',
+            f'=TWS_STOCK_SIZE({block},{t},"layer 2 outer diameter","{STOCK}",1.2,{lim})',
+            f'=TWS_RESTORE_SLEEVE("{od2:g} mm",,"{STEEL}","{id2:g} mm","{BRONZE}",,,Materials!A1:G3)')
+
+
+def _sizing_in_python(part):
+    """The same three calls in Python, on the same arguments."""
+    pid, length, torque, power, twist, layers = part
+    block = [["G [GPa]", "Outer diameter [mm]", "Inner diameter [mm]", "Allowable shear [MPa]", "Kt"]]
+    block += [[G[m] / 1e9, od, idd, TAU[m] / 1e6, kt] for m, od, idd, kt in layers]
+    t = f"{torque:g} N·m" if torque is not None else [[_torque(part), "N·m"]]
+    lim = (f"{length:g} mm", f"{twist:g}°")
+    materials = [["Material", "G [GPa]", "Allowable shear [MPa]", "Allowable rule", "Yield strength [MPa]",
+                  "Factor of safety", "Keyway"], [STEEL, 80, None, "distortion energy", 520, 2, "no"],
+                 [BRONZE, 41, 45, "given", None, None, None]]
+    od2, id2 = layers[1][1], layers[1][2]
+    return (cells.TWS_SIZE_FOR(block, t, "layer 2 outer diameter", 1.2, *lim),
+            cells.TWS_STOCK_SIZE(block, t, "layer 2 outer diameter", STOCK, 1.2, *lim),
+            cells.TWS_RESTORE_SLEEVE(f"{od2:g} mm", None, STEEL, f"{id2:g} mm", BRONZE, materials=materials))
 
 
 def _engine(part):
@@ -192,6 +226,13 @@ def test_recalculated_every_function_equals_the_engine_and_the_workbook_path(eve
         for want in (math.degrees(phi), math.degrees(float(r.twist_angle[0])), got["Twist angle [°]"]):
             _close(ws[f"K{top + 4}"].value, want)
         _close(ws[f"K{top + 5}"].value, got["Twist per length [°/m]"])
+        # sizing: LibreOffice's calls equal the same calls in Python
+        size, stock, restore = _sizing_in_python(part)
+        assert isinstance(size, float) and isinstance(stock, float), (size, stock)
+        _close(ws[f"M{top + 2}"].value, size)
+        _close(ws[f"N{top + 2}"].value, stock)
+        _close(ws[f"O{top + 2}"].value, restore[0][0])
+        _close(ws[f"P{top + 2}"].value, restore[0][1])
 
 
 @needs_office

@@ -11,6 +11,7 @@ from ._charts import add_charts
 from ._comments import fill_library_values, first_errors
 from ._materials_sheet import MATERIALS_SHEET, materials_rows
 from ._results import RESULTS_SHEET, lowest_margins, results_rows
+from ._sizing_sheet import SIZING_SHEET, sizing_rows
 from ._summary import SUMMARY_SHEET, summary_rows
 from ._warnings import WARNINGS_SHEET, add_warnings_sheet
 from ._worked import worked_rows, worked_sheet_name
@@ -18,14 +19,15 @@ from ._worked import worked_rows, worked_sheet_name
 __all__ = ["add_rating_sheets", "RESULT_SHEETS", "RESULT_SHEET_PREFIX"]
 
 #: The sheets `rate` adds; every name starts with `RESULT_SHEET_PREFIX`.
-RESULT_SHEETS = (RESULTS_SHEET, SUMMARY_SHEET, WARNINGS_SHEET, MATERIALS_SHEET)
+RESULT_SHEETS = (RESULTS_SHEET, SUMMARY_SHEET, WARNINGS_SHEET, MATERIALS_SHEET, SIZING_SHEET)
 RESULT_SHEET_PREFIX = "Twistshare "
 
 
 def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, profile_part: str | None,
                       worked: Sequence[str] | None = None) -> None:
-    """The results, summary, warnings and materials sheets, the charts, the library fill-ins, and
-    a worked calculation for each part in `worked` (default: the lowest margin)."""
+    """The results, sizing (when a part asks), summary, warnings and materials sheets, the charts,
+    the library fill-ins, and a worked calculation for each part in `worked` (default: the lowest
+    margin)."""
     chosen = _worked_parts(result, worked)
     parts = result.parts
     if parts is not None and parts.count:
@@ -33,6 +35,10 @@ def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, 
         res = writer.add_sheet(RESULTS_SHEET, rows, column_widths=widths, column_styles=col_styles,
                                tab_color="FF1F3A4D", header_height=32)
         writer.set_print_titles(res, columns=2, rows=1)  # part id and status on every printed page
+    if result.sizing is not None and parts is not None and parts.count:
+        zrows, zwidths, zstyles = sizing_rows(result, display)
+        writer.add_sheet(SIZING_SHEET, zrows, column_widths=zwidths, column_styles=zstyles,
+                         tab_color="FF1F3A4D", header_height=32)
     srows, layout = summary_rows(result, display, profile_part)
     summ = writer.add_sheet(SUMMARY_SHEET, srows, column_widths=[30, 40, 18, 16, 34],
                             freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)

@@ -13,6 +13,7 @@ from twistshare.engine.intake import RULE_FORMULAS, Display, Problem, Severity, 
 from .. import __version__
 from ._cells import CAUTIONS, Styled
 from ._results import READING_THE_RESULTS, criterion_counts, lowest_margins
+from ._sizing_sheet import sizing_summary_rows
 
 __all__ = ["SummaryLayout", "summary_rows", "SUMMARY_SHEET"]
 
@@ -77,6 +78,7 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
     for text, count in criterion_counts(book):
         rows.append([text, count])
     rows.append([])
+    rows.extend(sizing_summary_rows(book, display))
     margins_block = None
     low = lowest_margins(book, 10)
     if low:
