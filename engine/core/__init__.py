@@ -46,6 +46,7 @@ from ._compatibility import (
     twist_per_length,
 )
 from ._criteria import AllowableRule, Criterion
+from ._beyond_torsion_criteria import whirl_of
 from ._criteria_list import CRITERIA, CriterionCheck, Section, governing_of
 from ._demand import torque_from_power
 from ._diagnoses import (
@@ -260,6 +261,7 @@ __all__ = [
     "whirl_reserve",
     "whirl_gate_capacity",
     "WhirlCheck",
+    "whirl_of",
     "whirl_check",
     # laminates
     "PlySet",

@@ -13,7 +13,7 @@ from pathlib import Path
 from typing import Protocol
 
 import numpy as np
-from twistshare.engine.core import Rating, rate
+from twistshare.engine.core import Rating, WhirlCheck, rate, whirl_of
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.units import si_factor
 
@@ -65,6 +65,7 @@ class BookRating:
     parts_spot: TableSpot | None = None
     layers_spot: TableSpot | None = None
     materials_spot: TableSpot | None = None
+    whirl: WhirlCheck | None = None  # first critical speed and speed ratio, where a speed is given
 
 
 def _spot(book: TableSource, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -170,5 +171,6 @@ def rate_tables(book: TableSource) -> BookRating:
     result.rating = rating
     findings.extend(problems_from_rating(rating, parts, ok))
     result.rated = ok & np.asarray(rating.valid, dtype=bool)
+    result.whirl = whirl_of(parts.stack(), parts.length, parts.inputs)
     anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

@@ -32,6 +32,7 @@ __all__ = [
     "LAYER_FIELDS",
     "LAYER_ROW_FIELDS",
     "DUTY_FIELDS",
+    "LOAD_FIELDS",
     "field_by_key",
     "match_header",
     "match_layer_group_header",
@@ -143,7 +144,18 @@ DUTY_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1e-6, math.pi, "deg/m", _DEG)),
 )
 
-PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS
+# Loads beyond torsion, per part: bending and axial force at the section checked, how the
+# ends are held for the whirl check (the speed column above serves the whirl check too).
+LOAD_FIELDS: tuple[Field, ...] = (
+    _f("bending_moment", "torque", "bending moment (resultant, at the section checked)",
+       "bending moment", "moment", "bending", plausible=Plausible(0.0, 50e6, "N·m", 1.0)),
+    _f("axial_force", "force", "axial force (+ tension)", "axial force", "axial load",
+       "thrust", plausible=Plausible(-100e6, 100e6, "kN", 1e3, positive=False)),
+    _f("end_support", "text", "end supports for the whirl check (blank: simply supported)",
+       "supports", "end supports", "end support", "ends"),
+)
+
+PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS + LOAD_FIELDS
 
 LAYER_FIELDS: tuple[Field, ...] = (
     # A material name, or (in a cell block) the layer's shear modulus G written with its unit.
@@ -172,7 +184,7 @@ LAYER_ROW_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1.0, 10_000.0, "", 1.0, positive=False)),
 ) + LAYER_FIELDS
 
-_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS}
+_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS + LOAD_FIELDS}
 
 
 def field_by_key(key: str) -> Field:

@@ -31,6 +31,9 @@ CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.LAYER_STRESS: "layer {layer} stress",
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
+    Criterion.COMBINED_STRESS: "layer {layer} combined stress (bending held at its given value)",
+    Criterion.WHIRL: "whirl: speed above 70 % of the first critical",
+    Criterion.TORSIONAL_BUCKLING: "torsional buckling of the wall",
 })
 
 #: The criterion as a noun, for counts ("governed by a layer's shear stress: 31 parts").
@@ -38,6 +41,9 @@ CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.LAYER_STRESS: "a layer's shear stress",
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
+    Criterion.COMBINED_STRESS: "a layer's combined stress, bending held fixed",
+    Criterion.WHIRL: "whirl gate (0: too close to the first critical)",
+    Criterion.TORSIONAL_BUCKLING: "torsional buckling",
 })
 
 

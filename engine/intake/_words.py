@@ -10,7 +10,7 @@ import re
 from collections.abc import Mapping
 from types import MappingProxyType
 
-from twistshare.engine.core import AllowableRule, normalise_name
+from twistshare.engine.core import AllowableRule, EndSupport, normalise_name
 
 __all__ = [
     "header_key",
@@ -27,6 +27,9 @@ __all__ = [
     "where_text",
     "error_value_text",
     "ERROR_VALUES",
+    "SUPPORT_WORDS",
+    "SUPPORT_CHOICES",
+    "support_from_text",
 ]
 
 _HEADER_RUNS = re.compile(r"[\s_\-]+")
@@ -149,3 +152,25 @@ def error_value_text(value: object) -> str | None:
         stripped = value.strip().upper()
         return stripped if stripped in ERROR_VALUES else None
     return None
+
+
+# How a shaft's ends are held in bending, for the whirl check. Blank: simply supported, the
+# usual reading of a shaft in two bearings (common practice). Our own words; the end conditions
+# themselves are the textbook beam cases.
+SUPPORT_WORDS: Mapping[str, EndSupport] = MappingProxyType({
+    "simply supported": EndSupport.PINNED_PINNED, "simple": EndSupport.PINNED_PINNED,
+    "pinned": EndSupport.PINNED_PINNED, "pinned pinned": EndSupport.PINNED_PINNED,
+    "two bearings": EndSupport.PINNED_PINNED,
+    "clamped": EndSupport.FIXED_FIXED, "fixed": EndSupport.FIXED_FIXED,
+    "fixed fixed": EndSupport.FIXED_FIXED, "clamped both ends": EndSupport.FIXED_FIXED,
+    "overhung": EndSupport.FIXED_FREE, "cantilever": EndSupport.FIXED_FREE,
+    "fixed free": EndSupport.FIXED_FREE, "clamped free": EndSupport.FIXED_FREE,
+    "fixed pinned": EndSupport.FIXED_PINNED, "clamped pinned": EndSupport.FIXED_PINNED,
+    "propped": EndSupport.FIXED_PINNED,
+})
+SUPPORT_CHOICES = "simply supported (blank), clamped, overhung, clamped-pinned"
+
+
+def support_from_text(text: object) -> EndSupport | None:
+    """The end condition a support word names (``"overhung"``), or None."""
+    return SUPPORT_WORDS.get(header_key(str(text)).replace("/", " ").replace("–", " ").strip())
