@@ -46,7 +46,10 @@ from ._words import (
     where_text,
 )
 
+from ._layup import LayupNotationError, parse_layup
+
 __all__ = [
+    "parse_layup", "LayupNotationError",
     # problems
     "Problem", "Severity", "stops",
     # the schema
