@@ -140,6 +140,8 @@ PLY_FIELDS: tuple[Field, ...] = (
     _f("layup", "text", "layup in laminate notation, e.g. [±45]s", "layup", "lay up", "stacking"),
     _f("ply_set", "text", "a ply set of the built-in ply library", "ply set", "ply material"),
 )
+# A materials row may describe a fibre-wound layer by its plies: G and E then come from CLT.
+MATERIAL_FIELDS = MATERIAL_FIELDS + PLY_FIELDS
 
 _PART_ID = _f("part", "text", "part id", "part", "part id", "part number", "part no", "part no.",
               blank=Blank.REQUIRED)

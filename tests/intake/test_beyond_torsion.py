@@ -186,3 +186,38 @@ class TestBadInputs:
     def test_cell_refuses_a_material_without_E(self):
         got = TWS_BENDING_STRESS([LAYERS[0], ["MPD tube without E", 50, 40]], "300 N·m", materials=MATERIALS)
         assert isinstance(got, str) and "Young's modulus" in got
+
+
+class TestWoundLayer:
+    """A [±45]s materials row: G from CLT, hand-derived.
+
+    Q11 = E1/(1 - nu12 nu21), Q22 = E2/(1 - nu12 nu21), Q12 = nu12 E2/(1 - nu12 nu21), and at ±45°
+    Q̄66 = (Q11 + Q22 - 2 Q12)/4; a balanced ± laminate has A66/t = Q̄66 (Jones, Mechanics of
+    Composite Materials, ch. 2 and 4, from memory). The ply set is invented: E1 135, E2 10,
+    G12 5 GPa, nu12 0.3, 0.125 mm.
+    """
+
+    HEAD = ["Material", "Allowable shear [MPa]", "Ply E1 [GPa]", "Ply E2 [GPa]", "Ply G12 [GPa]", "Ply nu12",
+            "Ply thickness [mm]", "Layup", "Density [kg/m³]"]
+    PARTS = [["Part", "Length [mm]", "Torque [N·m]", "Layer 1 material", "Layer 1 outer diameter [mm]",
+              "Layer 1 inner diameter [mm]"], ["MPD-T-931", 1000, 100, "MPD wound wrap", 60, 56]]
+
+    def _book(self, layup="[±45]s"):
+        mats = [self.HEAD, ["MPD wound wrap", 60, 135, 10, 5, 0.3, 0.125, layup, 1550]]
+        return rate_tables(_Book({"Materials": mats, "Parts": self.PARTS}))
+
+    def test_shear_modulus_is_q66_bar(self):
+        e1, e2, nu12 = 135e9, 10e9, 0.3
+        nu21 = nu12 * e2 / e1
+        den = 1 - nu12 * nu21
+        q11, q22, q12 = e1 / den, e2 / den, nu12 * e2 / den
+        book = self._book()
+        assert book.rated[0]
+        assert book.parts.shear_modulus[0, 0] == pytest.approx((q11 + q22 - 2 * q12) / 4, rel=1e-9)
+        note = next(p for p in book.problems if p.code == "laminate")
+        assert note.cell == "H2" and "classical lamination theory" in note.message
+
+    def test_bad_layup_on_its_cell(self):
+        book = self._book("[±45")
+        assert not book.rated[0]
+        assert any(p.cell == "H2" and p.severity is Severity.ERROR for p in book.problems)
