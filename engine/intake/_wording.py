@@ -24,7 +24,8 @@ CAUTION_LINES: tuple[str, ...] = (
 
 #: What the rating covers, beside the caution.
 METHOD_LINE = ("Method: layers twist as one (full connection along the length), elastic stress only, "
-               "static torque; fatigue, bending, fits and bonds are not checked here.")
+               "static torque; static bending, axial force, whirl and thin-wall buckling where their inputs are "
+               "given; fatigue, fits and bonds are not checked here.")
 
 #: What governs, as results, the summary and ``TWS_GOVERNS`` write it; ``{layer}`` is 1-based.
 CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
