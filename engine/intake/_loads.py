@@ -68,7 +68,7 @@ def read_loads(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: list[str]
 
 def load_problems(inputs: dict[str, np.ndarray], present: np.ndarray, materials: np.ndarray,
                   ids: list[str], part_cells: CellRefs | None, sheet: str, findings: list[Problem],
-                  error: np.ndarray) -> None:
+                  error: np.ndarray, duty_source: list[str] | None = None) -> None:
     """A part with a bending moment or axial force needs E for every layer: refuse it otherwise;
     note where the whirl or buckling check cannot be made for want of a property."""
     n = len(ids)
@@ -96,7 +96,13 @@ def load_problems(inputs: dict[str, np.ndarray], present: np.ndarray, materials:
             part=ids[i], layer=j + 1, code="missing"))
         error[i] = True
     speed = inputs.get("speed", nan)
-    no_whirl = ~np.isnan(speed) & (present & (np.isnan(e) | np.isnan(rho))).any(axis=1) & ~error
+    # Told where the whirl check was asked for (a Supports word, or a speed beside a torque); a
+    # speed that only turns a power into a torque leaves whirl unchecked silently (the summary
+    # counts the parts checked).
+    asked = ~np.isnan(inputs.get("end_support", nan))
+    if duty_source is not None:
+        asked |= np.array([s == "torque" for s in duty_source], bool)
+    no_whirl = asked & ~np.isnan(speed) & (present & (np.isnan(e) | np.isnan(rho))).any(axis=1) & ~error
     for i in np.flatnonzero(no_whirl).tolist():
         findings.append(Problem(
             Severity.NOTE, *at("speed", i),

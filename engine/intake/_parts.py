@@ -189,7 +189,8 @@ def _assemble(sheet: str, ids: list[str], rows: list[int], duty: DutyColumns, la
         inputs["speed"] = duty.speed
     inputs.update(props)
     if len(inputs) > len(props):
-        load_problems(inputs, layers.present, layers.materials, ids, duty.cells, sheet, findings, error)
+        load_problems(inputs, layers.present, layers.materials, ids, duty.cells, sheet, findings, error,
+                      duty.source)
     if layers_spot is not None and system == "SI":
         system = _system_of(layers_spot, ("outer_diameter",))
     return PartsInput(
