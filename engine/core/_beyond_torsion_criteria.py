@@ -11,7 +11,8 @@ inputs by name (SI):
     every other rule (maximum shear, a given allowable, the shafting code) by maximum shear
     ``sqrt(sigma^2 + 4 tau^2) <= 2 tau_a`` -- the form in which the shafting code applies its
     allowable shear to combined loading. Needs ``youngs_modulus`` per layer.
-``speed`` (P,), rad/s; ``end_support`` (P,) `EndSupport` codes (default simply supported)
+``speed`` (P,), rad/s; ``end_support`` (P,) `EndSupport` codes (default simply supported);
+``bearing_span`` (P,), m (default the part's length)
     Whirl, a gate (:func:`whirl_gate_capacity`): +inf while the speed is at most
     `WHIRL_SPEED_RATIO_LIMIT` of the first bending critical, 0 above it. The critical speed
     does not change with the torque, so there is no torque at which it is reached; a part run
@@ -113,6 +114,7 @@ def whirl_of(stack, length, inputs, used=None) -> WhirlCheck | None:
     length : (P,) array_like, m
     inputs : mapping of str to ndarray
         ``speed`` (P,) rad/s, ``end_support`` (P,) codes (NaN: simply supported),
+        ``bearing_span`` (P,) m (NaN: the length),
         ``youngs_modulus`` and ``density`` (P, L).
     used : (P, L) array_like of bool, optional
         Default: the stack's present slots.
@@ -129,6 +131,10 @@ def whirl_of(stack, length, inputs, used=None) -> WhirlCheck | None:
     nan = np.full(shape, np.nan)
     modulus = inputs.get("youngs_modulus")
     density = inputs.get("density")
+    span = inputs.get("bearing_span")
+    if span is not None:
+        span = np.broadcast_to(np.asarray(span, dtype=float), (n_parts,))
+        length = np.where(np.isnan(span), np.broadcast_to(np.asarray(length, dtype=float), (n_parts,)), span)
     support = inputs.get("end_support")
     support = (np.full(n_parts, int(EndSupport.PINNED_PINNED)) if support is None else np.where(
         np.isnan(np.broadcast_to(np.asarray(support, dtype=float), (n_parts,))),

@@ -1,7 +1,8 @@
 """A part's loads beyond torsion from its table columns, and the layer properties they need.
 
-Per part: ``Bending moment``, ``Axial force`` and ``Supports`` (the end conditions of the whirl
-check; the duty's speed column serves the whirl check too). Per layer, from the layer's
+Per part: ``Bending moment``, ``Axial force``, ``Bearing span`` and ``Supports`` (the span and
+end conditions of the whirl check, the span being the length where blank; the duty's speed
+column serves the whirl check too). Per layer, from the layer's
 material: E, density, Poisson's ratio and factor of safety. All go to the core by the keys of
 `rate(..., inputs=)`; NaN where not given, where a criterion then sets no limit.
 """
@@ -38,7 +39,7 @@ def read_loads(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: list[str]
     """Read the bending moment, axial force and supports columns of the parts table."""
     n = len(rows)
     out = LoadColumns(bad=np.zeros(n, bool))
-    for key in ("bending_moment", "axial_force"):
+    for key in ("bending_moment", "axial_force", "bearing_span"):
         col = spot.column(key)
         if col is None:
             continue

@@ -171,6 +171,8 @@ LOAD_FIELDS: tuple[Field, ...] = (
        "bending moment", "moment", "bending", plausible=Plausible(0.0, 50e6, "N·m", 1.0)),
     _f("axial_force", "force", "axial force (+ tension)", "axial force", "axial load",
        "thrust", plausible=Plausible(-100e6, 100e6, "kN", 1e3, positive=False)),
+    _f("bearing_span", "length", "span between the bearings for the whirl check (blank: the length)",
+       "bearing span", "span", "whirl span", plausible=Plausible(1e-3, 200.0, "mm", _MM)),
     _f("end_support", "text", "end supports for the whirl check (blank: simply supported)",
        "supports", "end supports", "end support", "ends"),
 )

@@ -221,3 +221,13 @@ class TestWoundLayer:
         book = self._book("[±45")
         assert not book.rated[0]
         assert any(p.cell == "H2" and p.severity is Severity.ERROR for p in book.problems)
+
+
+def test_bearing_span_sets_the_whirl_span():
+    """A `Bearing span` column replaces the length in omega = (pi/L)^2 sqrt(EI/m) (Blevins, from memory)."""
+    head = PARTS_HEAD + ["Bearing span [mm]"]
+    rows = [["MPD-T-941", 3000, 500, 1000, None, None, None, "MPD test tube steel", 50, 40, 1500],
+            ["MPD-T-942", 3000, 500, 1000, None, None, None, "MPD test tube steel", 50, 40, None]]
+    book = rate_tables(_Book({"Materials": MATERIALS, "Parts": [head] + rows}))
+    got = np.asarray(book.whirl.critical_speed) * 30 / math.pi
+    assert got == pytest.approx([_critical_rpm(1.5), _critical_rpm(3.0)], rel=1e-9)
