@@ -16,6 +16,7 @@ Examples
 from typing import Any
 
 from . import _functions, _functions_bending, _functions_scalar, _functions_stress
+from ._functions import TWS_GOVERNING_LIMIT, TWS_GOVERNS, TWS_LAYER_CAPACITY, TWS_MARGIN, TWS_SHARE
 from ._functions_bending import (
     TWS_BENDING_STRESS,
     TWS_BUCKLING_TORQUE,
@@ -24,7 +25,6 @@ from ._functions_bending import (
     TWS_LAMINATE_E,
     TWS_LAMINATE_G,
 )
-from ._functions import TWS_GOVERNING_LIMIT, TWS_GOVERNS, TWS_LAYER_CAPACITY, TWS_MARGIN, TWS_SHARE
 from ._functions_scalar import TWS_ALLOWABLE, TWS_TORQUE_FROM_POWER
 from ._functions_stress import TWS_STRESS, TWS_STRESS_AT, TWS_TWIST_ANGLE, TWS_TWIST_PER_LENGTH
 from ._registry import CATEGORY, Argument, CellFunction, function_spec

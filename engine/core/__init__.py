@@ -24,6 +24,7 @@ from ._allowables import (
     allowable_shear,
 )
 from ._bending import SectionBending, area_moment, section_area, section_bending
+from ._beyond_torsion_criteria import whirl_of
 from ._bond import bond_capacity, bond_inputs_ok, bond_shear, bond_torque_capacity
 from ._buckling import (
     BUCKLING_KNOCK_DOWN,
@@ -46,7 +47,6 @@ from ._compatibility import (
     twist_per_length,
 )
 from ._criteria import AllowableRule, Criterion
-from ._beyond_torsion_criteria import whirl_of
 from ._criteria_list import CRITERIA, CriterionCheck, Section, governing_of
 from ._demand import torque_from_power
 from ._diagnoses import (

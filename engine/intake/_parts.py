@@ -17,8 +17,8 @@ from ._cellrefs import CellRefs
 from ._columns import error_problem, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
-from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, part_positions, row_labels
+from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._materials import MaterialSet
 from ._problems import Problem, Severity
 from ._tables import TableSpot

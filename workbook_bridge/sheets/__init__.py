@@ -8,7 +8,14 @@ from ._book_sheets import RESULT_SHEET_PREFIX, RESULT_SHEETS, add_rating_sheets
 from ._cells import CAUTIONS, Styled, caution_rows
 from ._comments import comment_map, fill_library_values, first_errors, write_comments
 from ._materials_sheet import MATERIALS_SHEET, materials_rows
-from ._results import READING_THE_RESULTS, RESULTS_SHEET, criteria_checked, criterion_counts, lowest_margins, results_rows
+from ._results import (
+    READING_THE_RESULTS,
+    RESULTS_SHEET,
+    criteria_checked,
+    criterion_counts,
+    lowest_margins,
+    results_rows,
+)
 from ._summary import SUMMARY_SHEET, SummaryLayout, summary_rows
 from ._warnings import WARNINGS_SHEET, add_warnings_sheet, warnings_rows
 
