@@ -74,6 +74,7 @@ KINDS: tuple[str, ...] = (
     "angle_per_length",
     "density",
     "dimensionless",
+    "force",
 )
 
 _KIND_PHRASE: Mapping[str, str] = MappingProxyType(
@@ -87,6 +88,7 @@ _KIND_PHRASE: Mapping[str, str] = MappingProxyType(
         "angle_per_length": "an angle per length",
         "density": "a density",
         "dimensionless": "a plain number",
+        "force": "a force",
     }
 )
 
@@ -102,6 +104,7 @@ _SI_TARGET: Mapping[str, str] = MappingProxyType(
         "angle_per_length": "radian / meter",
         "density": "kilogram / meter ** 3",
         "dimensionless": "dimensionless",
+        "force": "newton",
     }
 )
 
@@ -125,6 +128,8 @@ _DISPLAY: Mapping[tuple[str, str], str] = MappingProxyType(
         ("density", "US"): "lb/in³",
         ("dimensionless", "SI"): "",
         ("dimensionless", "US"): "",
+        ("force", "SI"): "kN",
+        ("force", "US"): "lbf",
     }
 )
 
@@ -491,9 +496,11 @@ def _check_kind(text: str, parsed: _Parsed, kind: str) -> UnitProblem | None:
         "angle_per_length": "a twist per length",
         "density": "a density",
         "dimensionless": "a plain number",
+        "force": "a force",
     }[kind]
-    if parsed.mass_pound and kind in ("torque", "stress", "power"):
+    if parsed.mass_pound and kind in ("torque", "stress", "power", "force"):
         advice = {
+            "force": "for a force write 'lbf', 'N' or 'kN'",
             "torque": "for a torque write 'lbf·in' or 'lbf·ft'",
             "stress": "for a stress write 'psi', 'ksi' or 'lbf/in²'",
             "power": "for a power write 'hp' or 'lbf·ft/s'",

@@ -15,8 +15,16 @@ Examples
 
 from typing import Any
 
-from . import _functions, _functions_scalar, _functions_sizing, _functions_stress
+from . import _functions, _functions_bending, _functions_scalar, _functions_sizing, _functions_stress
 from ._functions import TWS_GOVERNING_LIMIT, TWS_GOVERNS, TWS_LAYER_CAPACITY, TWS_MARGIN, TWS_SHARE
+from ._functions_bending import (
+    TWS_BENDING_STRESS,
+    TWS_BUCKLING_TORQUE,
+    TWS_COMBINED_STRESS,
+    TWS_CRITICAL_SPEED,
+    TWS_LAMINATE_E,
+    TWS_LAMINATE_G,
+)
 from ._functions_scalar import TWS_ALLOWABLE, TWS_TORQUE_FROM_POWER
 from ._functions_sizing import TWS_RESTORE_SLEEVE, TWS_SIZE_FOR, TWS_STOCK_SIZE
 from ._functions_stress import TWS_STRESS, TWS_STRESS_AT, TWS_TWIST_ANGLE, TWS_TWIST_PER_LENGTH
@@ -27,12 +35,14 @@ __all__ = [
     "TWS_SHARE", "TWS_LAYER_CAPACITY", "TWS_GOVERNING_LIMIT", "TWS_GOVERNS", "TWS_MARGIN", "TWS_STRESS",
     "TWS_STRESS_AT", "TWS_TWIST_ANGLE", "TWS_TWIST_PER_LENGTH", "TWS_TORQUE_FROM_POWER", "TWS_ALLOWABLE",
     "TWS_SIZE_FOR", "TWS_STOCK_SIZE", "TWS_RESTORE_SLEEVE",
+    "TWS_BENDING_STRESS", "TWS_COMBINED_STRESS", "TWS_CRITICAL_SPEED", "TWS_LAMINATE_G", "TWS_LAMINATE_E",
+    "TWS_BUCKLING_TORQUE",
     "registry", "list_functions", "CellFunction", "Argument", "CATEGORY",
 ]
 
 
 #: The modules of cell functions, in the order the hosts list them; a new module adds one entry.
-_MODULES = (_functions, _functions_stress, _functions_scalar, _functions_sizing)
+_MODULES = (_functions, _functions_stress, _functions_scalar, _functions_sizing, _functions_bending)
 
 
 def registry() -> tuple[CellFunction, ...]:

@@ -24,6 +24,7 @@ from ._allowables import (
     allowable_shear,
 )
 from ._bending import SectionBending, area_moment, section_area, section_bending
+from ._beyond_torsion_criteria import whirl_of
 from ._bond import bond_capacity, bond_inputs_ok, bond_shear, bond_torque_capacity
 from ._buckling import (
     BUCKLING_KNOCK_DOWN,
@@ -260,6 +261,7 @@ __all__ = [
     "whirl_reserve",
     "whirl_gate_capacity",
     "WhirlCheck",
+    "whirl_of",
     "whirl_check",
     # laminates
     "PlySet",

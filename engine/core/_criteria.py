@@ -22,6 +22,14 @@ class Criterion(IntEnum):
     """The total twist over the length reaches its limit."""
     TWIST_PER_LENGTH = 3
     """The twist per unit length reaches its limit."""
+    COMBINED_STRESS = 4
+    """A layer's combined bending (and axial) and torsional stress reaches its allowable,
+    the bending held at its given value; the governing layer says which."""
+    WHIRL = 5
+    """The operating speed is above the allowed fraction of the first bending critical speed
+    (a gate: capacity 0 when it fails, +inf when it passes)."""
+    TORSIONAL_BUCKLING = 6
+    """The thin wall buckles in torsion (over its factor of safety)."""
 
 
 class AllowableRule(IntEnum):

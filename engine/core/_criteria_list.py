@@ -18,6 +18,7 @@ from dataclasses import dataclass, field
 import numpy as np
 from numpy.typing import NDArray
 
+from ._beyond_torsion_criteria import buckling_capacity, combined_stress_capacity, whirl_capacity
 from ._criteria import Criterion
 
 __all__ = ["Section", "CriterionCheck", "CRITERIA", "governing_of"]
@@ -107,6 +108,9 @@ CRITERIA: tuple[CriterionCheck, ...] = (
     CriterionCheck(Criterion.LAYER_STRESS, True, _layer_stress),
     CriterionCheck(Criterion.TWIST_ANGLE, False, _twist_angle),
     CriterionCheck(Criterion.TWIST_PER_LENGTH, False, _twist_per_length),
+    CriterionCheck(Criterion.COMBINED_STRESS, True, combined_stress_capacity),
+    CriterionCheck(Criterion.WHIRL, False, whirl_capacity),
+    CriterionCheck(Criterion.TORSIONAL_BUCKLING, False, buckling_capacity),
 )
 
 

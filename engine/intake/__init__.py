@@ -13,6 +13,7 @@ from ._book import TABLE_NAMES, BookRating, TableSource, rate_tables
 from ._columns import cell_value, describe_kind, header_factor
 from ._flag_words import problems_from_rating
 from ._grid import SheetGrid, cell_ref, column_letter, parse_ref
+from ._layup import LayupNotationError, parse_layup
 from ._materials import FilledCell, MaterialSet, ResolvedMaterial, read_materials
 from ._parts import PartsInput, read_layer_table_parts, read_parts
 from ._problems import Problem, Severity, stops
@@ -47,6 +48,7 @@ from ._words import (
 )
 
 __all__ = [
+    "parse_layup", "LayupNotationError",
     # problems
     "Problem", "Severity", "stops",
     # the schema

@@ -13,7 +13,7 @@ from pathlib import Path
 from typing import Protocol
 
 import numpy as np
-from twistshare.engine.core import Rating, rate
+from twistshare.engine.core import Rating, WhirlCheck, rate, whirl_of
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.units import si_factor
 
@@ -69,6 +69,7 @@ class BookRating:
     layers_spot: TableSpot | None = None
     materials_spot: TableSpot | None = None
     sizing: BookSizing | None = None  # only when some part asks to be sized
+    whirl: WhirlCheck | None = None  # first critical speed and speed ratio, where a speed is given
 
 
 def _spot(book: TableSource, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -181,5 +182,6 @@ def rate_tables(book: TableSource) -> BookRating:
     if request is not None:  # sizing work only when a part asks
         result.sizing = size_parts(parts.stack(), parts.duty(), request, result.rated)
         findings.extend(sizing_problems(result.sizing, parts.ids))
+    result.whirl = whirl_of(parts.stack(), parts.length, parts.inputs)
     anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

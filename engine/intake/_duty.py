@@ -32,6 +32,7 @@ class DutyColumns:
     source: list[str]  # "torque", "power" or "none"
     bad: np.ndarray
     cells: CellRefs
+    speed: np.ndarray | None = None  # rad/s, as given (the whirl check uses it with a torque too)
 
 
 def read_duty(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: list[str], who,
@@ -95,4 +96,5 @@ def read_duty(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: list[str],
             Severity.ERROR, grid.name, at("torque", i) or at("power", i),
             f"part {ids[i]}: no duty: give a torque, or a power and a speed", part=ids[i], code="missing"))
     bad |= no_duty
-    return DutyColumns(t_out, length, vals("twist_limit_angle"), vals("twist_limit_per_length"), source, bad, cells)
+    return DutyColumns(t_out, length, vals("twist_limit_angle"), vals("twist_limit_per_length"), source, bad, cells,
+                       speed)

@@ -22,6 +22,7 @@ from ._problems import Problem, Severity
 from ._schema import MATERIAL_FIELDS
 from ._tables import TableSpot
 from ._words import RULE_CHOICES, material_key, rule_from_text
+from ._wound_layers import wound_layer
 
 __all__ = ["ResolvedMaterial", "FilledCell", "MaterialSet", "read_materials"]
 
@@ -143,6 +144,9 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
     rule_col = spot.column("rule")
     rules = read_text(grid, rule_col.index, rows) if rule_col else [None] * len(rows)
     key_col = spot.column("keyway")
+    layup_col, ply_set_col = spot.column("layup"), spot.column("ply_set")
+    layups = read_text(grid, layup_col.index, rows) if layup_col else [None] * len(rows)
+    ply_sets = read_text(grid, ply_set_col.index, rows) if ply_set_col else [None] * len(rows)
 
     first_seen: dict[str, str] = {}
     # The first unusable cell of each row, worded: the row's problem says what it is.
@@ -196,6 +200,22 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
                 if k in cells:
                     out.filled.append(FilledCell(grid.name, cells[k], lib.name, k, vals[k],
                                                  lib.sources.get(k, "built-in library")))
+        wound = wound_layer(name, vals, layups[i], ply_sets[i]) if problem is None else None
+        if wound is not None and wound.problem is not None:
+            problem = wound.problem
+            findings.append(Problem(Severity.ERROR, grid.name, cells.get(wound.field, here), wound.problem,
+                                    code="laminate"))
+        elif wound is not None:
+            replaced = [w for k, w in (("shear_modulus", "G"), ("youngs_modulus", "E")) if k in given]
+            findings.append(Problem(
+                Severity.WARNING if replaced else Severity.NOTE, grid.name, cells.get("layup", here),
+                wound.note + (f"; the row's own {' and '.join(replaced)} are not used" if replaced else ""),
+                code="laminate"))
+            vals["shear_modulus"], vals["youngs_modulus"] = wound.shear_modulus, wound.youngs_modulus
+            vals["poisson_ratio"] = wound.poisson_ratio
+            if math.isnan(vals.get("density", math.nan)):
+                vals["density"] = wound.density
+            given = given | {"shear_modulus"}
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
         derive = math.isnan(g) and "shear_modulus" not in given and not (math.isnan(e) or math.isnan(nu))

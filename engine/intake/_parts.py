@@ -18,6 +18,7 @@ from ._columns import error_problem, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
 from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, part_positions, row_labels
+from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._materials import MaterialSet
 from ._problems import Problem, Severity
 from ._tables import TableSpot
@@ -148,6 +149,8 @@ def read_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, finding
         nan = np.full(n, np.nan)
         duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, rows))
     error |= duty.bad
+    loads = read_loads(grid, spot, rows, ids, who, findings, header_seen, duty.cells)
+    error |= loads.bad
     if layers_grid is not None and layers_spot is not None:
         layers = layers_from_rows(layers_grid, layers_spot, ids, findings)
     else:
@@ -156,7 +159,7 @@ def read_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, finding
     if layers_grid is not None:
         grids[layers_grid.name] = layers_grid
     return _assemble(grid.name, ids, rows, duty, layers, materials, grids, findings, error, need_allowable,
-                     _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot)
+                     _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot, loads)
 
 
 def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, findings: list[Problem],
@@ -175,22 +178,33 @@ def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: Material
 
 def _assemble(sheet: str, ids: list[str], rows: list[int], duty: DutyColumns, layers: LayerArrays,
               materials: MaterialSet, grids: dict[str, SheetGrid], findings: list[Problem], error: np.ndarray,
-              need_allowable: bool, system: str, layers_spot: TableSpot | None) -> PartsInput:
+              need_allowable: bool, system: str, layers_spot: TableSpot | None,
+              loads: LoadColumns | None = None) -> PartsInput:
     error = error | layers.bad
-    g, tau, rule = _materials_of_layers(layers, ids, materials, grids, sheet, findings, error, need_allowable)
+    props: dict[str, np.ndarray] = {}
+    g, tau, rule = _materials_of_layers(layers, ids, materials, grids, sheet, findings, error, need_allowable,
+                                        props)
+    inputs = dict(loads.inputs) if loads is not None else {}
+    if duty.speed is not None and not np.isnan(duty.speed).all():
+        inputs["speed"] = duty.speed
+    inputs.update(props)
+    if len(inputs) > len(props):
+        load_problems(inputs, layers.present, layers.materials, ids, duty.cells, sheet, findings, error,
+                      duty.source)
     if layers_spot is not None and system == "SI":
         system = _system_of(layers_spot, ("outer_diameter",))
     return PartsInput(
         sheet, ids, rows, layers.outer_diameter, layers.inner_diameter, g, tau, layers.kt, layers.present,
         duty.torque, duty.length, duty.twist_limit_angle, duty.twist_limit_per_length, error,
         layers.materials, duty.source, layers.cells, duty.cells, system, rule,
-        layers.source_part, layers.source_slot,
+        layers.source_part, layers.source_slot, inputs,
     )
 
 
 def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: MaterialSet,
                          grids: dict[str, SheetGrid], sheet: str, findings: list[Problem], error: np.ndarray,
-                         need_allowable: bool) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+                         need_allowable: bool, props: dict[str, np.ndarray] | None = None
+                         ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Each layer's G, allowable and rule: its own values, else its material's (looked up once)."""
     present, mats, cells = layers.present, layers.materials, layers.cells
     P, L = present.shape
@@ -220,7 +234,7 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
                                 part=ids[i], layer=j + 1, code="missing"))
     if named:
         _named_materials(named, named_i, named_j, layers, ids, materials, sheet, findings,
-                         error, need_allowable, g, tau, rule)
+                         error, need_allowable, g, tau, rule, props)
     own_tau = ~np.isnan(layers.allowable_shear)
     tau[own_tau] = layers.allowable_shear[own_tau]
     rule[own_tau] = 0  # AllowableRule.GIVEN: the layer's own allowable
@@ -231,7 +245,8 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
 
 def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: LayerArrays, ids: list[str],
                      materials: MaterialSet, sheet: str, findings: list[Problem], error: np.ndarray,
-                     need_allowable: bool, g: np.ndarray, tau: np.ndarray, rule: np.ndarray) -> None:
+                     need_allowable: bool, g: np.ndarray, tau: np.ndarray, rule: np.ndarray,
+                     props: dict[str, np.ndarray] | None = None) -> None:
     # Each distinct name is looked up once; the arrays are filled through the inverse index.
     cells, kt = layers.cells, layers.kt
     position: dict[str, int] = {}
@@ -254,6 +269,10 @@ def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: L
     g[ni[ok], nj[ok]] = pick("shear_modulus")[inverse][ok]
     tau[ni[ok], nj[ok]] = pick("allowable_shear")[inverse][ok]
     rule[ni[ok], nj[ok]] = np.array([int(m.rule) if m is not None else 0 for m, _ in found_any])[inverse][ok]
+    if props is not None:  # the properties the criteria beyond torsion read, NaN where none
+        for key in LAYER_PROPERTY_KEYS:
+            values = props[key] = np.full(g.shape, np.nan)
+            values[ni[ok], nj[ok]] = pick(key)[inverse][ok]
     for k in np.flatnonzero(~ok):
         i, j = int(ni[k]), int(nj[k])
         why = found_any[inverse[k]][1] or found_need[inverse[k]][1]

@@ -33,6 +33,8 @@ __all__ = [
     "LAYER_ROW_FIELDS",
     "DUTY_FIELDS",
     "SIZING_FIELDS",
+    "LOAD_FIELDS",
+    "PLY_FIELDS",
     "field_by_key",
     "match_header",
     "match_layer_group_header",
@@ -123,6 +125,25 @@ MATERIAL_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(500.0, 25000.0, "kg/m³", 1.0)),
 )
 
+# Ply data of a fibre-wound layer and its layup (classical lamination theory). Ranges are common
+# practice for glass, carbon and aramid plies in epoxy.
+PLY_FIELDS: tuple[Field, ...] = (
+    _f("ply_e1", "stress", "ply modulus along the fibres E1", "ply e1", "e1",
+       plausible=Plausible(1e9, 600e9, "GPa", _GPA)),
+    _f("ply_e2", "stress", "ply modulus across the fibres E2", "ply e2", "e2",
+       plausible=Plausible(0.5e9, 100e9, "GPa", _GPA)),
+    _f("ply_g12", "stress", "ply in-plane shear modulus G12", "ply g12", "g12",
+       plausible=Plausible(0.3e9, 50e9, "GPa", _GPA)),
+    _f("ply_nu12", "dimensionless", "ply major Poisson's ratio nu12", "ply nu12", "nu12", "ply ν12",
+       plausible=Plausible(0.0, 0.6, "", 1.0, positive=False)),
+    _f("ply_thickness", "length", "ply thickness", "ply thickness", "ply t",
+       plausible=Plausible(0.01e-3, 5e-3, "mm", _MM)),
+    _f("layup", "text", "layup in laminate notation, e.g. [±45]s", "layup", "lay up", "stacking"),
+    _f("ply_set", "text", "a ply set of the built-in ply library", "ply set", "ply material"),
+)
+# A materials row may describe a fibre-wound layer by its plies: G and E then come from CLT.
+MATERIAL_FIELDS = MATERIAL_FIELDS + PLY_FIELDS
+
 _PART_ID = _f("part", "text", "part id", "part", "part id", "part number", "part no", "part no.",
               blank=Blank.REQUIRED)
 
@@ -159,7 +180,20 @@ SIZING_FIELDS: tuple[Field, ...] = (
     _f("outer_layers", "text", "outer layers (move or fixed)", "outer layers", "layers outside"),
 )
 
-PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS + SIZING_FIELDS
+# Loads beyond torsion, per part: bending and axial force at the section checked, how the
+# ends are held for the whirl check (the speed column above serves the whirl check too).
+LOAD_FIELDS: tuple[Field, ...] = (
+    _f("bending_moment", "torque", "bending moment (resultant, at the section checked)",
+       "bending moment", "moment", "bending", plausible=Plausible(0.0, 50e6, "N·m", 1.0)),
+    _f("axial_force", "force", "axial force (+ tension)", "axial force", "axial load",
+       "thrust", plausible=Plausible(-100e6, 100e6, "kN", 1e3, positive=False)),
+    _f("bearing_span", "length", "span between the bearings for the whirl check (blank: the length)",
+       "bearing span", "span", "whirl span", plausible=Plausible(1e-3, 200.0, "mm", _MM)),
+    _f("end_support", "text", "end supports for the whirl check (blank: simply supported)",
+       "supports", "end supports", "end support", "ends"),
+)
+
+PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS + LOAD_FIELDS + SIZING_FIELDS
 
 LAYER_FIELDS: tuple[Field, ...] = (
     # A material name, or (in a cell block) the layer's shear modulus G written with its unit.
@@ -188,7 +222,7 @@ LAYER_ROW_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1.0, 10_000.0, "", 1.0, positive=False)),
 ) + LAYER_FIELDS
 
-_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS + SIZING_FIELDS}
+_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS + SIZING_FIELDS + LOAD_FIELDS + PLY_FIELDS}
 
 
 def field_by_key(key: str) -> Field:

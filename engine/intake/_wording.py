@@ -25,13 +25,17 @@ CAUTION_LINES: tuple[str, ...] = (
 
 #: What the rating covers, beside the caution.
 METHOD_LINE = ("Method: layers twist as one (full connection along the length), elastic stress only, "
-               "static torque; fatigue, bending, fits and bonds are not checked here.")
+               "static torque; static bending, axial force, whirl and thin-wall buckling where their inputs are "
+               "given; fatigue, fits and bonds are not checked here.")
 
 #: What governs, as results, the summary and ``TWS_GOVERNS`` write it; ``{layer}`` is 1-based.
 CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.LAYER_STRESS: "layer {layer} stress",
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
+    Criterion.COMBINED_STRESS: "layer {layer} combined stress (bending held at its given value)",
+    Criterion.WHIRL: "whirl: speed above 70 % of the first critical",
+    Criterion.TORSIONAL_BUCKLING: "torsional buckling of the wall",
 })
 
 #: The criterion as a noun, for counts ("governed by a layer's shear stress: 31 parts").
@@ -39,6 +43,9 @@ CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.LAYER_STRESS: "a layer's shear stress",
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
+    Criterion.COMBINED_STRESS: "a layer's combined stress, bending held fixed",
+    Criterion.WHIRL: "whirl gate (0: too close to the first critical)",
+    Criterion.TORSIONAL_BUCKLING: "torsional buckling",
 })
 
 

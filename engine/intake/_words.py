@@ -10,7 +10,7 @@ import re
 from collections.abc import Mapping
 from types import MappingProxyType
 
-from twistshare.engine.core import AllowableRule, OuterLayers, SizedDimension, normalise_name
+from twistshare.engine.core import AllowableRule, EndSupport, OuterLayers, SizedDimension, normalise_name
 
 __all__ = [
     "header_key",
@@ -33,6 +33,9 @@ __all__ = [
     "outer_layers_from_text",
     "OUTER_LAYERS_WORDS",
     "OUTER_LAYERS_CHOICES",
+    "SUPPORT_WORDS",
+    "SUPPORT_CHOICES",
+    "support_from_text",
 ]
 
 _HEADER_RUNS = re.compile(r"[\s_\-]+")
@@ -231,3 +234,23 @@ def outer_layers_from_text(text: object) -> OuterLayers | None:
     if not isinstance(text, str):
         return None
     return _OUTER_LAYER_NAMES.get(header_key(text))
+# How a shaft's ends are held in bending, for the whirl check. Blank: simply supported, the
+# usual reading of a shaft in two bearings (common practice). Our own words; the end conditions
+# themselves are the textbook beam cases.
+SUPPORT_WORDS: Mapping[str, EndSupport] = MappingProxyType({
+    "simply supported": EndSupport.PINNED_PINNED, "simple": EndSupport.PINNED_PINNED,
+    "pinned": EndSupport.PINNED_PINNED, "pinned pinned": EndSupport.PINNED_PINNED,
+    "two bearings": EndSupport.PINNED_PINNED,
+    "clamped": EndSupport.FIXED_FIXED, "fixed": EndSupport.FIXED_FIXED,
+    "fixed fixed": EndSupport.FIXED_FIXED, "clamped both ends": EndSupport.FIXED_FIXED,
+    "overhung": EndSupport.FIXED_FREE, "cantilever": EndSupport.FIXED_FREE,
+    "fixed free": EndSupport.FIXED_FREE, "clamped free": EndSupport.FIXED_FREE,
+    "fixed pinned": EndSupport.FIXED_PINNED, "clamped pinned": EndSupport.FIXED_PINNED,
+    "propped": EndSupport.FIXED_PINNED,
+})
+SUPPORT_CHOICES = "simply supported (blank), clamped, overhung, clamped-pinned"
+
+
+def support_from_text(text: object) -> EndSupport | None:
+    """The end condition a support word names (``"overhung"``), or None."""
+    return SUPPORT_WORDS.get(header_key(str(text)).replace("/", " ").replace("–", " ").strip())

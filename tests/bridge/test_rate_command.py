@@ -172,8 +172,16 @@ class TestRateCatalogue:
             r = exp["rating"]
             assert got["Status"] in ("ok", "FAILS"), pid
             assert got["Demand torque [N·m]"] == pytest.approx(exp["torque"], rel=1e-9), pid
-            assert got["Governing limit [N·m]"] == pytest.approx(float(r.governing_capacity[0]), rel=1e-9), pid
-            assert got["Margin [%]"] == pytest.approx(100 * float(r.margin[0]), rel=1e-9, abs=1e-9), pid
+            if str(got["Governs"]).startswith("whirl"):
+                # The whirl gate (a part run above 70 % of its first critical, common practice)
+                # has no torque capacity: 0, margin -100 %; its numbers are checked in
+                # tests/intake/test_beyond_torsion.py. The torsion figures below still hold.
+                assert got["Governing limit [N·m]"] == 0.0 and got["Status"] == "FAILS", pid
+                assert got["Whirl ratio (speed / first critical)"] > 0.70, pid
+            else:
+                assert got["Governing limit [N·m]"] == pytest.approx(float(r.governing_capacity[0]), rel=1e-9), pid
+                assert got["Margin [%]"] == pytest.approx(100 * float(r.margin[0]), rel=1e-9, abs=1e-9), pid
+                assert (got["Status"] == "FAILS") == (float(r.margin[0]) < 0), pid
             assert got["ΣGJ [N·m²]"] == pytest.approx(float(r.sum_gj[0]), rel=1e-9), pid
             assert got["Twist angle [°]"] == pytest.approx(math.degrees(float(r.twist_angle[0])), rel=1e-9), pid
             for j in range(exp["layers"]):
@@ -184,7 +192,6 @@ class TestRateCatalogue:
                     float(r.stress_outer[0, j]) / 1e6, rel=1e-9), (pid, n)
                 assert got[f"L{n} utilisation with Kt [%]"] == pytest.approx(
                     100 * float(r.utilisation[0, j]), rel=1e-9), (pid, n)
-            assert (got["Status"] == "FAILS") == (float(r.margin[0]) < 0), pid
 
     def test_bad_parts_have_no_numbers(self, rated):
         _, rows = _results(rated["out"])

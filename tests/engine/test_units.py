@@ -531,7 +531,7 @@ class TestRegistryAndProblem:
 
     def test_kinds(self):
         assert units.KINDS == ("length", "stress", "torque", "power", "speed", "angle",
-                               "angle_per_length", "density", "dimensionless")
+                               "angle_per_length", "density", "dimensionless", "force")
 
 
 class TestNumberUnitSplitRegressions:
@@ -551,3 +551,20 @@ class TestNumberUnitSplitRegressions:
         with pytest.raises(UnitProblem) as exc:
             parse_value("1 200 N·m", "torque")
         assert "spaces" in str(exc.value)
+
+
+class TestForceKind:
+    """Force units (axial force) against pint's own definitions."""
+
+    @pytest.mark.parametrize("text, pint_unit", [("N", "newton"), ("kN", "kilonewton"), ("lbf", "force_pound"),
+                                                 ("kip", "kip"), ("MN", "meganewton")])
+    def test_factor_matches_pint(self, text, pint_unit):
+        import pint
+
+        expected = pint.UnitRegistry().Quantity(1.0, pint_unit).to("newton").magnitude
+        assert si_factor(text, "force") == pytest.approx(expected, rel=1e-12)
+
+    @pytest.mark.parametrize("text", ["lb", "N·m", "kg"])
+    def test_wrong_dimension_refused(self, text):
+        with pytest.raises(UnitProblem, match="expected a force"):
+            si_factor(text, "force")

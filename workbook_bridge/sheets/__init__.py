@@ -8,7 +8,14 @@ from ._book_sheets import RESULT_SHEET_PREFIX, RESULT_SHEETS, add_rating_sheets
 from ._cells import CAUTIONS, Styled, caution_rows
 from ._comments import comment_map, fill_library_values, first_errors, write_comments
 from ._materials_sheet import MATERIALS_SHEET, materials_rows
-from ._results import READING_THE_RESULTS, RESULTS_SHEET, criterion_counts, lowest_margins, results_rows
+from ._results import (
+    READING_THE_RESULTS,
+    RESULTS_SHEET,
+    criteria_checked,
+    criterion_counts,
+    lowest_margins,
+    results_rows,
+)
 from ._sizing_sheet import SIZING_SHEET, sizing_rows, sizing_summary_rows
 from ._summary import SUMMARY_SHEET, SummaryLayout, summary_rows
 from ._warnings import WARNINGS_SHEET, add_warnings_sheet, warnings_rows
@@ -17,6 +24,6 @@ __all__ = [
     "RESULT_SHEETS", "RESULT_SHEET_PREFIX", "RESULTS_SHEET", "SUMMARY_SHEET", "WARNINGS_SHEET",
     "MATERIALS_SHEET", "add_rating_sheets", "add_warnings_sheet", "write_comments", "comment_map",
     "first_errors", "fill_library_values", "results_rows", "summary_rows", "SummaryLayout",
-    "warnings_rows", "materials_rows", "lowest_margins", "criterion_counts", "READING_THE_RESULTS",
+    "warnings_rows", "materials_rows", "lowest_margins", "criterion_counts", "criteria_checked", "READING_THE_RESULTS",
     "CAUTIONS", "Styled", "caution_rows", "SIZING_SHEET", "sizing_rows", "sizing_summary_rows",
 ]

@@ -16,12 +16,15 @@ from twistshare.engine.units import si_factor
 
 from ._cells import Styled
 
-__all__ = ["READING_THE_RESULTS", "results_rows", "lowest_margins", "criterion_counts", "RESULTS_SHEET"]
+__all__ = ["READING_THE_RESULTS", "results_rows", "lowest_margins", "criterion_counts", "criteria_checked",
+           "RESULTS_SHEET"]
 
 RESULTS_SHEET = "Twistshare results"
 
 # The three torsion criteria have columns of their own above; any other gets a capacity column.
 _TORSION = frozenset({Criterion.LAYER_STRESS, Criterion.TWIST_ANGLE, Criterion.TWIST_PER_LENGTH})
+# Whirl is a gate (0 or +inf), shown by its first critical speed and speed ratio instead.
+_NO_CAPACITY_COLUMN = _TORSION | {Criterion.WHIRL}
 
 READING_THE_RESULTS = (
     "Governing limit: the section torque at which the first criterion is reached (a layer's allowable "
@@ -75,8 +78,13 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
     # (the smallest over the layers for a criterion per layer), in the words of what governs.
     further = [] if r is None else [
         (c, values) for c, values in r.criterion_capacity.items()
-        if c not in _TORSION and np.isfinite(np.asarray(values, dtype=float)).any()]
+        if c not in _NO_CAPACITY_COLUMN and np.isfinite(np.asarray(values, dtype=float)).any()]
     header += [f"Capacity: {CRITERION_NOUNS[c]} [{tu}]" for c, _ in further]
+    whirl = getattr(book, "whirl", None)
+    if whirl is not None and not np.isfinite(np.asarray(whirl.speed_ratio, dtype=float)).any():
+        whirl = None
+    if whirl is not None:
+        header += ["First critical speed [rpm]", "Whirl ratio (speed / first critical)"]
     header.append("First problem")
     rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)
     nan = np.full(P, np.nan)
@@ -125,12 +133,17 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         with np.errstate(all="ignore"):
             per_part = np.nanmin(np.where(np.isnan(values), np.inf, values), axis=1) if values.ndim == 2 else values
         cols.append(_column(np.where(np.isinf(per_part), np.nan, per_part) / tf, rated))
+    if whirl is not None:
+        checked = rated & np.isfinite(np.asarray(whirl.speed_ratio, dtype=float))
+        cols.append(_column(np.asarray(whirl.critical_speed, dtype=float) * 30.0 / np.pi, checked))
+        cols.append(_column(np.asarray(whirl.speed_ratio, dtype=float), checked))
+    n_whirl = 0 if whirl is None else 2
     cols.append(errors)
     rows = itertools.chain([[Styled(h, "header") for h in header]], zip(*cols))
-    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * len(further) + [60]
+    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * (len(further) + n_whirl) + [60]
     styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
               "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L \
-        + ["fixed1"] * len(further)
+        + ["fixed1"] * len(further) + ["fixed1", "fixed3"][:n_whirl]
     return rows, widths, styles
 
 
@@ -156,6 +169,35 @@ def criterion_counts(book) -> list[tuple[str, int]]:
         if c == Criterion.NONE:
             continue
         n = int((crit == int(c)).sum())
+        if n:
+            out.append((CRITERION_NOUNS[c], n))
+    return out
+
+
+def criteria_checked(book) -> list[tuple[str, int]]:
+    """(criterion, number of rated parts checked against it) for each criterion beyond torsion.
+
+    A part is checked where the criterion gave it a finite capacity; for the whirl gate, where
+    a speed and every layer's E and density were known.
+    """
+    r = book.rating
+    if r is None or book.rated is None:
+        return []
+    rated = np.asarray(book.rated, bool)
+    out = []
+    for c, values in r.criterion_capacity.items():
+        if c in _TORSION:
+            continue
+        if c == Criterion.WHIRL:
+            whirl = getattr(book, "whirl", None)
+            if whirl is None:
+                continue
+            checked = np.isfinite(np.asarray(whirl.speed_ratio, dtype=float)) & np.asarray(whirl.valid, bool)
+        else:
+            values = np.asarray(values, dtype=float)
+            finite = np.isfinite(values)
+            checked = finite.any(axis=1) if values.ndim == 2 else finite
+        n = int((checked & rated).sum())
         if n:
             out.append((CRITERION_NOUNS[c], n))
     return out

@@ -12,7 +12,7 @@ from twistshare.engine.intake import RULE_FORMULAS, Display, Problem, Severity, 
 
 from .. import __version__
 from ._cells import CAUTIONS, Styled
-from ._results import READING_THE_RESULTS, criterion_counts, lowest_margins
+from ._results import READING_THE_RESULTS, criteria_checked, criterion_counts, lowest_margins
 from ._sizing_sheet import sizing_summary_rows
 
 __all__ = ["SummaryLayout", "summary_rows", "SUMMARY_SHEET"]
@@ -79,6 +79,12 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
         rows.append([text, count])
     rows.append([])
     rows.extend(sizing_summary_rows(book, display))
+    checked = criteria_checked(book)
+    if checked:
+        rows.append([Styled("Checked beyond torsion", "header"), Styled("Parts", "header")])
+        for text, count in checked:
+            rows.append([text, count])
+        rows.append([])
     margins_block = None
     low = lowest_margins(book, 10)
     if low:

@@ -4,10 +4,10 @@ Daniel and Ishai, Engineering Mechanics of Composite Materials; from memory) rea
 import doctest
 
 import pytest
-import twistshare.engine.layup_notation as notation
+import twistshare.engine.intake._layup as notation
 from hypothesis import given, settings
 from hypothesis import strategies as st
-from twistshare.engine.layup_notation import LayupNotationError, parse_layup
+from twistshare.engine.intake._layup import LayupNotationError, parse_layup
 
 
 def test_docstring_examples():
