@@ -22,6 +22,12 @@ class Criterion(IntEnum):
     """The total twist over the length reaches its limit."""
     TWIST_PER_LENGTH = 3
     """The twist per unit length reaches its limit."""
+    INTERFACE_SLIP = 4
+    """A fitted interface slips; the governing layer is the outer member of the interface."""
+    BOND_SHEAR = 5
+    """A bond's average shear reaches its allowable; the layer is the bond's outer member."""
+    FIT_STRESS = 6
+    """A layer of a fitted part reaches ``S_y / FS`` under the fit's stresses and torsion."""
 
 
 class AllowableRule(IntEnum):

@@ -53,6 +53,9 @@ class Section:
     stress_outer: NDArray[np.float64] | None = None
     stress_inner: NDArray[np.float64] | None = None
     inputs: Mapping[str, NDArray[np.float64]] = field(default_factory=dict)
+    # Work several criteria share (the interfaces are rated once for slip, bond and fit
+    # stress), kept for this one section only.
+    shared: dict[str, object] = field(default_factory=dict, compare=False, repr=False)
 
     def input(self, key: str, per_layer: bool = False) -> NDArray[np.float64] | None:
         """A further input by name, or None where the caller gave none."""
@@ -102,11 +105,16 @@ def _twist_per_length(section: Section) -> NDArray[np.float64]:
     return capacity
 
 
+from . import _interface_criteria  # noqa: E402  (needs Section, defined above)
+
 #: Every criterion, in the order ties are broken (lowest first).
 CRITERIA: tuple[CriterionCheck, ...] = (
     CriterionCheck(Criterion.LAYER_STRESS, True, _layer_stress),
     CriterionCheck(Criterion.TWIST_ANGLE, False, _twist_angle),
     CriterionCheck(Criterion.TWIST_PER_LENGTH, False, _twist_per_length),
+    CriterionCheck(Criterion.INTERFACE_SLIP, True, _interface_criteria.slip),
+    CriterionCheck(Criterion.BOND_SHEAR, True, _interface_criteria.bond),
+    CriterionCheck(Criterion.FIT_STRESS, True, _interface_criteria.fit_stress),
 )
 
 

@@ -19,6 +19,7 @@ from twistshare.engine.units import si_factor
 
 from ._flag_words import problems_from_rating
 from ._grid import SheetGrid
+from ._interface_inputs import interface_problems
 from ._materials import MaterialSet, read_materials
 from ._parts import PartsInput, read_parts
 from ._problems import Problem, Severity
@@ -169,6 +170,8 @@ def rate_tables(book: TableSource) -> BookRating:
     rating = rate(parts.stack(), parts.duty(), inputs=parts.inputs)
     result.rating = rating
     findings.extend(problems_from_rating(rating, parts, ok))
-    result.rated = ok & np.asarray(rating.valid, dtype=bool)
+    interface_findings, refused = interface_problems(rating, parts, ok & np.asarray(rating.valid, dtype=bool))
+    findings.extend(interface_findings)
+    result.rated = ok & np.asarray(rating.valid, dtype=bool) & ~refused
     anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

@@ -17,6 +17,7 @@ from ._cellrefs import CellRefs
 from ._columns import error_problem, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
+from ._interface_inputs import read_interface_inputs
 from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, part_positions, row_labels
 from ._materials import MaterialSet
 from ._problems import Problem, Severity
@@ -155,8 +156,10 @@ def read_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, finding
     grids = {grid.name: grid}
     if layers_grid is not None:
         grids[layers_grid.name] = layers_grid
-    return _assemble(grid.name, ids, rows, duty, layers, materials, grids, findings, error, need_allowable,
-                     _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot)
+    parts = _assemble(grid.name, ids, rows, duty, layers, materials, grids, findings, error, need_allowable,
+                      _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot)
+    read_interface_inputs(parts, grid, spot, materials, findings, header_seen, layers_grid, layers_spot)
+    return parts
 
 
 def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, findings: list[Problem],

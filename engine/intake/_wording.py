@@ -12,7 +12,8 @@ from types import MappingProxyType
 from twistshare.engine.core import Criterion
 from twistshare.engine.units import display_unit, si_factor
 
-__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "governs_text", "Display"]
+__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "BOND_CAUTION", "governs_text",
+           "Display"]
 
 #: The caution every output carries, one sentence a line.
 CAUTION_LINES: tuple[str, ...] = (
@@ -24,13 +25,18 @@ CAUTION_LINES: tuple[str, ...] = (
 
 #: What the rating covers, beside the caution.
 METHOD_LINE = ("Method: layers twist as one (full connection along the length), elastic stress only, "
-               "static torque; fatigue, bending, fits and bonds are not checked here.")
+               "static torque; fits and bonds are checked only where their inputs are given; fatigue and "
+               "bending are not checked here.")
 
 #: What governs, as results, the summary and ``TWS_GOVERNS`` write it; ``{layer}`` is 1-based.
 CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.LAYER_STRESS: "layer {layer} stress",
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
+    # {inner} and {layer}: the two layers of the interface, inner and outer member
+    Criterion.INTERFACE_SLIP: "slip of the fit between layers {inner} and {layer}",
+    Criterion.BOND_SHEAR: "average bond shear between layers {inner} and {layer}",
+    Criterion.FIT_STRESS: "layer {layer} fit and torsion stress",
 })
 
 #: The criterion as a noun, for counts ("governed by a layer's shear stress: 31 parts").
@@ -38,7 +44,15 @@ CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.LAYER_STRESS: "a layer's shear stress",
     Criterion.TWIST_ANGLE: "twist angle limit",
     Criterion.TWIST_PER_LENGTH: "twist per length limit",
+    Criterion.INTERFACE_SLIP: "slip of a fit",
+    Criterion.BOND_SHEAR: "average bond shear",
+    Criterion.FIT_STRESS: "a layer's fit and torsion stress",
 })
+
+#: The caution on the bond criterion, where a bond is rated.
+BOND_CAUTION = ("the bond is rated by its average shear T/(2π·r²·L); the shear peaks at the ends "
+                "of the bond well above the average, so the allowable must be one meant for the "
+                "average over a joint of this kind (the adhesive maker's data), not the peak")
 
 
 def governs_text(criterion: int, layer: int, material: str | None = None) -> str:
@@ -56,7 +70,7 @@ def governs_text(criterion: int, layer: int, material: str | None = None) -> str
     c = Criterion(int(criterion))
     if c == Criterion.NONE:
         return ""
-    text = CRITERION_WORDS[c].format(layer=layer + 1)
+    text = CRITERION_WORDS[c].format(layer=layer + 1, inner=layer)
     if layer >= 0 and material:
         text += f" ({material})"
     return text

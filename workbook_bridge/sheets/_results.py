@@ -12,6 +12,7 @@ import math
 import numpy as np
 from twistshare.engine.core import Criterion
 from twistshare.engine.intake import CRITERION_NOUNS, Display, governs_text
+from twistshare.engine.intake._words import LOAD_PATH_WORDS
 from twistshare.engine.units import si_factor
 
 from ._cells import Styled
@@ -77,6 +78,9 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         (c, values) for c, values in r.criterion_capacity.items()
         if c not in _TORSION and np.isfinite(np.asarray(values, dtype=float)).any()]
     header += [f"Capacity: {CRITERION_NOUNS[c]} [{tu}]" for c, _ in further]
+    load_path = parts.inputs.get("load_path")
+    if load_path is not None:
+        header.append("Load path")
     header.append("First problem")
     rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)
     nan = np.full(P, np.nan)
@@ -125,12 +129,15 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         with np.errstate(all="ignore"):
             per_part = np.nanmin(np.where(np.isnan(values), np.inf, values), axis=1) if values.ndim == 2 else values
         cols.append(_column(np.where(np.isinf(per_part), np.nan, per_part) / tf, rated))
+    if load_path is not None:
+        cols.append([LOAD_PATH_WORDS.get(int(x)) if x == x else None for x in np.asarray(load_path).tolist()])
     cols.append(errors)
     rows = itertools.chain([[Styled(h, "header") for h in header]], zip(*cols))
-    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * len(further) + [60]
+    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * len(further) \
+        + ([22] if load_path is not None else []) + [60]
     styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
               "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L \
-        + ["fixed1"] * len(further)
+        + ["fixed1"] * len(further) + ([None] if load_path is not None else [])
     return rows, widths, styles
 
 
