@@ -15,7 +15,7 @@ Examples
 
 from typing import Any
 
-from . import _functions
+from . import _functions, _functions_sleeves
 from ._functions import (
     TWS_ALLOWABLE,
     TWS_GOVERNING_LIMIT,
@@ -29,18 +29,27 @@ from ._functions import (
     TWS_TWIST_ANGLE,
     TWS_TWIST_PER_LENGTH,
 )
+from ._functions_sleeves import (
+    TWS_BOND_STRESS,
+    TWS_FIT_PRESSURE,
+    TWS_PLASTIC_TORQUE,
+    TWS_SLIP_TORQUE,
+    TWS_TORQUE_TWIST,
+)
 from ._registry import CATEGORY, Argument, CellFunction, function_spec
 
 __all__ = [
     "TWS_SHARE", "TWS_LAYER_CAPACITY", "TWS_GOVERNING_LIMIT", "TWS_GOVERNS", "TWS_STRESS", "TWS_STRESS_AT",
     "TWS_TWIST_ANGLE", "TWS_TWIST_PER_LENGTH", "TWS_MARGIN", "TWS_TORQUE_FROM_POWER", "TWS_ALLOWABLE",
+    "TWS_FIT_PRESSURE", "TWS_SLIP_TORQUE", "TWS_BOND_STRESS", "TWS_PLASTIC_TORQUE", "TWS_TORQUE_TWIST",
     "registry", "list_functions", "CellFunction", "Argument", "CATEGORY",
 ]
 
 
 def registry() -> tuple[CellFunction, ...]:
     """Every cell function as the hosts offer it, in a stable order (fresh on every call)."""
-    return tuple(function_spec(getattr(_functions, name)) for name in _functions.__all__)
+    return tuple(function_spec(getattr(module, name)) for module in (_functions, _functions_sleeves)
+                 for name in module.__all__)
 
 
 def list_functions() -> list[dict[str, Any]]:

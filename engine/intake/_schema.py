@@ -210,7 +210,19 @@ LAYER_ROW_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1.0, 10_000.0, "", 1.0, positive=False)),
 ) + LAYER_FIELDS
 
-_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS + INTERFACE_PART_FIELDS + INTERFACE_FIELDS}
+# Read by the cell functions only (results of one function passed to another).
+CELL_FIELDS: tuple[Field, ...] = (
+    _f("fit_pressure", "stress", "contact pressure of the fit", "fit pressure", "contact pressure",
+       plausible=Plausible(0.0, 2000e6, "MPa", _MPA)),
+    _f("fit_diameter", "length", "fit diameter", "fit diameter", plausible=_DIAMETER),
+    _f("points", "dimensionless", "number of points", "points",
+       plausible=Plausible(2.0, 500.0, "", 1.0)),
+    _f("interface_torque", "torque", "torque the interface passes", "interface torque",
+       plausible=Plausible(0.0, 50e6, "N·m", 1.0)),
+)
+
+_BY_KEY = {f.key: f for f in CELL_FIELDS + LAYER_FIELDS + MATERIAL_FIELDS + DUTY_FIELDS
+           + INTERFACE_PART_FIELDS + INTERFACE_FIELDS}
 
 
 def field_by_key(key: str) -> Field:
