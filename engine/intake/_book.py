@@ -13,13 +13,14 @@ from pathlib import Path
 from typing import Protocol
 
 import numpy as np
-from twistshare.engine.core import Rating, rate
+from twistshare.engine.core import PlasticReserve, Rating, rate
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.units import si_factor
 
 from ._flag_words import problems_from_rating
 from ._grid import SheetGrid
 from ._interface_inputs import interface_problems
+from ._plastic_inputs import plastic_of
 from ._materials import MaterialSet, read_materials
 from ._parts import PartsInput, read_parts
 from ._problems import Problem, Severity
@@ -66,6 +67,7 @@ class BookRating:
     parts_spot: TableSpot | None = None
     layers_spot: TableSpot | None = None
     materials_spot: TableSpot | None = None
+    plastic: PlasticReserve | None = None  # None: no rated part has yield strengths
 
 
 def _spot(book: TableSource, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -173,5 +175,7 @@ def rate_tables(book: TableSource) -> BookRating:
     interface_findings, refused = interface_problems(rating, parts, ok & np.asarray(rating.valid, dtype=bool))
     findings.extend(interface_findings)
     result.rated = ok & np.asarray(rating.valid, dtype=bool) & ~refused
+    result.plastic, plastic_notes = plastic_of(parts, materials, result.rated)
+    findings.extend(plastic_notes)
     anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

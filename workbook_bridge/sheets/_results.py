@@ -81,6 +81,10 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
     load_path = parts.inputs.get("load_path")
     if load_path is not None:
         header.append("Load path")
+    plastic = getattr(book, "plastic", None)
+    if plastic is not None:
+        header += [f"First-yield torque [{tu}]", f"Fully plastic torque [{tu}]",
+                   "Plastic reserve (fully plastic / first yield)"]
     header.append("First problem")
     rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)
     nan = np.full(P, np.nan)
@@ -131,13 +135,18 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         cols.append(_column(np.where(np.isinf(per_part), np.nan, per_part) / tf, rated))
     if load_path is not None:
         cols.append([LOAD_PATH_WORDS.get(int(x)) if x == x else None for x in np.asarray(load_path).tolist()])
+    if plastic is not None:
+        cols += [_column(np.asarray(plastic.first_yield_torque) / tf, rated),
+                 _column(np.asarray(plastic.fully_plastic_torque) / tf, rated),
+                 _column(np.asarray(plastic.reserve_ratio), rated)]
     cols.append(errors)
     rows = itertools.chain([[Styled(h, "header") for h in header]], zip(*cols))
     widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * len(further) \
-        + ([22] if load_path is not None else []) + [60]
+        + ([22] if load_path is not None else []) + ([14] * 3 if plastic is not None else []) + [60]
     styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
               "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L \
-        + ["fixed1"] * len(further) + ([None] if load_path is not None else [])
+        + ["fixed1"] * len(further) + ([None] if load_path is not None else []) \
+        + (["fixed1", "fixed1", "fixed3"] if plastic is not None else [])
     return rows, widths, styles
 
 
