@@ -1,0 +1,117 @@
+"""Fitted and bonded sleeves and the plastic reserve through a whole book (`twistshare rate`).
+
+Outside sources: same-material shrink fit on a solid shaft p = E·δ·(do² − d²)/(2·d·do²)
+and slip torque (π/2)·μ·p·d²·L (Shigley's Mechanical Engineering Design, press and shrink
+fits); the torque through the core crosses the interface as the sleeve's share GJ/ΣGJ (twist
+compatibility, BRIEF §2); a solid round bar's fully plastic torque is 4/3 of its first-yield
+torque (Timoshenko, Strength of Materials, elastic–perfectly plastic torsion). Expansion
+coefficients of steel 11.7e-6/K and of a bronze 18e-6/K are typical values, from memory.
+Parts and materials are invented (Marrowby Pump & Drive, BRIEF §4).
+"""
+
+from __future__ import annotations
+
+import math
+
+import openpyxl
+import pytest
+from twistshare.engine.cells import TWS_FIT_PRESSURE, TWS_SHARE, TWS_SLIP_TORQUE
+from twistshare.workbook_bridge.commands import main
+
+HEAD = ["Part", "Length [mm]", "Torque [N·m]", "Load path", "Operating temperature [°C]",
+        "Layer 1 material", "Layer 1 outer diameter [mm]", "Layer 1 inner diameter [mm]",
+        "Layer 2 material", "Layer 2 outer diameter [mm]", "Layer 2 inner diameter [mm]",
+        "Layer 2 interference [mm]", "Layer 2 fit length [mm]", "Layer 2 friction",
+        "Layer 2 bond allowable [MPa]", "Layer 2 bond length [mm]"]
+PARTS = {
+    "MPD-S-101": [500, 300, None, None, "MPD steel", 40, None, "MPD steel", 60, 40, 0.02, 50, 0.12, None, None],
+    "MPD-S-102": [500, 300, "every layer", None, "MPD steel", 40, None, "MPD steel", 60, 40, 0.02, 50, 0.12,
+                  None, None],
+    "MPD-S-103": [500, 300, None, 150, "MPD steel", 40, None, "MPD bronze", 60, 40, 0.02, 50, 0.12, None, None],
+    "MPD-S-104": [500, 300, "sideways", None, "MPD steel", 40, None, "MPD steel", 60, 40, 0.02, 50, 0.12,
+                  None, None],
+    "MPD-S-105": [500, 300, None, None, "MPD steel", 40, None, "MPD steel", 60, 40, 0.02, 50, 2.5, None, None],
+    "MPD-S-106": [500, 300, None, "hot", "MPD steel", 40, None, "MPD steel", 60, 40, 0.02, 50, 0.12, None, None],
+    "MPD-S-107": [500, 300, None, None, "MPD steel", 40, None, None, None, None, None, None, None, None, None],
+}
+MATERIALS = [["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Yield strength [MPa]",
+              "Allowable shear [MPa]", "Expansion coefficient [1/K]"],
+             ["MPD steel", 79.6, 207, 0.3, 400, 200, 11.7e-6],
+             ["MPD bronze", 40, 110, 0.34, 250, 100, 18e-6]]
+
+
+@pytest.fixture(scope="module")
+def rated(tmp_path_factory):
+    folder = tmp_path_factory.mktemp("sleeves")
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Materials"
+    for row in MATERIALS:
+        ws.append(row)
+    parts = wb.create_sheet("Parts")
+    parts.append(HEAD)
+    for pid, row in PARTS.items():
+        parts.append([pid, *row])
+    wb.save(folder / "book.xlsx")
+    assert main(["rate", str(folder / "book.xlsx"), "-o", str(folder / "out.xlsx"), "-q", "--lenient"]) == 0
+    out = openpyxl.load_workbook(folder / "out.xlsx")
+    sheet = out["Twistshare results"]
+    head = [c.value for c in sheet[1]]
+    rows = {r[0]: dict(zip(head, r)) for r in sheet.iter_rows(min_row=2, values_only=True)}
+    comments = {c.coordinate: c.comment.text for row in out["Parts"].iter_rows() for c in row if c.comment}
+    return rows, comments
+
+
+def test_book_and_cell_functions_agree_on_a_fitted_part(rated):
+    rows, _ = rated
+    row = rows["MPD-S-101"]
+    e, d, do, delta, length, mu = 207e9, 0.04, 0.06, 0.02e-3, 0.05, 0.12
+    p = e * delta * (do**2 - d**2) / (2 * d * do**2)  # Shigley's closed form
+    slip = math.pi / 2 * mu * p * d**2 * length
+    cell_p = TWS_FIT_PRESSURE("0.02 mm", "40 mm", "60 mm", "207 GPa", 0.3)
+    cell_slip = TWS_SLIP_TORQUE(f"{cell_p!r} MPa", 0.12, "40 mm", "50 mm")
+    share = TWS_SHARE([["Material", "Outer diameter [mm]", "Inner diameter [mm]"],
+                       ["MPD steel", 40, None], ["MPD steel", 60, 40]],
+                      None, MATERIALS)[-1][0]  # the sleeve (layer 2)
+    assert cell_slip == pytest.approx(slip, rel=1e-9)
+    assert row["Capacity: slip of a fit [N·m]"] == pytest.approx(cell_slip / share, rel=1e-9)
+    assert row["Governing limit [N·m]"] == pytest.approx(cell_slip / share, rel=1e-9)
+    assert row["Governs"].startswith("slip of the fit between layers 1 and 2")
+    assert row["Load path"] == "through the core"
+
+
+def test_every_layer_driven_has_no_interface_limit(rated):
+    rows, _ = rated
+    row = rows["MPD-S-102"]
+    assert row["Capacity: slip of a fit [N·m]"] is None
+    assert row["Governs"].startswith("layer")
+    assert row["Load path"] == "every layer"
+
+
+def test_contact_lost_at_temperature_is_warned(rated):
+    # (αi − αo)·ΔT·d = (11.7 − 18)e-6 · 130 K · 40 mm = −0.033 mm: more than the 0.02 mm fit
+    rows, comments = rated
+    assert rows["MPD-S-103"]["Capacity: slip of a fit [N·m]"] == 0.0
+    assert any("MPD-S-103" in text and "loses contact at the operating temperature" in text
+               for text in comments.values())
+
+
+@pytest.mark.parametrize("pid, cell, words", [
+    ("MPD-S-104", "D5", "load path 'sideways' is not one of"),
+    ("MPD-S-105", "N6", "friction coefficient of the fit: 2.5 is outside the plausible range"),
+    ("MPD-S-106", "E7", "operating temperature"),
+])
+def test_bad_inputs_are_told_on_their_cells_and_the_part_is_not_rated(rated, pid, cell, words):
+    rows, comments = rated
+    assert rows[pid]["Status"] == "not rated"
+    assert words in comments.get(cell, "")
+    assert rows["MPD-S-107"]["Status"] == "ok"  # the others are rated
+
+
+def test_plastic_reserve_of_a_solid_single_material_part_is_four_thirds(rated):
+    rows, _ = rated
+    row = rows["MPD-S-107"]
+    assert row["Plastic reserve (fully plastic / first yield)"] == pytest.approx(4 / 3, rel=1e-12)
+    # first yield of a solid bar π/2·τy·r³ with τy = Sy/√3 (distortion energy, textbook)
+    assert row["First-yield torque [N·m]"] == pytest.approx(math.pi / 2 * 400e6 / math.sqrt(3) * 0.02**3,
+                                                             rel=1e-12)
