@@ -19,7 +19,8 @@ from numpy.typing import NDArray
 from ._fits import REFERENCE_TEMPERATURE
 from ._interfaces import InterfaceRating, rate_interfaces
 from ._load_path import DEFAULT_LOAD_PATH
-from ._sleeve_diagnoses import InterfaceFlag, has_sleeve_error as interface_errors
+from ._sleeve_diagnoses import InterfaceFlag
+from ._sleeve_diagnoses import has_sleeve_error as interface_errors
 
 __all__ = ["INTERFACE_KEYS", "LAYER_PROPERTY_KEYS", "PART_KEYS", "has_interfaces",
            "interfaces_of", "interface_rating", "slip", "bond", "fit_stress"]

@@ -20,9 +20,9 @@ from twistshare.engine.units import si_factor
 from ._flag_words import problems_from_rating
 from ._grid import SheetGrid
 from ._interface_inputs import interface_problems
-from ._plastic_inputs import plastic_of
 from ._materials import MaterialSet, read_materials
 from ._parts import PartsInput, read_parts
+from ._plastic_inputs import plastic_of
 from ._problems import Problem, Severity
 from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS
 from ._table_checks import (

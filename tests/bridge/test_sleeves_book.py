@@ -115,3 +115,15 @@ def test_plastic_reserve_of_a_solid_single_material_part_is_four_thirds(rated):
     # first yield of a solid bar π/2·τy·r³ with τy = Sy/√3 (distortion energy, textbook)
     assert row["First-yield torque [N·m]"] == pytest.approx(math.pi / 2 * 400e6 / math.sqrt(3) * 0.02**3,
                                                              rel=1e-12)
+
+
+def test_readme_friction_guidance_is_the_engines():
+    # one table of guidance (common practice): the README shows the engine's
+    from pathlib import Path
+
+    from twistshare.engine.core import FRICTION_GUIDANCE
+    readme = (Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8")
+    for guide in FRICTION_GUIDANCE:
+        assert f"| {guide.surfaces} | {guide.low:.2f} to {guide.high:.2f} |" in readme
+    start = readme.index("## Fitted and bonded sleeves, and the plastic reserve")
+    assert readme.index("## Workbook format") < start < readme.index("## Commands")
