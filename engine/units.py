@@ -801,6 +801,9 @@ def unit_system(unit_text: str) -> str:
 
 @lru_cache(maxsize=1024)
 def _system(unit_text: str) -> tuple[str, UnitProblem | None]:
+    temperature = _TEMPERATURE_NAMES.get(_normalise(unit_text).replace(" ", ""))
+    if temperature is not None:
+        return ("US" if temperature in ("degree_Fahrenheit", "degree_Rankine") else "SI"), None
     parsed, problem = _parse(unit_text)
     if problem is not None:
         return "", problem

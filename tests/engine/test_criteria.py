@@ -10,6 +10,9 @@ def test_criterion_codes_are_fixed():
         ("LAYER_STRESS", 1),
         ("TWIST_ANGLE", 2),
         ("TWIST_PER_LENGTH", 3),
+        ("INTERFACE_SLIP", 4),
+        ("BOND_SHEAR", 5),
+        ("FIT_STRESS", 6),
     ]
 
 
