@@ -127,3 +127,32 @@ def test_readme_friction_guidance_is_the_engines():
         assert f"| {guide.surfaces} | {guide.low:.2f} to {guide.high:.2f} |" in readme
     start = readme.index("## Fitted and bonded sleeves, and the plastic reserve")
     assert readme.index("## Workbook format") < start < readme.index("## Commands")
+
+
+def test_row_per_layer_table_and_the_outer_layer_path(tmp_path):
+    # driven through the outer layer, the interface passes the core's share GJ_core/ΣGJ
+    # (twist compatibility, BRIEF §2), so the slip capacity is the slip torque over that share
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Materials"
+    for row in MATERIALS:
+        ws.append(row)
+    parts = wb.create_sheet("Parts")
+    parts.append(["Part", "Length [mm]", "Torque [N·m]", "Load path"])
+    parts.append(["MPD-S-201", 500, 300, "through the outer layer"])
+    layers = wb.create_sheet("Layers")
+    layers.append(["Part", "Layer", "Material", "Outer diameter [mm]", "Inner diameter [mm]",
+                   "Interference [mm]", "Fit length [mm]", "Friction"])
+    layers.append(["MPD-S-201", 1, "MPD steel", 40, None, None, None, None])
+    layers.append(["MPD-S-201", 2, "MPD steel", 60, 40, 0.02, 50, 0.12])
+    wb.save(tmp_path / "rows.xlsx")
+    assert main(["rate", str(tmp_path / "rows.xlsx"), "-o", str(tmp_path / "out.xlsx"), "-q"]) == 0
+    sheet = openpyxl.load_workbook(tmp_path / "out.xlsx")["Twistshare results"]
+    head = [c.value for c in sheet[1]]
+    row = dict(zip(head, next(sheet.iter_rows(min_row=2, values_only=True))))
+    e, d, do = 207e9, 0.04, 0.06
+    p = e * 0.02e-3 * (do**2 - d**2) / (2 * d * do**2)  # Shigley's closed form
+    slip = math.pi / 2 * 0.12 * p * d**2 * 0.05
+    core_share = d**4 / do**4  # same G
+    assert row["Capacity: slip of a fit [N·m]"] == pytest.approx(slip / core_share, rel=1e-9)
+    assert row["Load path"] == "through the outer layer"

@@ -134,7 +134,8 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
             per_part = np.nanmin(np.where(np.isnan(values), np.inf, values), axis=1) if values.ndim == 2 else values
         cols.append(_column(np.where(np.isinf(per_part), np.nan, per_part) / tf, rated))
     if load_path is not None:
-        cols.append([LOAD_PATH_WORDS.get(int(x)) if x == x else None for x in np.asarray(load_path).tolist()])
+        cols.append([LOAD_PATH_WORDS.get(int(x)) if k and x == x else None
+                     for x, k in zip(np.asarray(load_path).tolist(), rated.tolist())])
     if plastic is not None:
         cols += [_column(np.asarray(plastic.first_yield_torque) / tf, rated),
                  _column(np.asarray(plastic.fully_plastic_torque) / tf, rated),
