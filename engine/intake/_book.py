@@ -68,6 +68,7 @@ class BookRating:
     layers_spot: TableSpot | None = None
     materials_spot: TableSpot | None = None
     plastic: PlasticReserve | None = None  # None: no rated part has yield strengths
+    shear_yield: np.ndarray | None = None  # (P, L) Pa, each layer's, for the torque–twist curve
 
 
 def _spot(book: TableSource, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -175,7 +176,7 @@ def rate_tables(book: TableSource) -> BookRating:
     interface_findings, refused = interface_problems(rating, parts, ok & np.asarray(rating.valid, dtype=bool))
     findings.extend(interface_findings)
     result.rated = ok & np.asarray(rating.valid, dtype=bool) & ~refused
-    result.plastic, plastic_notes = plastic_of(parts, materials, result.rated)
+    result.plastic, result.shear_yield, plastic_notes = plastic_of(parts, materials, result.rated)
     findings.extend(plastic_notes)
     anchor_merged(findings, [mgrid, pgrid, lgrid])
     return result

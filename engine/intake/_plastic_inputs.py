@@ -26,11 +26,17 @@ _DISTORTION = 1.0 / math.sqrt(3.0)
 
 
 def plastic_of(parts, materials: MaterialSet, rated: np.ndarray
-               ) -> tuple[PlasticReserve | None, list[Problem]]:
+               ) -> tuple[PlasticReserve | None, np.ndarray | None, list[Problem]]:
     """First-yield torque, fully plastic torque and their ratio for the rated parts.
 
-    Returns None (and no notes) when no layer of a rated part has a yield strength: the book
-    then gives no plastic columns.
+    Returns
+    -------
+    reserve : PlasticReserve or None
+        None (with no notes) when no rated part has yield strengths for all its layers: the
+        book then gives no plastic columns.
+    shear_yield : (P, L) ndarray, Pa, or None
+        Each layer's shear yield stress (NaN where not known), for the torque–twist curve.
+    notes : list of Problem
     """
     P, L = parts.present.shape
     sy = np.full((P, L), np.nan)
@@ -45,11 +51,12 @@ def plastic_of(parts, materials: MaterialSet, rated: np.ndarray
         sy[i, j] = cache[name]
     with_sy = rated & (~np.isnan(sy) | ~parts.present).all(axis=1)
     if not with_sy.any():
-        return None, []
+        return None, None, []
     rule = parts.allowable_rule if parts.allowable_rule is not None else np.zeros((P, L), np.int8)
     factor = np.where(rule == int(AllowableRule.MAX_SHEAR), 0.5, _DISTORTION)
+    shear_yield = factor * sy
     got = plastic_reserve(parts.outer_diameter, parts.inner_diameter, parts.shear_modulus,
-                          factor * sy, parts.present & with_sy[:, np.newaxis])
+                          shear_yield, parts.present & with_sy[:, np.newaxis])
     notes: list[Problem] = []
     told: set[str] = set()
     for i in np.flatnonzero(rated & ~with_sy).tolist():
@@ -65,4 +72,4 @@ def plastic_of(parts, materials: MaterialSet, rated: np.ndarray
                              "strength, so the plastic reserve of this part (and of every part "
                              "using the material) is left blank", part=parts.ids[i], layer=j + 1,
                              code="no-yield"))
-    return got, notes
+    return got, shear_yield, notes

@@ -156,3 +156,29 @@ def test_row_per_layer_table_and_the_outer_layer_path(tmp_path):
     core_share = d**4 / do**4  # same G
     assert row["Capacity: slip of a fit [N·m]"] == pytest.approx(slip / core_share, rel=1e-9)
     assert row["Load path"] == "through the outer layer"
+
+
+def test_summary_draws_the_torque_twist_curve_of_the_charted_part(tmp_path):
+    # elastic–perfectly plastic: the curve rises from the origin past first yield towards the
+    # fully plastic torque, which it never exceeds (Timoshenko, Strength of Materials)
+    import zipfile
+    wb = openpyxl.Workbook()
+    ws = wb.active
+    ws.title = "Materials"
+    for row in MATERIALS:
+        ws.append(row)
+    parts = wb.create_sheet("Parts")
+    parts.append(["Part", "Length [mm]", "Torque [N·m]", "Layer 1 material", "Layer 1 outer diameter [mm]"])
+    parts.append(["MPD-S-301", 500, 300, "MPD steel", 40])
+    wb.save(tmp_path / "one.xlsx")
+    assert main(["rate", str(tmp_path / "one.xlsx"), "-o", str(tmp_path / "out.xlsx"), "-q"]) == 0
+    rows = list(openpyxl.load_workbook(tmp_path / "out.xlsx")["Twistshare summary"].iter_rows(values_only=True))
+    start = next(k for k, r in enumerate(rows) if isinstance(r[0], str) and r[0].startswith("Torque against twist"))
+    torques = [r[1] for r in rows[start + 2:start + 27]]
+    tau_y = 400e6 / math.sqrt(3)
+    first, plastic = math.pi / 2 * tau_y * 0.02**3, 2 * math.pi / 3 * tau_y * 0.02**3
+    assert torques[0] == 0.0 and torques == sorted(torques)
+    assert first < torques[-1] < plastic
+    with zipfile.ZipFile(tmp_path / "out.xlsx") as z:
+        charts = [z.read(n).decode() for n in z.namelist() if n.startswith("xl/charts/chart")]
+    assert any("Torque against twist" in c for c in charts)
