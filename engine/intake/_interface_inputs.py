@@ -11,6 +11,8 @@ interface diagnoses on the cells they concern.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from twistshare.engine.core import DEFAULT_LOAD_PATH, InterfaceFlag, Rating, describe_sleeve_flag, has_sleeve_error
 from twistshare.engine.core._interface_criteria import has_interfaces, interface_rating
@@ -129,18 +131,13 @@ def _material_inputs(parts, materials: MaterialSet) -> None:
     """Each layer's E, ν, Sy, α and factor of safety from its material (NaN where none)."""
     P, L = parts.present.shape
     values = {k: np.full((P, L), np.nan) for k in _MATERIAL_KEYS}
-    cache: dict[str, object] = {}
-    for i, j in zip(*np.nonzero(parts.present)):
-        name = parts.materials[i, j]
-        if name is None:
-            continue
-        if name not in cache:
-            cache[name] = materials.lookup(str(name), need_allowable=False)[0]
-        m = cache[name]
-        if m is None:
-            continue
-        for k in _MATERIAL_KEYS:
-            values[k][i, j] = getattr(m, k)
+    names = parts.materials[parts.present].tolist()
+    found: dict[object, object] = {None: None}
+    for name in set(names) - set(found):
+        found[name] = materials.lookup(str(name), need_allowable=False)[0]
+    for k in _MATERIAL_KEYS:
+        by_name = {n: (math.nan if m is None else getattr(m, k)) for n, m in found.items()}
+        values[k][parts.present] = np.fromiter((by_name[n] for n in names), float, len(names))
     parts.inputs.update(values)
 
 

@@ -172,8 +172,10 @@ def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: Material
     nan = np.full(n, np.nan)
     duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, []))
     layers = layers_from_rows(grid, spot, ids, findings, keys, positions)
-    return _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
-                     np.zeros(n, bool), need_allowable, "SI", spot)
+    parts = _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
+                      np.zeros(n, bool), need_allowable, "SI", spot)
+    read_interface_inputs(parts, grid, spot, materials, findings, set(), grid, spot)
+    return parts
 
 
 def _assemble(sheet: str, ids: list[str], rows: list[int], duty: DutyColumns, layers: LayerArrays,

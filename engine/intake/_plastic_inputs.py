@@ -40,15 +40,12 @@ def plastic_of(parts, materials: MaterialSet, rated: np.ndarray
     """
     P, L = parts.present.shape
     sy = np.full((P, L), np.nan)
-    cache: dict[str, float] = {}
-    for i, j in zip(*np.nonzero(parts.present)):
-        name = parts.materials[i, j]
-        if name is None:
-            continue
-        if name not in cache:
-            m = materials.lookup(str(name), need_allowable=False)[0]
-            cache[name] = m.yield_strength if m is not None else math.nan
-        sy[i, j] = cache[name]
+    cache: dict[object, float] = {None: math.nan}
+    names = parts.materials[parts.present].tolist()
+    for name in set(names) - set(cache):
+        m = materials.lookup(str(name), need_allowable=False)[0]
+        cache[name] = m.yield_strength if m is not None else math.nan
+    sy[parts.present] = np.fromiter((cache[n] for n in names), float, len(names))
     with_sy = rated & (~np.isnan(sy) | ~parts.present).all(axis=1)
     if not with_sy.any():
         return None, None, []

@@ -85,3 +85,28 @@ def test_fully_plastic_over_first_yield_of_a_solid_bar():
 def test_bad_arguments_say_why(call, words):
     got = call()
     assert isinstance(got, str) and got.startswith("⚠") and words in got
+
+
+FIT_MATS = [["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Yield strength [MPa]", "Allowable shear [MPa]"],
+            ["Marrowby core", 79.6, 207, 0.3, 400, 200]]
+FIT_BLOCK = [["Material", "Outer diameter [mm]", "Inner diameter [mm]", "Interference [mm]", "Fit length [mm]",
+              "Friction"],
+             ["Marrowby core", 40, None, None, None, None], ["Marrowby core", 60, 40, 0.02, 50, 0.12]]
+
+
+def test_a_layer_block_with_a_fit_is_governed_by_its_slip():
+    # Shigley's same-material closed form, passed by the sleeve's share (twist compatibility)
+    from twistshare.engine.cells import TWS_GOVERNING_LIMIT, TWS_GOVERNS
+    d, do = 0.04, 0.06
+    p = 207e9 * 0.02e-3 * (do**2 - d**2) / (2 * d * do**2)
+    expected = math.pi / 2 * 0.12 * p * d**2 * 0.05 / ((do**4 - d**4) / do**4)
+    assert TWS_GOVERNING_LIMIT(FIT_BLOCK, None, None, None, None, FIT_MATS) == pytest.approx(expected, rel=1e-9)
+    assert TWS_GOVERNS(FIT_BLOCK, None, None, None, FIT_MATS).startswith("slip of the fit between layers 1 and 2")
+
+
+def test_a_fit_missing_its_length_is_refused_not_ignored():
+    from twistshare.engine.cells import TWS_GOVERNING_LIMIT
+    block = [row[:] for row in FIT_BLOCK]
+    block[2][4] = None
+    got = TWS_GOVERNING_LIMIT(block, None, None, None, None, FIT_MATS)
+    assert isinstance(got, str) and "a fit input is missing or out of range" in got
