@@ -62,6 +62,7 @@ __all__ = [
     "split_header",
     "unit_system",
     "display_unit",
+    "describe_kind",
 ]
 
 KINDS: tuple[str, ...] = (
@@ -86,9 +87,9 @@ _KIND_PHRASE: Mapping[str, str] = MappingProxyType(
         "power": "a power",
         "speed": "a rotational speed",
         "angle": "an angle",
-        "angle_per_length": "a twist per length (angle/length)",
+        "angle_per_length": "an angle per length",
         "density": "a density",
-        "dimensionless": "a plain number (no unit)",
+        "dimensionless": "a plain number",
         "temperature": "a temperature",
         "expansion": "an expansion coefficient (1/K)",
     }
@@ -814,6 +815,11 @@ def _system(unit_text: str) -> tuple[str, UnitProblem | None]:
         if canonical & _US_NAMES or name in _US_NAMES:
             return "US", None
     return "SI", None
+
+
+def describe_kind(kind: str) -> str:
+    """A few words for a unit kind, as messages say what was expected: ``"a length"``."""
+    return _KIND_PHRASE.get(kind, kind)
 
 
 def display_unit(kind: str, system: str) -> str:

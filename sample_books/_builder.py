@@ -195,7 +195,7 @@ def write_catalogue_long(path: str | Path) -> Path:
     return _save_reproducibly(wb, Path(path))
 
 
-_CELL_SHEET = "Shaft MPD-S-005"
+_CELL_SHEET = "Shaft MPD-S-061"
 
 # Where the blocks sit on the cell-functions sheet; the formulas refer to these ranges.
 _LAYER_BLOCK = "B5:F8"
@@ -217,7 +217,7 @@ def _fill_cell_functions_sheet(ws: Worksheet) -> None:
         ws[cell] = text
         ws[cell].font = _HEADER_FONT
 
-    ws["A1"] = "MPD-S-005: pump shaft, bronze underlay + stainless sleeve (invented demo data)"
+    ws["A1"] = "MPD-S-061: pump shaft, bronze underlay + stainless sleeve (invented demo data)"
     ws["A1"].font = _TITLE_FONT
     ws["A2"] = ("Inputs carry their units, in a header or in the cell; the formulas call "
                 "twistshare's cell functions.")

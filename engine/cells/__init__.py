@@ -15,20 +15,9 @@ Examples
 
 from typing import Any
 
-from . import _functions, _functions_sleeves
-from ._functions import (
-    TWS_ALLOWABLE,
-    TWS_GOVERNING_LIMIT,
-    TWS_GOVERNS,
-    TWS_LAYER_CAPACITY,
-    TWS_MARGIN,
-    TWS_SHARE,
-    TWS_STRESS,
-    TWS_STRESS_AT,
-    TWS_TORQUE_FROM_POWER,
-    TWS_TWIST_ANGLE,
-    TWS_TWIST_PER_LENGTH,
-)
+from . import _functions, _functions_scalar, _functions_sleeves, _functions_stress
+from ._functions import TWS_GOVERNING_LIMIT, TWS_GOVERNS, TWS_LAYER_CAPACITY, TWS_MARGIN, TWS_SHARE
+from ._functions_scalar import TWS_ALLOWABLE, TWS_TORQUE_FROM_POWER
 from ._functions_sleeves import (
     TWS_BOND_STRESS,
     TWS_FIT_PRESSURE,
@@ -36,20 +25,25 @@ from ._functions_sleeves import (
     TWS_SLIP_TORQUE,
     TWS_TORQUE_TWIST,
 )
+from ._functions_stress import TWS_STRESS, TWS_STRESS_AT, TWS_TWIST_ANGLE, TWS_TWIST_PER_LENGTH
 from ._registry import CATEGORY, Argument, CellFunction, function_spec
 
 __all__ = [
-    "TWS_SHARE", "TWS_LAYER_CAPACITY", "TWS_GOVERNING_LIMIT", "TWS_GOVERNS", "TWS_STRESS", "TWS_STRESS_AT",
-    "TWS_TWIST_ANGLE", "TWS_TWIST_PER_LENGTH", "TWS_MARGIN", "TWS_TORQUE_FROM_POWER", "TWS_ALLOWABLE",
+    # in the registry's order
+    "TWS_SHARE", "TWS_LAYER_CAPACITY", "TWS_GOVERNING_LIMIT", "TWS_GOVERNS", "TWS_MARGIN", "TWS_STRESS",
+    "TWS_STRESS_AT", "TWS_TWIST_ANGLE", "TWS_TWIST_PER_LENGTH", "TWS_TORQUE_FROM_POWER", "TWS_ALLOWABLE",
     "TWS_FIT_PRESSURE", "TWS_SLIP_TORQUE", "TWS_BOND_STRESS", "TWS_PLASTIC_TORQUE", "TWS_TORQUE_TWIST",
     "registry", "list_functions", "CellFunction", "Argument", "CATEGORY",
 ]
 
 
+#: The modules of cell functions, in the order the hosts list them; a new module adds one entry.
+_MODULES = (_functions, _functions_stress, _functions_scalar, _functions_sleeves)
+
+
 def registry() -> tuple[CellFunction, ...]:
     """Every cell function as the hosts offer it, in a stable order (fresh on every call)."""
-    return tuple(function_spec(getattr(module, name)) for module in (_functions, _functions_sleeves)
-                 for name in module.__all__)
+    return tuple(function_spec(getattr(module, name)) for module in _MODULES for name in module.__all__)
 
 
 def list_functions() -> list[dict[str, Any]]:

@@ -64,6 +64,7 @@ from ._diagnoses import (
     is_error,
     split_flags,
 )
+from ._duty import Duty
 from ._fits import (
     FRICTION_GUIDANCE,
     FRICTION_GUIDANCE_SOURCE,
@@ -108,7 +109,7 @@ from ._plastic import (
 )
 from ._plastic_unloading import permanent_twist, residual_stress_profile
 from ._radius import RadiusPlace, layer_at_radius
-from ._rating import Duty, Rating, rate
+from ._rating import Rating, rate
 from ._restoring import RestoreResult, restore_sleeve
 from ._section import (
     DEFAULT_CONTACT_ABS_TOL,

@@ -77,7 +77,7 @@ def _allowable_scalar(code: float, sy: float, su: float, fs: float, key: bool) -
         if not (_positive_scalar(sy) and _positive_scalar(fs)):
             return math.nan
         factor = MAX_SHEAR_FACTOR if code == AllowableRule.MAX_SHEAR else DISTORTION_ENERGY_FACTOR
-        return float(factor * sy / fs)
+        return float(factor) * sy / fs
     if code == AllowableRule.SHAFTING_CODE:
         if not (_positive_scalar(sy) and _positive_scalar(su)):
             return math.nan

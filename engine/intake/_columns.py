@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
-from twistshare.engine.units import UnitProblem, parse_value, si_factor, si_offset
+from twistshare.engine.units import UnitProblem, describe_kind, parse_value, si_factor, si_offset
 
 from ._grid import SheetGrid, cell_ref
 from ._problems import Problem, Severity
@@ -22,24 +22,6 @@ from ._words import QUOTE_MAX, error_value_text, flag_from_value, quoted
 
 __all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind", "quoted", "error_problem",
            "example_unit"]
-
-_KIND_WORDS = MappingProxyType({
-    "length": "a length",
-    "stress": "a stress or modulus",
-    "torque": "a torque",
-    "power": "a power",
-    "speed": "a rotational speed",
-    "angle": "an angle",
-    "angle_per_length": "an angle per length",
-    "density": "a density",
-    "dimensionless": "a plain number",
-})
-
-
-def describe_kind(kind: str) -> str:
-    """A few words for a unit kind: ``"a length"``."""
-    return _KIND_WORDS.get(kind, kind)
-
 
 def _fmt(x: float) -> str:
     return f"{x:.6g}"
@@ -209,6 +191,21 @@ def read_numeric(
                 ok &= (nums >= rng.low) & (nums <= rng.high)
         values[ok] = nums[ok]
         slow = np.flatnonzero(~ok).tolist()
+    memo: dict[str, tuple[float, str | None, str]] = {}  # a column repeats its texts ("52 mm")
+    errors = grid.errors
+    if n and not errors and not grid.uncached and (factor is None or len(slow) == n):
+        # A column of texts: each distinct text read once, the column filled by lookup; only the
+        # cells that need a message are visited one by one below.
+        raw_col = grid.cells(col, rows)
+        if set(map(type, raw_col)) == {str}:
+            for text in dict.fromkeys(raw_col):
+                memo[text] = cell_value(text, field, column.unit, factor, header_issue,
+                                        is_error=error_value_text(text) is not None) if text.strip() else (
+                    math.nan, None, "empty")
+            got = [memo[x] for x in raw_col]
+            values[:] = [g[0] for g in got]
+            slow = [i for i, g in enumerate(got) if g[1] is not None or g[2] == "empty"]
+            values[slow] = math.nan
     for i in slow:
         r = rows[i]
         raw = grid.value(r, col)
@@ -223,8 +220,15 @@ def read_numeric(
         if raw is None:
             empty[i] = True
             continue
-        v, problem, code = cell_value(raw, field, column.unit, factor, header_issue,
-                                      is_error=(r, col) in grid.errors or error_value_text(raw) is not None)
+        if raw.__class__ is str and not (errors and (r, col) in errors):
+            got = memo.get(raw)
+            if got is None:
+                got = memo[raw] = cell_value(raw, field, column.unit, factor, header_issue,
+                                             is_error=error_value_text(raw) is not None)
+            v, problem, code = got
+        else:
+            v, problem, code = cell_value(raw, field, column.unit, factor, header_issue,
+                                          is_error=(r, col) in errors or error_value_text(raw) is not None)
         if problem is not None:
             bad[i] = True
             if code == "unit" and header_issue and column.unit is None and key not in header_problem_reported \

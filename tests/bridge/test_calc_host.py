@@ -436,7 +436,9 @@ def test_missing_libreoffice_is_one_clear_line(tmp_path, monkeypatch, capsys):
     book = make_book(tmp_path / "b.xlsx")
     with pytest.raises(calc_host.LibreOfficeMissing, match=r"^LibreOffice is not installed \(no soffice found"):
         calc_host.recalculate(book, tmp_path / "o.xlsx")
-    assert calc_host.main(["recalc", str(book)]) == 2
+    from twistshare.workbook_bridge.commands import main as twistshare
+
+    assert twistshare(["recalc", str(book)]) == 2
     err = capsys.readouterr().err
     assert err.count("\n") == 1 and err.startswith("twistshare: LibreOffice is not installed")
     assert not (tmp_path / "b-recalculated.xlsx").exists()

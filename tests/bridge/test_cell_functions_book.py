@@ -27,7 +27,7 @@ BOOK = ROOT / "sample_books" / "marrowby_cell_functions.xlsx"
 def shared(tmp_path_factory):
     out = tmp_path_factory.mktemp("cells") / "shared.xlsx"
     assert main(["handout", str(BOOK), "-o", str(out), "-q"]) == 0
-    return openpyxl.load_workbook(out)["Shaft MPD-S-005"]
+    return openpyxl.load_workbook(out)["Shaft MPD-S-061"]
 
 
 @pytest.fixture(scope="module")

@@ -122,3 +122,23 @@ def test_demo_keeps_an_edited_sample(tmp_path):
     assert main(["demo", str(tmp_path)]) == 0
     backups = list(tmp_path.glob("marrowby_catalogue.xlsx.bak-*"))
     assert len(backups) == 1 and _sha(backups[0]) == edited
+
+
+def test_in_place_says_where_the_book_was_kept(tmp_path, capsys):
+    src = tmp_path / "book.xlsx"
+    shutil.copy(CATALOGUE, src)
+    before = _sha(src)
+    main(["rate", str(src), "--in-place", "-q", "--lenient"])
+    err = capsys.readouterr().err
+    backups = list(tmp_path.glob("book.xlsx.bak-*"))
+    assert len(backups) == 1 and _sha(backups[0]) == before
+    assert f"kept the book as it was as {backups[0]}" in err
+
+
+def test_demo_into_a_file_is_refused_in_words(tmp_path, capsys):
+    target = tmp_path / "not-a-folder"
+    target.write_text("mine")
+    assert main(["demo", str(target)]) == 2
+    err = capsys.readouterr().err
+    assert "it is a file, not a folder" in err and "Errno" not in err
+    assert target.read_text() == "mine"

@@ -403,7 +403,7 @@ def test_cell_functions_book_inputs_rate_as_a_hand_calculation():
     cells = pytest.importorskip("twistshare.engine.cells")
     import math
 
-    ws = _load(SAMPLES / sb.CELL_FUNCTIONS_FILE)["Shaft MPD-S-005"]
+    ws = _load(SAMPLES / sb.CELL_FUNCTIONS_FILE)["Shaft MPD-S-061"]
     layers = [[c.value for c in row] for row in ws["B5:F8"]]
     materials = [[c.value for c in row] for row in ws["B11:H12"]]
     length, twist_limit = ws["B15"].value, ws["B19"].value
@@ -426,3 +426,13 @@ def test_cell_functions_book_inputs_rate_as_a_hand_calculation():
     assert cells.TWS_GOVERNS(layers, length, twist_limit, None, materials) == "twist angle limit"
     shares = [row[0] for row in cells.TWS_SHARE(layers, None, materials)[1:]]
     assert shares == pytest.approx([x / total for x in gj], rel=1e-9)
+
+
+def test_a_part_id_names_one_part_across_the_sample_books():
+    """The cell-functions book's shaft has an id of its own: the catalogue's ids name other parts."""
+    from twistshare.sample_books import sample_part_ids
+
+    catalogue_ids = set(sample_part_ids())
+    ws_names = _load(SAMPLES / sb.CELL_FUNCTIONS_FILE).sheetnames
+    shaft = next(name for name in ws_names if name.startswith("Shaft "))
+    assert shaft.removeprefix("Shaft ") not in catalogue_ids

@@ -1,4 +1,4 @@
-"""The ``twistshare`` command line: rate, check, handout, demo, functions.
+"""The ``twistshare`` command line: rate, check, handout, demo, functions, calc-setup, recalc.
 
 Each command opens the book through `..reading`, reads its tables through the intake, writes
 through `..sheets` and `..ooxml`, and returns an exit code: 0 every part rated; 1 some parts had

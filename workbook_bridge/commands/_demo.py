@@ -15,8 +15,12 @@ __all__ = ["run_demo"]
 
 
 def run_demo(directory: Path) -> int:
+    """Write the sample books into `directory`, keeping any different file already there."""
     from twistshare.sample_books import write_all
 
+    if directory.exists() and not directory.is_dir():
+        return fail(f"cannot write the sample books into {directory}: it is a file, not a folder; "
+                    "name a folder (it is made if it does not exist)")
     try:
         directory.mkdir(parents=True, exist_ok=True)
         check_output_place(directory / "x.xlsx")

@@ -32,6 +32,7 @@ class FormulaCell:
     cached: object  # the cached value (float, str, bool) or None when the cache is empty
     kind: str  # "normal", "shared" or "array"
     spill_ref: str | None = None
+    cached_error: bool = False  # the cached value is an error (#NAME? where the add-in was missing)
 
 
 _CELL = re.compile(rb"<c\b([^>]*?)(?:/>|>(.*?)</c>)", re.S)
@@ -92,7 +93,7 @@ def find_our_formulas(sheet_xml: bytes, names: frozenset[str]) -> list[FormulaCe
             tm = _IS.search(body)
             cached = html.unescape(tm.group(1).decode()) if tm else None
         spill = fattrs.get(b"ref", b"").decode() or None if kind == "array" else None
-        out.append(FormulaCell(ref, ftext, cached, kind, spill))
+        out.append(FormulaCell(ref, ftext, cached, kind, spill, cached_error=t == "e" and cached is not None))
     return out
 
 

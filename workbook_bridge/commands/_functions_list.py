@@ -8,6 +8,7 @@ __all__ = ["run_functions"]
 
 
 def run_functions() -> int:
+    """Print every cell function with its arguments, their units and descriptions."""
     from twistshare.engine.cells import list_functions
 
     for fn in list_functions():

@@ -12,11 +12,12 @@ from ..ooxml import check_output_name, check_output_place, inspect_package, keep
 from ..reading import MAX_TABLE_ROWS, OpenBook, open_book
 from ..sheets import RESULT_SHEET_PREFIX
 
-__all__ = ["EXIT_OK", "EXIT_PART_ERRORS", "EXIT_UNUSABLE", "say", "fail", "prepare", "refuse_rated_book",
+__all__ = ["EXIT_OK", "EXIT_PART_ERRORS", "EXIT_UNUSABLE", "EXIT_PARTS_FAIL", "say", "fail", "prepare", "refuse_rated_book",
            "check_output_place", "keep_previous", "write_book", "check_output_name", "open_for_rating"]
 
 
 EXIT_OK, EXIT_PART_ERRORS, EXIT_UNUSABLE = 0, 1, 2
+EXIT_PARTS_FAIL = 3  # with --exit-if-failing: every input read, but some parts fail their demand
 
 
 def say(msg: str) -> None:
@@ -46,7 +47,7 @@ def prepare(path: Path) -> tuple[object, OpenBook]:
     return info, book
 
 
-def refuse_rated_book(info, path: Path) -> None:
+def refuse_rated_book(info: object, path: Path) -> None:
     """Rating a book we already rated would double our comments and sheets: refuse it."""
     ours = [s.name for s in info.sheets if s.name.startswith(RESULT_SHEET_PREFIX)]
     if ours:
@@ -56,7 +57,7 @@ def refuse_rated_book(info, path: Path) -> None:
             "those sheets and our comments first")
 
 
-def open_for_rating(book_path: Path, out: Path):
+def open_for_rating(book_path: Path, out: Path) -> OpenBook:
     """The checks both `rate` and `check` make before reading a table; raises with the reason."""
     info, book = prepare(book_path)
     refuse_rated_book(info, book_path)

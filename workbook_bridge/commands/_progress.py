@@ -31,6 +31,7 @@ class Progress:
         self.done += 1
 
     def finish(self) -> None:
+        """Clear the bar (on a terminal); nothing otherwise."""
         if not self.enabled:
             return
         self.stream.write(f"\r[{'#' * 30}] {'done':<28} {time.perf_counter() - self.t0:6.1f} s\n")

@@ -9,8 +9,9 @@ from twistshare.engine.intake import BookRating, Display, Severity, rate_tables
 
 from ..ooxml import BookWriter, OoxmlError
 from ..sheets import add_rating_sheets, add_warnings_sheet, write_comments
-from ._output import EXIT_OK, EXIT_PART_ERRORS, fail, open_for_rating, say, write_book
+from ._output import EXIT_OK, EXIT_PART_ERRORS, EXIT_PARTS_FAIL, fail, open_for_rating, say, write_book
 from ._progress import Progress
+from ._terminal import part_records, terminal_table, write_records
 
 __all__ = ["run_rate", "run_check"]
 
@@ -40,7 +41,8 @@ def _exit_code(result: BookRating) -> int:
 
 
 def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str = "book", quiet: bool = False,
-             profile_part: str | None = None) -> int:
+             profile_part: str | None = None, results_file: Path | None = None, exit_if_failing: bool = False,
+             lenient: bool = False, worked: list[str] | None = None) -> int:
     """Rate every part of `book_path` and write the rated copy to `out`; the exit code."""
     progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
     try:
@@ -55,17 +57,37 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
     display = Display(result.system if units == "book" else units)
     try:
         with BookWriter(book_path) as writer:
-            add_rating_sheets(writer, result, display, profile_part)
+            add_rating_sheets(writer, result, display, profile_part, worked)
             write_comments(writer, result, result.problems)
             previous = write_book(writer, out, in_place)
     except (OoxmlError, BookUnusable) as exc:
         progress.finish()
         return fail(str(exc))
     if previous:
-        say(f"twistshare: kept the file that was at {out} as {previous}")
+        say(f"twistshare: kept the {'book as it was' if in_place else 'file that was at ' + str(out)} as {previous}")
     progress.finish()
+    if results_file is not None:
+        try:
+            write_records(part_records(result, display), results_file)
+        except OSError as exc:
+            return fail(f"cannot write {results_file}: {exc.strerror or exc}; the rated copy is written")
+    if not quiet:
+        table = terminal_table(result, display)
+        if table:
+            say(table)
     _report(result, out, quiet, "rate")
-    return _exit_code(result)
+    code = _exit_code(result)
+    if lenient and code == EXIT_PART_ERRORS:
+        code = EXIT_OK
+    if code == EXIT_OK and exit_if_failing and _failing(result):
+        return EXIT_PARTS_FAIL
+    return code
+
+
+def _failing(result: BookRating) -> int:
+    if result.rating is None or result.rated is None:
+        return 0
+    return int((result.rating.margin[result.rated] < 0).sum())
 
 
 def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool = False) -> int:
@@ -82,6 +104,6 @@ def run_check(book_path: Path, out: Path, *, in_place: bool = False, quiet: bool
     except (OoxmlError, BookUnusable) as exc:
         return fail(str(exc))
     if previous:
-        say(f"twistshare: kept the file that was at {out} as {previous}")
+        say(f"twistshare: kept the {'book as it was' if in_place else 'file that was at ' + str(out)} as {previous}")
     _report(result, out, quiet, "check")
     return _exit_code(result)

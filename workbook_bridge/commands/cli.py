@@ -1,7 +1,9 @@
-"""The ``twistshare`` command: rate, check, handout, demo, functions.
+"""The ``twistshare`` command: rate, check, handout, demo, functions, calc-setup, recalc.
 
 Exit codes: 0 every part rated; 1 some parts had errors (the output is still written);
-2 the input is unusable (nothing written), with a one-line reason.
+2 the input is unusable (nothing written), with a one-line reason; 3 (``rate --exit-if-failing``)
+every part rated, but some fail their demand. ``recalc``: 1 means some cells show an error or a
+``⚠`` message in the copy written.
 """
 
 from __future__ import annotations
@@ -48,6 +50,14 @@ def _parser() -> argparse.ArgumentParser:
                    help="unit system of the results (default: that of the book's parts table)")
     r.add_argument("--profile-part", default=None,
                    help="part whose shear stress across the radius is charted (default: the lowest margin)")
+    r.add_argument("--worked", action="append", default=None, metavar="PART",
+                   help="write a worked calculation sheet (native formulas a checker can audit) for this part; "
+                   "repeat for more (default: the part with the lowest margin)")
+    r.add_argument("--results", type=Path, default=None, metavar="FILE",
+                   help="also write every part's results for scripts: FILE.csv as CSV, any other name as JSON "
+                   "(the results sheet's headers, units and words)")
+    r.add_argument("--exit-if-failing", action="store_true",
+                   help="exit 3 when every input was read but some parts fail their demand (margin below 0)")
     book_command("check", "validate the tables only: warnings as comments in a copy, a report here",
                  "-checked")
     book_command("handout", "a values-only copy for people without the add-in: every formula calling a "
@@ -56,7 +66,33 @@ def _parser() -> argparse.ArgumentParser:
     d = sub.add_parser("demo", help="write the sample books", description="write the sample books")
     d.add_argument("directory", nargs="?", type=Path, default=Path("twistshare-samples"))
     sub.add_parser("functions", help="list every cell function with its arguments, units and description")
+    _calc_commands(sub)
     return p
+
+
+def _calc_commands(sub) -> None:
+    """``calc-setup`` and ``recalc``: the cell functions in LibreOffice Calc (`._calc`)."""
+    from ..hosts.calc import DEFAULT_TIMEOUT
+
+    text = ("install the TWS_... cell functions into a LibreOffice user profile (yours by default), "
+            "or take them out again with --undo; says what it changed and how to undo it")
+    s = sub.add_parser("calc-setup", help=text, description=text + ". Close LibreOffice first.")
+    s.add_argument("--profile", type=Path, default=None, metavar="DIR",
+                   help="another profile folder (what soffice -env:UserInstallation names); "
+                   "default: your own LibreOffice profile")
+    s.add_argument("--undo", action="store_true", help="remove exactly what calc-setup added")
+    text = ("recompute every formula (twistshare's and LibreOffice's own) in a headless LibreOffice on a "
+            "private profile and write a copy whose formula cells hold the new values; the book is never changed")
+    r = sub.add_parser("recalc", help=text, description=text)
+    r.add_argument("book", type=Path, help="the workbook (.xlsx or .xlsm); it is never modified")
+    r.add_argument("-o", "--output", type=Path, default=None,
+                   help="where to write the copy (default: BOOK-recalculated.xlsx beside the input)")
+    r.add_argument("--timeout", type=float, default=DEFAULT_TIMEOUT, metavar="S",
+                   help=f"seconds the whole run may take, LibreOffice's start included (default {DEFAULT_TIMEOUT:g}); "
+                   "LibreOffice is stopped when they are up")
+    r.add_argument("-q", "--quiet", action="store_true", help="print only the one-line result")
+    r.add_argument("--lenient", action="store_true",
+                   help="exit 0 when the copy was written even if some cells show an error or a ⚠ message")
 
 
 def _unit_system(text: str) -> str:
@@ -96,6 +132,12 @@ def _run(args: argparse.Namespace) -> int:
         return run_functions()
     if args.command == "demo":
         return run_demo(args.directory)
+    if args.command in ("calc-setup", "recalc"):
+        from ._calc import run_calc_setup, run_recalc
+
+        if args.command == "calc-setup":
+            return run_calc_setup(args.profile, undo=args.undo)
+        return run_recalc(args.book, args.output, timeout=args.timeout, lenient=args.lenient, quiet=args.quiet)
     suffix = {"rate": "-rated", "check": "-checked", "handout": "-handout"}[args.command]
     if args.command == "handout":
         return run_handout(args.book, args.output or _default_output(args.book, suffix), quiet=args.quiet)
@@ -106,7 +148,8 @@ def _run(args: argparse.Namespace) -> int:
     out = args.book if args.in_place else (args.output or _default_output(args.book, suffix))
     if args.command == "rate":
         code = run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
-                        profile_part=args.profile_part)
+                        profile_part=args.profile_part, results_file=args.results,
+                        exit_if_failing=args.exit_if_failing, lenient=args.lenient, worked=args.worked)
     else:
         code = run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
     return EXIT_OK if (args.lenient and code == EXIT_PART_ERRORS) else code

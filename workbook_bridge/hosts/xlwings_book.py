@@ -60,7 +60,7 @@ class XlwingsBook:
             note.text = f"{own}\n\n{_MARK}\n{text}" if own else f"{_MARK}\n{text}"
 
 
-def validate_open_book(book=None):
+def validate_open_book(book: object = None) -> int:
     """Validate the calling workbook and write the warnings as notes on its cells."""
     import xlwings as xw
 

@@ -5,7 +5,8 @@ comments, charts and styles added, the few parts that must list them changed min
 other member copied with identical bytes.
 """
 
-from ._cells import Cell
+from ._atomic import atomic_file
+from ._cells import Cell, Formula
 from ._charts import BarChart, ScatterChart, SeriesData, range_ref
 from ._errors import OoxmlError, PackageRefused, WriteRefused
 from ._naming import backup_path
@@ -16,8 +17,8 @@ from ._styles import STYLE_NAMES
 from ._writer import BookWriter, SheetHandle, WriteReport
 
 __all__ = [
-    "BarChart", "BookWriter", "Cell", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
+    "BarChart", "BookWriter", "Cell", "Formula", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
     "OoxmlError", "PackageInfo", "PackageRefused", "STYLE_NAMES", "ScatterChart", "SeriesData",
     "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
-    "backup_path", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
+    "atomic_file", "backup_path", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
 ]

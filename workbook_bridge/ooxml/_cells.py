@@ -9,7 +9,7 @@ from typing import Any, Callable, Iterable, Mapping, Sequence
 
 from ._xmltext import MAX_COLUMN, MAX_ROW, column_letters, escape_text
 
-__all__ = ["Cell", "CellValue", "stream_rows", "cell_xml", "MAX_TEXT"]
+__all__ = ["Cell", "Formula", "CellValue", "stream_rows", "cell_xml", "MAX_TEXT"]
 
 MAX_TEXT = 32767  # characters a spreadsheet cell holds; longer text is cut and marked
 
@@ -30,7 +30,26 @@ class Cell:
     style: str | None = None
 
 
-CellValue = Any  # None | bool | int | float | str | Cell
+@dataclass(frozen=True)
+class Formula:
+    """A native spreadsheet formula written by twistshare itself, with its value as computed here.
+
+    Only our own code makes one (a worked calculation's steps); text read from a user's book is
+    never turned into a formula.
+
+    Attributes
+    ----------
+    text : str
+        The formula without its leading ``=``, in the file format's own syntax (``SUM(B5:B7)``).
+    cached : float or None
+        The value shown until a spreadsheet recalculates (our engine's value).
+    """
+
+    text: str
+    cached: float | None = None
+
+
+CellValue = Any  # None | bool | int | float | str | Cell | Formula
 
 
 def _text_body(text: str) -> str:
@@ -56,6 +75,10 @@ def cell_xml(pre: str, style_attr: str, value: Any, where: Callable[[], str]) ->
     """
     if value is None:
         return ""
+    if isinstance(value, Formula):
+        cached = "" if value.cached is None or not math.isfinite(float(value.cached)) else \
+            f"<v>{float(value.cached)!r}</v>"
+        return f"{pre}{style_attr}><f>{escape_text(value.text)}</f>{cached}</c>"
     if hasattr(value, "dtype") and hasattr(value, "item") and getattr(value, "ndim", 1) == 0:
         value = value.item()  # a numpy scalar: its Python equivalent
     if isinstance(value, bool):

@@ -39,10 +39,15 @@ def keep_previous(out: Path, in_place: bool) -> str | None:
 
 
 def write_book(writer: BookWriter, out: Path, in_place: bool) -> str | None:
-    """Write the output, keeping any file already there; OS errors become one clear line."""
+    """Write the output, keeping any file already there; OS errors become one clear line.
+
+    Returns where the file that was there is kept (`in_place`: the book's own backup), or None.
+    """
     try:
         previous = keep_previous(out, in_place)
-        writer.write(out, in_place=in_place)
+        report = writer.write(out, in_place=in_place)
+        if in_place:
+            previous = str(report.backup) if report.backup else None
     except OSError as exc:
         reason = {errno.ENOSPC: "the disk is full", errno.EACCES: "permission denied",
                   errno.EROFS: "the folder is read-only", errno.ENOENT: "the folder does not exist"}.get(
@@ -51,7 +56,7 @@ def write_book(writer: BookWriter, out: Path, in_place: bool) -> str | None:
     return previous
 
 
-def check_output_name(info, out: Path) -> None:
+def check_output_name(info: object, out: Path) -> None:
     """Refuse an output name whose extension would make a spreadsheet program refuse the file."""
     macro = bool(getattr(info, "macro_enabled", False))
     ext = out.suffix.lower()

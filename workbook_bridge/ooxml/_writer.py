@@ -27,6 +27,7 @@ import zlib
 from dataclasses import dataclass, field
 from typing import Any, BinaryIO, Iterable, Mapping, Sequence
 
+from ._atomic import atomic_file
 from ._cells import Cell, stream_rows
 from ._charts import BarChart, ScatterChart, anchor_cell, chart_xml, drawing_xml, range_ref
 from ._comments import (
@@ -604,45 +605,32 @@ class BookWriter:
                            tuple(warnings), time.perf_counter() - started)
 
     def _write_zip(self, out: str, plan: "_Plan") -> None:
-        folder = os.path.dirname(out) or "."
-        fd, tmp = tempfile.mkstemp(prefix="." + os.path.basename(out) + ".", suffix=".partial", dir=folder)
-        try:
-            with os.fdopen(fd, "wb") as raw:
-                with zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
-                    zout.comment = self._pkg.zip.comment
-                    for name in self._pkg.names:
-                        if name in plan.removed:
-                            continue
-                        src = self._pkg.infos[name]
-                        info = _set_level(_zip_info_like(src), self._level)
-                        if name in plan.changed:
-                            zout.writestr(info, plan.changed[name])
-                        else:
-                            self._copy_member(zout, name, info, src.file_size)
-                    for name, payload in plan.added:
-                        info = _set_level(_new_info(name), self._level)
-                        if isinstance(payload, bytes):
-                            zout.writestr(info, payload)
-                        else:
-                            head, body, tail = payload
-                            body.seek(0, os.SEEK_END)
-                            size = body.tell()
-                            body.seek(0)
-                            with zout.open(info, "w", force_zip64=size > (1 << 30)) as dst:
-                                dst.write(head)
-                                shutil.copyfileobj(body, dst, _CHUNK)
-                                dst.write(tail)
-                raw.flush()
-                os.fsync(raw.fileno())
-            mode = os.stat(out).st_mode if os.path.exists(out) else (self._stat.st_mode | 0o200)
-            os.chmod(tmp, mode & 0o7777)
-            os.replace(tmp, out)
-        except BaseException:
-            try:
-                os.unlink(tmp)
-            except FileNotFoundError:
-                pass
-            raise
+        mode = os.stat(out).st_mode if os.path.exists(out) else (self._stat.st_mode | 0o200)
+        with atomic_file(out, mode) as raw:
+            with zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
+                zout.comment = self._pkg.zip.comment
+                for name in self._pkg.names:
+                    if name in plan.removed:
+                        continue
+                    src = self._pkg.infos[name]
+                    info = _set_level(_zip_info_like(src), self._level)
+                    if name in plan.changed:
+                        zout.writestr(info, plan.changed[name])
+                    else:
+                        self._copy_member(zout, name, info, src.file_size)
+                for name, payload in plan.added:
+                    info = _set_level(_new_info(name), self._level)
+                    if isinstance(payload, bytes):
+                        zout.writestr(info, payload)
+                    else:
+                        head, body, tail = payload
+                        body.seek(0, os.SEEK_END)
+                        size = body.tell()
+                        body.seek(0)
+                        with zout.open(info, "w", force_zip64=size > (1 << 30)) as dst:
+                            dst.write(head)
+                            shutil.copyfileobj(body, dst, _CHUNK)
+                            dst.write(tail)
 
     def _copy_member(self, zout: zipfile.ZipFile, name: str, info: zipfile.ZipInfo, size: int) -> None:
         try:

@@ -28,6 +28,8 @@ MAX_SHEET_CELLS = 40_000_000
 
 @dataclass
 class OpenBook:
+    """A saved book opened with the fast reader: its sheets, their parts and its workbook tables."""
+
     path: Path
     sheet_names: list[str]
     sheet_parts: dict[str, str]  # sheet name -> zip member of its XML

@@ -8,7 +8,8 @@
 - `computed_values` gives the values of chosen cells after such a recalculation (for the
   values-only copy), and which cells could not be computed.
 
-Run as ``python -m twistshare.workbook_bridge.hosts.calc setup|undo|recalc ...`` (see `main`).
+Users reach these through the ``twistshare`` command: ``twistshare calc-setup [--profile DIR]
+[--undo]`` and ``twistshare recalc BOOK`` (`twistshare.workbook_bridge.commands`).
 """
 
 from importlib import import_module
@@ -17,11 +18,11 @@ from typing import Any
 # Where each public name lives. Loaded on first use: LibreOffice's Python imports this package
 # on the way to the small `_runtime` module and should not pay for the rest.
 _PUBLIC = {
-    "setup_profile": "_setup", "recalculate": "_recalc", "computed_values": "_recalc", "main": "_cli",
+    "setup_profile": "_setup", "recalculate": "_recalc", "computed_values": "_recalc",
     "default_profile": "_profile", "SetupReport": "_profile", "RecalcReport": "_recalc",
     "ComputedValues": "_recalc", "BookRefused": "_errors", "CalcHostError": "_errors",
     "LibreOfficeMissing": "_errors", "LibreOfficeTimeout": "_errors", "LibreOfficeFailed": "_errors",
-    "ProfileRefused": "_errors",
+    "ProfileRefused": "_errors", "DEFAULT_TIMEOUT": "_recalc",
 }
 
 __all__ = list(_PUBLIC)

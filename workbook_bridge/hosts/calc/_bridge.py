@@ -48,6 +48,7 @@ class EngineLocation:
     helper_module: str = _helper.__name__
 
     def as_dict(self) -> dict[str, object]:
+        """Plain data, as the bridge module LibreOffice runs is given it."""
         return {"python": self.python, "site_dirs": list(self.site_dirs), "soabi": self.soabi,
                 "runtime_module": self.runtime_module, "helper_module": self.helper_module}
 

@@ -16,8 +16,7 @@ MANIFEST_FILE = "twistshare-calc-host.json"
 # "auto" (default), "in-process" or "helper": how the bridge reaches the engine.
 ENGINE_ENV = "TWISTSHARE_CALC_ENGINE"
 
-_PACKAGE = __name__.rsplit(".", 1)[0]
-# Until the lead wires these into the `twistshare` command, they run as a module.
-SETUP_COMMAND = f"python -m {_PACKAGE} setup"
-UNDO_COMMAND = f"python -m {_PACKAGE} undo"
-RECALC_COMMAND = f"python -m {_PACKAGE} recalc"
+# What users are told to run: the `twistshare` command's subcommands (commands/_calc.py).
+SETUP_COMMAND = "twistshare calc-setup"
+UNDO_COMMAND = "twistshare calc-setup --undo"
+RECALC_COMMAND = "twistshare recalc"

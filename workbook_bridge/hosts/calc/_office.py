@@ -150,6 +150,7 @@ def office_environment(office: Office, extra: dict[str, str] | None = None) -> d
 
 
 def profile_url(profile: Path) -> str:
+    """The ``file://`` URL LibreOffice takes for a profile folder (-env:UserInstallation)."""
     return Path(profile).resolve().as_uri()
 
 
@@ -240,6 +241,9 @@ def start_profile(soffice: str, profile: Path, timeout: float = 120.0, *, office
                                  "it was stopped", timeout) from None
     finally:
         end_process_group(process, 0.0)
+    if not (profile / "user").is_dir():
+        raise LibreOfficeFailed(f"LibreOffice ({soffice}) ended (exit code {process.returncode}) without creating "
+                                f"its profile in {profile}; nothing was written")
 
 
 def run_office(office: Office, profile: Path, book: Path, cells: dict[str, list[tuple[int, int]]], *,

@@ -12,14 +12,13 @@ from __future__ import annotations
 import os
 import re
 import shutil
-import tempfile
 import zipfile
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 
 from twistshare.engine.intake import cell_ref, parse_ref
-from twistshare.workbook_bridge.ooxml import PackageInfo
+from twistshare.workbook_bridge.ooxml import PackageInfo, atomic_file
 from twistshare.workbook_bridge.ooxml._sheetxml import insert_missing_cells  # the writer's own row editing
 from twistshare.workbook_bridge.ooxml._xmltext import escape_text
 
@@ -40,6 +39,7 @@ class OfficeError:
 
     @property
     def value(self) -> str:
+        """The spreadsheet error text of this error code."""
         return _ERROR_VALUES.get(self.code, "#VALUE!")
 
     def __str__(self) -> str:
@@ -160,30 +160,18 @@ def copy_package(book: Path, out: Path, edits: Mapping[str, Callable[[str], str]
     folder, renamed into place; nothing is left behind on failure.
     """
     out = Path(out)
-    fd, tmp = tempfile.mkstemp(prefix="." + out.name + ".", suffix=".partial", dir=out.parent)
-    try:
-        with os.fdopen(fd, "wb") as raw:
-            with zipfile.ZipFile(book) as zin, zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
-                zout.comment = zin.comment
-                for src in zin.infolist():
-                    target = _info_like(src)
-                    if src.filename in edits:
-                        text = zin.read(src.filename).decode("utf-8")
-                        zout.writestr(target, edits[src.filename](text).encode("utf-8"))
-                        continue
-                    with zin.open(src) as fin, zout.open(target, "w", force_zip64=src.file_size > (1 << 30)) as fout:
-                        shutil.copyfileobj(fin, fout, _CHUNK)
-            raw.flush()
-            os.fsync(raw.fileno())
-        mode = os.stat(out).st_mode if out.exists() else (os.stat(book).st_mode | 0o200)
-        os.chmod(tmp, mode & 0o7777)
-        os.replace(tmp, out)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except FileNotFoundError:
-            pass
-        raise
+    mode = os.stat(out).st_mode if out.exists() else (os.stat(book).st_mode | 0o200)
+    with atomic_file(out, mode) as raw:
+        with zipfile.ZipFile(book) as zin, zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
+            zout.comment = zin.comment
+            for src in zin.infolist():
+                target = _info_like(src)
+                if src.filename in edits:
+                    text = zin.read(src.filename).decode("utf-8")
+                    zout.writestr(target, edits[src.filename](text).encode("utf-8"))
+                    continue
+                with zin.open(src) as fin, zout.open(target, "w", force_zip64=src.file_size > (1 << 30)) as fout:
+                    shutil.copyfileobj(fin, fout, _CHUNK)
 
 
 def write_with_values(book: Path, out: Path, info: PackageInfo,

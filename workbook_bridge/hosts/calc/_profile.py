@@ -20,10 +20,11 @@ import json
 import os
 import re
 import sys
-import tempfile
 from collections.abc import Iterable, Mapping
 from dataclasses import dataclass, field
 from pathlib import Path
+
+from twistshare.workbook_bridge.ooxml import atomic_file
 
 from ._basic import MARKER, basic_module_xml
 from ._bridge import EngineLocation, bridge_source, engine_location
@@ -62,6 +63,7 @@ def profile_folder_for(platform: str, environ: Mapping[str, str], home: Path) ->
 
 
 def user_folder(profile: Path) -> Path:
+    """The profile's ``user`` folder, where Basic and Python scripts live."""
     return Path(profile) / "user"
 
 
@@ -80,6 +82,7 @@ class Installed:
     @classmethod
     def build(cls, specs: Iterable[HostFunction] | None = None,
               engine: EngineLocation | None = None) -> "Installed":
+        """What setup installs for these functions and this engine."""
         chosen = tuple(_function_specs() if specs is None else specs)
         return cls(basic_module_xml(chosen), bridge_source(chosen, engine or engine_location()))
 
@@ -107,6 +110,7 @@ class SetupReport:
 
     @property
     def changed(self) -> bool:
+        """Setup or undo changed the profile."""
         return bool(self.actions)
 
     def __str__(self) -> str:
@@ -129,20 +133,8 @@ class SetupReport:
 def _write_atomic(path: Path, data: bytes) -> None:
     """Write a file through a temporary one beside it; an existing file keeps its permissions."""
     mode = (path.stat().st_mode & 0o7777) if path.exists() else 0o644
-    fd, tmp = tempfile.mkstemp(prefix="." + path.name + ".", suffix=".partial", dir=path.parent)
-    try:
-        with os.fdopen(fd, "wb") as f:
-            f.write(data)
-            f.flush()
-            os.fsync(f.fileno())
-        os.chmod(tmp, mode)
-        os.replace(tmp, path)
-    except BaseException:
-        try:
-            os.unlink(tmp)
-        except FileNotFoundError:
-            pass
-        raise
+    with atomic_file(path, mode) as f:
+        f.write(data)
 
 
 def _read_manifest(user: Path) -> dict:

@@ -143,6 +143,7 @@ class Runtime:
 
     @property
     def names(self) -> tuple[str, ...]:
+        """The functions this runtime serves."""
         return tuple(f.name for f in self._by_name.values())
 
     def call(self, name: str, args: Sequence[Any]) -> Any:

@@ -91,7 +91,8 @@ def _read_sheet(sheet, cells):
     return {"values": values, "errors": errors}
 
 
-def run(request):
+def run(request: dict) -> dict:
+    """Open the book in the running LibreOffice, recalculate it, and read the cells asked for."""
     import uno
 
     timings = {}
@@ -129,7 +130,8 @@ def run(request):
     return {"sheets": sheets, "missing_sheets": missing, "seconds": timings}
 
 
-def main():
+def main() -> None:
+    """Read the request on standard input and write the answer on standard output, as JSON."""
     try:
         result = run(json.loads(sys.stdin.read()))
     except BaseException as error:
