@@ -58,6 +58,7 @@ __all__ = [
     "registry",
     "si_factor",
     "parse_value",
+    "si_offset",
     "split_header",
     "unit_system",
     "display_unit",
@@ -75,6 +76,8 @@ KINDS: tuple[str, ...] = (
     "density",
     "dimensionless",
     "force",
+    "temperature",
+    "expansion",
 )
 
 _KIND_PHRASE: Mapping[str, str] = MappingProxyType(
@@ -89,6 +92,8 @@ _KIND_PHRASE: Mapping[str, str] = MappingProxyType(
         "density": "a density",
         "dimensionless": "a plain number",
         "force": "a force",
+        "temperature": "a temperature",
+        "expansion": "an expansion coefficient (1/K)",
     }
 )
 
@@ -105,6 +110,8 @@ _SI_TARGET: Mapping[str, str] = MappingProxyType(
         "density": "kilogram / meter ** 3",
         "dimensionless": "dimensionless",
         "force": "newton",
+        "temperature": "kelvin",
+        "expansion": "1 / kelvin",
     }
 )
 
@@ -130,6 +137,10 @@ _DISPLAY: Mapping[tuple[str, str], str] = MappingProxyType(
         ("dimensionless", "US"): "",
         ("force", "SI"): "kN",
         ("force", "US"): "lbf",
+        ("temperature", "SI"): "°C",
+        ("temperature", "US"): "°F",
+        ("expansion", "SI"): "1/K",
+        ("expansion", "US"): "1/K",
     }
 )
 
@@ -477,6 +488,7 @@ def _dimension_words() -> Mapping[tuple, str]:
             key(time=1): "a time",
             key(length=1, time=-1): "a velocity",
             key(temperature=1): "a temperature",
+            key(temperature=-1): "a reciprocal temperature",
             key(length=-1): "a reciprocal length",
         }
     )
@@ -497,6 +509,8 @@ def _check_kind(text: str, parsed: _Parsed, kind: str) -> UnitProblem | None:
         "density": "a density",
         "dimensionless": "a plain number",
         "force": "a force",
+        "temperature": "a temperature",
+        "expansion": "a reciprocal temperature",
     }[kind]
     if parsed.mass_pound and kind in ("torque", "stress", "power", "force"):
         advice = {
@@ -528,8 +542,54 @@ def _check_kind(text: str, parsed: _Parsed, kind: str) -> UnitProblem | None:
     return None
 
 
+# Temperatures: offset units, read apart from the product-of-units parser. Keys are the text
+# after `_normalise` with spaces removed ("°C" -> "degC").
+_TEMPERATURE_NAMES: Mapping[str, str] = MappingProxyType({
+    "degC": "degree_Celsius", "C": "degree_Celsius", "celsius": "degree_Celsius",
+    "Celsius": "degree_Celsius", "degc": "degree_Celsius",
+    "degF": "degree_Fahrenheit", "F": "degree_Fahrenheit", "fahrenheit": "degree_Fahrenheit",
+    "Fahrenheit": "degree_Fahrenheit", "degf": "degree_Fahrenheit",
+    "K": "kelvin", "kelvin": "kelvin", "Kelvin": "kelvin",
+    "degR": "degree_Rankine", "R": "degree_Rankine",
+})
+
+
+@lru_cache(maxsize=256)
+def _temperature(text: str) -> tuple[tuple[float, float] | None, UnitProblem | None]:
+    """(factor, offset) to kelvin of a temperature unit, through pint's offset conversion."""
+    name = _TEMPERATURE_NAMES.get(_normalise(text).replace(" ", ""))
+    if name is None:
+        parsed, problem = _parse(text)
+        reason = problem.reason if problem is not None else _describe(parsed)
+        return None, UnitProblem(text, "temperature", reason, "write '°C', '°F' or 'K'")
+    ureg = registry()
+    offset = float(ureg.Quantity(0.0, name).to("kelvin").magnitude)
+    factor = float(ureg.Quantity(1.0, name).to("kelvin").magnitude) - offset
+    return (factor, offset), None
+
+
+def si_offset(unit_text: str, kind: str) -> float:
+    """What to add after multiplying by `si_factor`: nonzero only for a temperature (to kelvin).
+
+    Examples
+    --------
+    >>> round(si_offset("°C", "temperature"), 2)
+    273.15
+    """
+    _check_kind_name(kind)
+    if kind != "temperature":
+        return 0.0
+    got, problem = _temperature(unit_text)
+    if problem is not None:
+        raise problem
+    return got[1]
+
+
 @lru_cache(maxsize=4096)
 def _factor(text: str, kind: str) -> tuple[float | None, UnitProblem | None]:
+    if kind == "temperature":
+        got, problem = _temperature(text)
+        return (None, problem) if problem is not None else (got[0], None)
     parsed, problem = _parse(text)
     if problem is not None:
         return None, UnitProblem(text, kind, problem.reason, problem.advice)
@@ -689,6 +749,8 @@ def parse_value(text_or_number: object, kind: str, default_unit: str | None = No
         None, UnitProblem(repr(unit_text), kind, "not a unit text"))
     if problem is not None:
         raise problem
+    if kind == "temperature":
+        return number * factor + si_offset(unit_text, kind)
     return number * factor
 
 
@@ -747,6 +809,9 @@ def unit_system(unit_text: str) -> str:
 
 @lru_cache(maxsize=1024)
 def _system(unit_text: str) -> tuple[str, UnitProblem | None]:
+    temperature = _TEMPERATURE_NAMES.get(_normalise(unit_text).replace(" ", ""))
+    if temperature is not None:
+        return ("US" if temperature in ("degree_Fahrenheit", "degree_Rankine") else "SI"), None
     parsed, problem = _parse(unit_text)
     if problem is not None:
         return "", problem

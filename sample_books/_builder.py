@@ -33,10 +33,12 @@ from ._scenario import (  # the scenario's data, written here
     CATALOGUE_LONG_FILE,
     CAUTIONS,
     CELL_FUNCTIONS_FILE,
+    EXTRA_PART_HEADERS,
     LAYER_HEADERS,
     MATERIAL_HEADERS,
     PART_HEADERS,
     Cell,
+    _extra_part_cells,
     _layer_cells,
     _long_layer_rows,
     _long_parts,
@@ -73,7 +75,8 @@ def _wide_row(part: _Part) -> tuple[Cell, ...]:
     cells: list[Cell] = list(_part_cells(part))
     for layer in part.layers:
         cells.extend(_layer_cells(layer))
-    cells.extend([None] * (len(_wide_part_headers()) - len(cells)))
+    cells.extend([None] * (len(_wide_part_headers()) - len(cells) - len(EXTRA_PART_HEADERS)))
+    cells.extend(_extra_part_cells(part))
     return tuple(cells)
 
 
@@ -183,7 +186,8 @@ def write_catalogue_long(path: str | Path) -> Path:
     """
     wb = _new_workbook()
     _write_materials(wb)
-    _write_table(wb.create_sheet("Parts"), PART_HEADERS, [_part_cells(p) for p in _long_parts()])
+    _write_table(wb.create_sheet("Parts"), PART_HEADERS + EXTRA_PART_HEADERS,
+                 [_part_cells(p) + _extra_part_cells(p) for p in _long_parts()])
     _write_table(wb.create_sheet("Layers"), LAYER_HEADERS, _long_layer_rows())
     _write_read_me(wb, "Marrowby Pump & Drive: parts catalogue, one row per layer (sample book)", (
         "Sheets: 'Materials', 'Parts' (length and duty per part, no layer columns) and "

@@ -108,6 +108,7 @@ class _Part:
     service_factor: Cell = None
     twist_limit: Cell = None
     twist_per_length: Cell = None
+    bearing_span: Cell = None  # line-shaft tubes: the span between their bearings (whirl)
 
 
 def _sleeved(*layers: tuple[Cell, ...]) -> tuple[_Layer, ...]:
@@ -192,31 +193,31 @@ _PARTS: tuple[_Part, ...] = (
     # carbon-fibre over-wrap, optional glass abrasion wrap outside.
     _Part("MPD-T-201", "Line-shaft tube, mid-span section", 3000,
           _sleeved((_AL, 101.6, 90.0), (_CF, 107.6, 101.6)),
-          power=90, speed=1460, twist_per_length=0.5),
+          power=90, speed=1460, twist_per_length=0.5, bearing_span=1200),
     _Part("MPD-T-202", "Line-shaft tube, drive-end fitting section", 150,
           _sleeved((_EF, 90.0, 76.0, 1.8), (_AL, 101.6, 90.0), (_CF, 107.6, 101.6)),
-          power=90, speed=1460),
+          power=90, speed=1460, bearing_span=1200),
     _Part("MPD-T-203", "Heavy line-shaft tube, fitting section with glass wrap", 150,
           _sleeved((_EF, 114.0, 96.0, 1.8), (_AL, 127.0, 114.0), (_CF, 133.0, 127.0),
                    (_GL, 135.0, 133.0)),
-          power=160, speed=1460),
+          power=160, speed=1460, bearing_span=1400),
     _Part("MPD-T-204", "Heavy line-shaft tube, mid-span with glass wrap", 4500,
           _sleeved((_AL, 127.0, 114.0), (_CF, 133.0, 127.0), (_GL, 135.0, 133.0)),
-          power=160, speed=1460, twist_limit=2.0),
+          power=160, speed=1460, twist_limit=2.0, bearing_span=1400),
     _Part("MPD-T-205", "Light line-shaft tube, mid-span section", 2400,
           _sleeved((_AL, 76.2, 66.0), (_CF, 80.2, 76.2)),
-          power=37, speed=1760, twist_per_length=0.5),
+          power=37, speed=1760, twist_per_length=0.5, bearing_span=1000),
     _Part("MPD-T-206", "Large line-shaft tube, mid-span section", 6000,
           _sleeved((_AL, 152.4, 138.0), (_CF, 160.0, 152.4)),
-          power=250, speed=1480, service_factor=1.2, twist_per_length=0.4),
+          power=250, speed=1480, service_factor=1.2, twist_per_length=0.4, bearing_span=1600),
     _Part("MPD-T-207", "Large line-shaft tube, fitting section with glass wrap", 180,
           _sleeved((_EF, 138.0, 118.0, 2.0), (_AL, 152.4, 138.0), (_CF, 160.0, 152.4),
                    (_GL, 162.0, 160.0)),
-          power=250, speed=1480, service_factor=1.2),
+          power=250, speed=1480, service_factor=1.2, bearing_span=1600),
     _Part("MPD-T-208", "Line-shaft tube, torque-rated drive", 3600,
           _sleeved((_AL, 101.6, 90.0), (_CF, 107.6, 101.6)), torque=950, twist_limit=1.5),
     _Part("MPD-T-209", "Bare aluminium tube before over-wrap (comparison)", 3000,
-          _sleeved((_AL, 101.6, 90.0)), power=90, speed=1460, twist_per_length=0.5),
+          _sleeved((_AL, 101.6, 90.0)), power=90, speed=1460, twist_per_length=0.5, bearing_span=1200),
 )
 
 _MAX_LAYERS = 4
@@ -236,6 +237,9 @@ _PART_ATTRS: tuple[str, ...] = (
     "part", "description", "length", "torque", "power", "speed",
     "service_factor", "twist_limit", "twist_per_length",
 )
+# After the layer groups, so the columns of the first books keep their places.
+EXTRA_PART_HEADERS: tuple[str, ...] = ("Bearing span [mm]",)
+_EXTRA_PART_ATTRS: tuple[str, ...] = ("bearing_span",)
 _LAYER_SUFFIXES: tuple[str, ...] = ("material", "outer diameter [mm]", "inner diameter [mm]", "Kt")
 _LAYER_ATTRS: tuple[str, ...] = ("material", "outer", "inner", "kt")
 
@@ -244,7 +248,7 @@ def _wide_part_headers() -> tuple[str, ...]:
     groups = tuple(
         f"Layer {n} {suffix}" for n in range(1, _MAX_LAYERS + 1) for suffix in _LAYER_SUFFIXES
     )
-    return PART_HEADERS + groups
+    return PART_HEADERS + groups + EXTRA_PART_HEADERS
 
 
 # The one-row-per-layer book: a subset of the catalogue, plus two bad layer rows of its own.
@@ -369,6 +373,10 @@ def sample_part_ids() -> tuple[str, ...]:
 
 def _part_cells(part: _Part) -> tuple[Cell, ...]:
     return tuple(getattr(part, a) for a in _PART_ATTRS)
+
+
+def _extra_part_cells(part: _Part) -> tuple[Cell, ...]:
+    return tuple(getattr(part, a) for a in _EXTRA_PART_ATTRS)
 
 
 def _layer_cells(layer: _Layer) -> tuple[Cell, ...]:

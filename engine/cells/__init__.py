@@ -15,7 +15,14 @@ Examples
 
 from typing import Any
 
-from . import _functions, _functions_bending, _functions_scalar, _functions_sizing, _functions_stress
+from . import (
+    _functions,
+    _functions_bending,
+    _functions_scalar,
+    _functions_sizing,
+    _functions_sleeves,
+    _functions_stress,
+)
 from ._functions import TWS_GOVERNING_LIMIT, TWS_GOVERNS, TWS_LAYER_CAPACITY, TWS_MARGIN, TWS_SHARE
 from ._functions_bending import (
     TWS_BENDING_STRESS,
@@ -27,6 +34,13 @@ from ._functions_bending import (
 )
 from ._functions_scalar import TWS_ALLOWABLE, TWS_TORQUE_FROM_POWER
 from ._functions_sizing import TWS_RESTORE_SLEEVE, TWS_SIZE_FOR, TWS_STOCK_SIZE
+from ._functions_sleeves import (
+    TWS_BOND_STRESS,
+    TWS_FIT_PRESSURE,
+    TWS_PLASTIC_TORQUE,
+    TWS_SLIP_TORQUE,
+    TWS_TORQUE_TWIST,
+)
 from ._functions_stress import TWS_STRESS, TWS_STRESS_AT, TWS_TWIST_ANGLE, TWS_TWIST_PER_LENGTH
 from ._registry import CATEGORY, Argument, CellFunction, function_spec
 
@@ -37,12 +51,14 @@ __all__ = [
     "TWS_SIZE_FOR", "TWS_STOCK_SIZE", "TWS_RESTORE_SLEEVE",
     "TWS_BENDING_STRESS", "TWS_COMBINED_STRESS", "TWS_CRITICAL_SPEED", "TWS_LAMINATE_G", "TWS_LAMINATE_E",
     "TWS_BUCKLING_TORQUE",
+    "TWS_FIT_PRESSURE", "TWS_SLIP_TORQUE", "TWS_BOND_STRESS", "TWS_PLASTIC_TORQUE", "TWS_TORQUE_TWIST",
     "registry", "list_functions", "CellFunction", "Argument", "CATEGORY",
 ]
 
 
 #: The modules of cell functions, in the order the hosts list them; a new module adds one entry.
-_MODULES = (_functions, _functions_stress, _functions_scalar, _functions_sizing, _functions_bending)
+_MODULES = (_functions, _functions_stress, _functions_scalar, _functions_sizing, _functions_bending,
+            _functions_sleeves)
 
 
 def registry() -> tuple[CellFunction, ...]:

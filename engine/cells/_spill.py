@@ -10,6 +10,7 @@ import numpy as np
 from numpy.typing import NDArray
 from twistshare.engine.core import Duty, Rating, rate
 from twistshare.engine.intake import Field, cell_value, describe_kind, header_factor, problems_from_rating, stops
+from twistshare.engine.intake._interface_inputs import interface_problems
 from twistshare.engine.intake._words import error_value_text
 from twistshare.engine.units import display_unit, split_header
 
@@ -121,6 +122,14 @@ def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,
                 problems[i] = problems[i] or p.message
         for i in unrated:
             problems[i] = problems[i] or "could not be rated"
+    # A fit or bond the core could not check, or a finding on one, stops the cell: the number
+    # alone would not show it.
+    checked = np.array([p is None for p in problems]) & np.asarray(rating.valid, bool)
+    found, _ = interface_problems(rating, block.parts, checked)
+    for p in found:
+        if stops(p.severity, THRESHOLD):
+            i = block.parts.ids.index(p.part)
+            problems[i] = problems[i] or p.message
     return rating, problems
 
 

@@ -30,6 +30,12 @@ class Criterion(IntEnum):
     (a gate: capacity 0 when it fails, +inf when it passes)."""
     TORSIONAL_BUCKLING = 6
     """The thin wall buckles in torsion (over its factor of safety)."""
+    INTERFACE_SLIP = 7
+    """A fitted interface slips; the governing layer is the outer member of the interface."""
+    BOND_SHEAR = 8
+    """A bond's average shear reaches its allowable; the layer is the bond's outer member."""
+    FIT_STRESS = 9
+    """A layer of a fitted part reaches ``S_y / FS`` under the fit's stresses and torsion."""
 
 
 class AllowableRule(IntEnum):

@@ -21,7 +21,7 @@ from numpy.typing import NDArray
 from ._beyond_torsion_criteria import buckling_capacity, combined_stress_capacity, whirl_capacity
 from ._criteria import Criterion
 
-__all__ = ["Section", "CriterionCheck", "CRITERIA", "governing_of"]
+__all__ = ["Section", "CriterionCheck", "CRITERIA", "governing_of", "take_inputs"]
 
 
 @dataclass(frozen=True)
@@ -54,6 +54,9 @@ class Section:
     stress_outer: NDArray[np.float64] | None = None
     stress_inner: NDArray[np.float64] | None = None
     inputs: Mapping[str, NDArray[np.float64]] = field(default_factory=dict)
+    # Work several criteria share (the interfaces are rated once for slip, bond and fit
+    # stress), kept for this one section only.
+    shared: dict[str, object] = field(default_factory=dict, compare=False, repr=False)
 
     def input(self, key: str, per_layer: bool = False) -> NDArray[np.float64] | None:
         """A further input by name, or None where the caller gave none."""
@@ -103,6 +106,8 @@ def _twist_per_length(section: Section) -> NDArray[np.float64]:
     return capacity
 
 
+from . import _interface_criteria  # noqa: E402  (needs Section, defined above)
+
 #: Every criterion, in the order ties are broken (lowest first).
 CRITERIA: tuple[CriterionCheck, ...] = (
     CriterionCheck(Criterion.LAYER_STRESS, True, _layer_stress),
@@ -111,6 +116,9 @@ CRITERIA: tuple[CriterionCheck, ...] = (
     CriterionCheck(Criterion.COMBINED_STRESS, True, combined_stress_capacity),
     CriterionCheck(Criterion.WHIRL, False, whirl_capacity),
     CriterionCheck(Criterion.TORSIONAL_BUCKLING, False, buckling_capacity),
+    CriterionCheck(Criterion.INTERFACE_SLIP, True, _interface_criteria.slip),
+    CriterionCheck(Criterion.BOND_SHEAR, True, _interface_criteria.bond),
+    CriterionCheck(Criterion.FIT_STRESS, True, _interface_criteria.fit_stress),
 )
 
 
@@ -159,3 +167,14 @@ def governing_of(
             criterion[none] = int(Criterion.NONE)
             layer[none] = -1
     return capacity, criterion, layer
+
+
+def take_inputs(inputs: Mapping[str, NDArray[np.float64]] | None, rows: NDArray[np.intp] | slice,
+                n_parts: int) -> dict[str, NDArray[np.float64]]:
+    """The further inputs of some parts only: per-part arrays (leading axis `n_parts`) are
+    sliced to `rows`; anything else (one value for every part) is kept as it is."""
+    out: dict[str, NDArray[np.float64]] = {}
+    for key, value in (inputs or {}).items():
+        array = np.asarray(value)
+        out[key] = array[rows] if array.ndim >= 1 and array.shape[0] == n_parts else array
+    return out

@@ -7,6 +7,7 @@ sizing: the answer is the size at which the governing limit meets the target.
 from __future__ import annotations
 
 import dataclasses
+from collections.abc import Mapping
 from dataclasses import dataclass
 from enum import IntEnum
 
@@ -281,6 +282,7 @@ def solve_dimension(
     smallest: ArrayLike | None = None,
     largest: ArrayLike | None = None,
     tol: float = DEFAULT_SIZE_TOL,
+    inputs: Mapping[str, ArrayLike] | None = None,
 ) -> SizingResult:
     """Solve one dimension of every part so that its governing capacity is ``|T| * target``.
 
@@ -386,7 +388,7 @@ def solve_dimension(
 
     def rating_at(value: NDArray[np.float64]) -> Rating:
         return rate(_apply(stack, slot, np.where(ok, value, current), dimension, outer_layers),
-                    duty)
+                    duty, inputs=inputs)
 
     # Least- and most-material ends: a larger bore has less material.
     if dimension == SizedDimension.BORE:

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import dataclasses
+from collections.abc import Mapping
 from dataclasses import dataclass
 from enum import IntEnum
 
@@ -11,6 +12,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_float, frozen_view
 from ._criteria import Criterion
+from ._criteria_list import take_inputs
 from ._rating import Duty, rate
 from ._section import LayerStack
 from ._sizing import DEFAULT_SIZE_TOL, OuterLayers, SizedDimension, resized, sizing_slot
@@ -75,6 +77,7 @@ def round_up_to_stock(
     outer_layers: OuterLayers = OuterLayers.MOVE,
     target_reserve: ArrayLike = 1.0,
     tol: float = DEFAULT_SIZE_TOL,
+    inputs: Mapping[str, ArrayLike] | None = None,
 ) -> StockResult:
     """The first stock size on the more-material side of ``size`` that holds, re-rated.
 
@@ -181,7 +184,8 @@ def round_up_to_stock(
         whole = part.size == n_parts
         trial_stack = resized(stack if whole else stack.take(part), values, dimension=dimension,
                               layer=slot[part], outer_layers=outer_layers)
-        trial = rate(trial_stack, duty if duty.n_parts == 1 or whole else duty.take(part))
+        trial = rate(trial_stack, duty if duty.n_parts == 1 or whole else duty.take(part),
+                     inputs=inputs if whole else take_inputs(inputs, part, n_parts))
         cap = trial.governing_capacity
         with np.errstate(invalid="ignore"):
             holds = trial.valid & (cap >= demand[part])

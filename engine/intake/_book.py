@@ -13,14 +13,16 @@ from pathlib import Path
 from typing import Protocol
 
 import numpy as np
-from twistshare.engine.core import Rating, WhirlCheck, rate, whirl_of
+from twistshare.engine.core import PlasticReserve, Rating, WhirlCheck, rate, whirl_of
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.units import si_factor
 
 from ._flag_words import problems_from_rating
 from ._grid import SheetGrid
+from ._interface_inputs import interface_problems
 from ._materials import MaterialSet, read_materials
 from ._parts import PartsInput, read_parts
+from ._plastic_inputs import plastic_of
 from ._problems import Problem, Severity
 from ._schema import LAYER_ROW_FIELDS, MATERIAL_FIELDS, PART_FIELDS, SIZING_FIELDS
 from ._sizing_input import BookSizing, read_sizing, size_parts, sizing_problems
@@ -70,6 +72,8 @@ class BookRating:
     materials_spot: TableSpot | None = None
     sizing: BookSizing | None = None  # only when some part asks to be sized
     whirl: WhirlCheck | None = None  # first critical speed and speed ratio, where a speed is given
+    plastic: PlasticReserve | None = None  # None: no rated part has yield strengths
+    shear_yield: np.ndarray | None = None  # (P, L) Pa, each layer's, for the torque–twist curve
 
 
 def _spot(book: TableSource, name: str, fields, key: str, layer_groups: bool = False, notes=None):
@@ -178,9 +182,13 @@ def rate_tables(book: TableSource) -> BookRating:
     rating = rate(parts.stack(), parts.duty(), inputs=parts.inputs)
     result.rating = rating
     findings.extend(problems_from_rating(rating, parts, ok))
-    result.rated = ok & np.asarray(rating.valid, dtype=bool)
+    interface_findings, refused = interface_problems(rating, parts, ok & np.asarray(rating.valid, dtype=bool))
+    findings.extend(interface_findings)
+    result.rated = ok & np.asarray(rating.valid, dtype=bool) & ~refused
+    result.plastic, result.shear_yield, plastic_notes = plastic_of(parts, materials, result.rated)
+    findings.extend(plastic_notes)
     if request is not None:  # sizing work only when a part asks
-        result.sizing = size_parts(parts.stack(), parts.duty(), request, result.rated)
+        result.sizing = size_parts(parts.stack(), parts.duty(), request, result.rated, parts.inputs)
         findings.extend(sizing_problems(result.sizing, parts.ids))
     result.whirl = whirl_of(parts.stack(), parts.length, parts.inputs)
     anchor_merged(findings, [mgrid, pgrid, lgrid])

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
-from twistshare.engine.units import UnitProblem, describe_kind, parse_value, si_factor
+from twistshare.engine.units import UnitProblem, describe_kind, parse_value, si_factor, si_offset
 
 from ._grid import SheetGrid, cell_ref
 from ._problems import Problem, Severity
@@ -106,9 +106,11 @@ def cell_value(raw: object, field: Field, unit: str | None, factor: float | None
     if isinstance(raw, (int, float)):
         if not math.isfinite(raw):
             return math.nan, f"expected a finite number, got {raw}", "not-a-number"
-        if factor is None and raw != 0:
+        if factor is None and (raw != 0 or kind == "temperature"):
             return math.nan, header_issue or "no unit", "unit"
         v = float(raw) * factor if factor is not None else 0.0  # zero is zero in every unit
+        if kind == "temperature":  # an offset unit: factor is not None here
+            v += si_offset(unit, kind)
     elif isinstance(raw, str):
         try:
             v = parse_value(raw, kind, unit if factor is not None else None)
@@ -177,6 +179,8 @@ def read_numeric(
         else:
             is_num = np.fromiter((type(x) is float or type(x) is int for x in raw_col), bool, n)
             nums = np.array([x if k else np.nan for x, k in zip(raw_col, is_num.tolist())], dtype=float) * factor
+        if field.kind == "temperature":
+            nums += si_offset(column.unit, field.kind)
         if grid.errors:
             for i, r in enumerate(rows):
                 if (r, col) in grid.errors:
@@ -261,6 +265,8 @@ _EXAMPLES = MappingProxyType({
     "angle": "deg",
     "angle_per_length": "deg/m",
     "density": "kg/m³",
+    "temperature": "°C",
+    "expansion": "1/K",
 })
 
 

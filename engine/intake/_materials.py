@@ -58,6 +58,7 @@ class ResolvedMaterial:
     note: str | None = None  # a note to show once where a part first uses the material
     allowable_problem: str | None = None  # why there is no allowable (G is still usable)
     warnings: tuple[str, ...] = ()  # the row's warnings: a cell function refuses on them
+    expansion_coefficient: float = math.nan  # 1/K, for fits at temperature
 
 
 @dataclass
@@ -118,7 +119,16 @@ def _from_library_only(lib) -> ResolvedMaterial:
         lib.name, float(lib.shear_modulus), tau, AllowableRule.SHAFTING_CODE, "library", None,
         _nan_if_none(lib.youngs_modulus), _nan_if_none(lib.poisson_ratio), sy, su, math.nan, False,
         _nan_if_none(lib.density), note, allowable_problem,
+        expansion_coefficient=_nan_if_none(lib.expansion_coefficient),
     )
+
+
+def _expansion(vals: dict[str, float], lib) -> float:
+    """The row's expansion coefficient, else its library material's (1/K)."""
+    alpha = vals.get("expansion_coefficient", math.nan)
+    if math.isnan(alpha) and lib is not None:
+        alpha = _nan_if_none(lib.expansion_coefficient)
+    return alpha
 
 
 def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) -> MaterialSet:
@@ -268,7 +278,8 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
             findings.extend(row_warnings)
         out.by_name[key] = ResolvedMaterial(
             name, g, tau, rule, "book", problem, e, nu, sy, su, fs, keyway, vals.get("density", math.nan),
-            None, no_allowable, tuple(w.message for w in row_warnings if w.severity is Severity.WARNING))
+            None, no_allowable, tuple(w.message for w in row_warnings if w.severity is Severity.WARNING),
+            _expansion(vals, lib))
         if problem:
             findings.append(Problem(Severity.ERROR, grid.name, here, problem, code="material"))
         elif no_allowable:

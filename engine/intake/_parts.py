@@ -17,6 +17,7 @@ from ._cellrefs import CellRefs
 from ._columns import error_problem, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
+from ._interface_inputs import read_interface_inputs
 from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, part_positions, row_labels
 from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._materials import MaterialSet
@@ -158,8 +159,10 @@ def read_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, finding
     grids = {grid.name: grid}
     if layers_grid is not None:
         grids[layers_grid.name] = layers_grid
-    return _assemble(grid.name, ids, rows, duty, layers, materials, grids, findings, error, need_allowable,
-                     _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot, loads)
+    parts = _assemble(grid.name, ids, rows, duty, layers, materials, grids, findings, error, need_allowable,
+                      _system_of(spot, ("outer_diameter", "length", "torque")), layers_spot, loads)
+    read_interface_inputs(parts, grid, spot, materials, findings, header_seen, layers_grid, layers_spot)
+    return parts
 
 
 def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: MaterialSet, findings: list[Problem],
@@ -172,8 +175,10 @@ def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: Material
     nan = np.full(n, np.nan)
     duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, []))
     layers = layers_from_rows(grid, spot, ids, findings, keys, positions)
-    return _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
-                     np.zeros(n, bool), need_allowable, "SI", spot)
+    parts = _assemble(grid.name, ids, [], duty, layers, materials, {grid.name: grid}, findings,
+                      np.zeros(n, bool), need_allowable, "SI", spot)
+    read_interface_inputs(parts, grid, spot, materials, findings, set(), grid, spot)
+    return parts
 
 
 def _assemble(sheet: str, ids: list[str], rows: list[int], duty: DutyColumns, layers: LayerArrays,

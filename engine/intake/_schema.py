@@ -35,6 +35,8 @@ __all__ = [
     "SIZING_FIELDS",
     "LOAD_FIELDS",
     "PLY_FIELDS",
+    "INTERFACE_FIELDS",
+    "INTERFACE_PART_FIELDS",
     "field_by_key",
     "match_header",
     "match_layer_group_header",
@@ -123,6 +125,9 @@ MATERIAL_FIELDS: tuple[Field, ...] = (
     _f("keyway", "flag", "keyway", "keyway"),
     _f("density", "density", "density", "density",
        plausible=Plausible(500.0, 25000.0, "kg/m³", 1.0)),
+    _f("expansion_coefficient", "expansion", "thermal expansion coefficient",
+       "expansion coefficient", "thermal expansion", "thermal expansion coefficient", "alpha", "α",
+       plausible=Plausible(0.1e-6, 300e-6, "1/K", 1.0)),
 )
 
 # Ply data of a fibre-wound layer and its layup (classical lamination theory). Ranges are common
@@ -193,7 +198,40 @@ LOAD_FIELDS: tuple[Field, ...] = (
        "supports", "end supports", "end support", "ends"),
 )
 
-PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS + LOAD_FIELDS + SIZING_FIELDS
+_K0 = 273.15  # 0 °C in kelvin
+_TEMPERATURE = Plausible(_K0 - 100.0, _K0 + 600.0, "K", 1.0, positive=False)
+
+# Per part, for the fitted and bonded interfaces (blank: the stated default).
+INTERFACE_PART_FIELDS: tuple[Field, ...] = (
+    _f("load_path", "text", "load path (where the torque enters and leaves)", "load path",
+       "torque path"),
+    # blank: the assembly temperature (no change of interference)
+    _f("operating_temperature", "temperature", "operating temperature", "operating temperature",
+       "service temperature", plausible=_TEMPERATURE),
+    # the temperature the interference is stated at; blank: 20 °C
+    _f("assembly_temperature", "temperature", "assembly temperature (of the stated interference)",
+       "assembly temperature", "interference temperature", plausible=_TEMPERATURE),
+)
+
+PART_FIELDS: tuple[Field, ...] = (_PART_ID,) + DUTY_FIELDS + LOAD_FIELDS + SIZING_FIELDS + INTERFACE_PART_FIELDS
+
+# Per layer, on the outer member of each interface (layer n: the interface between n-1 and n).
+INTERFACE_FIELDS: tuple[Field, ...] = (
+    # diametral interference at the assembly temperature; 0 for line to line; blank: not a fit
+    _f("interference", "length", "diametral interference of the fit under the layer",
+       "interference", "fit interference", "diametral interference",
+       plausible=Plausible(0.0, 2e-3, "mm", _MM)),
+    _f("fit_length", "length", "fit length", "fit length", "fit engagement",
+       plausible=Plausible(1e-3, 5.0, "mm", _MM)),
+    _f("friction", "dimensionless", "friction coefficient of the fit", "friction",
+       "friction coefficient", "coefficient of friction", "mu", "μ",
+       plausible=Plausible(0.01, 0.8, "", 1.0)),
+    _f("bond_length", "length", "bond length", "bond length", "bonded length",
+       plausible=Plausible(1e-3, 5.0, "mm", _MM)),
+    # blank: not bonded
+    _f("bond_allowable", "stress", "allowable average bond shear", "bond allowable",
+       "bond allowable shear", "allowable bond shear", plausible=Plausible(0.1e6, 100e6, "MPa", _MPA)),
+)
 
 LAYER_FIELDS: tuple[Field, ...] = (
     # A material name, or (in a cell block) the layer's shear modulus G written with its unit.
@@ -212,7 +250,7 @@ LAYER_FIELDS: tuple[Field, ...] = (
        blank=Blank.FROM_MATERIAL, plausible=_ALLOWABLE),
     _f("kt", "dimensionless", "stress-concentration factor Kt", "kt", "stress concentration",
        "stress concentration factor", blank=Blank.ONE, plausible=_KT),
-)
+) + INTERFACE_FIELDS
 
 # The one-row-per-layer layout adds the part key and the layer number to the layer fields.
 LAYER_ROW_FIELDS: tuple[Field, ...] = (
@@ -222,7 +260,19 @@ LAYER_ROW_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(1.0, 10_000.0, "", 1.0, positive=False)),
 ) + LAYER_FIELDS
 
-_BY_KEY = {f.key: f for f in MATERIAL_FIELDS + DUTY_FIELDS + SIZING_FIELDS + LOAD_FIELDS + PLY_FIELDS}
+# Read by the cell functions only (results of one function passed to another).
+CELL_FIELDS: tuple[Field, ...] = (
+    _f("fit_pressure", "stress", "contact pressure of the fit", "fit pressure", "contact pressure",
+       plausible=Plausible(0.0, 2000e6, "MPa", _MPA)),
+    _f("fit_diameter", "length", "fit diameter", "fit diameter", plausible=_DIAMETER),
+    _f("points", "dimensionless", "number of points", "points",
+       plausible=Plausible(2.0, 500.0, "", 1.0)),
+    _f("interface_torque", "torque", "torque the interface passes", "interface torque",
+       plausible=Plausible(0.0, 50e6, "N·m", 1.0)),
+)
+
+_BY_KEY = {f.key: f for f in CELL_FIELDS + LAYER_FIELDS + MATERIAL_FIELDS + DUTY_FIELDS + SIZING_FIELDS
+           + LOAD_FIELDS + PLY_FIELDS + INTERFACE_PART_FIELDS + INTERFACE_FIELDS}
 
 
 def field_by_key(key: str) -> Field:

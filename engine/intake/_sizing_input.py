@@ -28,6 +28,7 @@ from twistshare.engine.core import (
     round_up_to_stock,
     solve_dimension,
 )
+from twistshare.engine.core._criteria_list import take_inputs
 from twistshare.engine.units import UnitProblem, si_factor
 
 from ._columns import cell_value, error_problem, header_factor, read_numeric, read_text
@@ -263,7 +264,8 @@ def _read_stock(grid: SheetGrid, column, rows: list[int], ids: list[str], asked:
     return stock
 
 
-def size_parts(stack: LayerStack, duty: Duty, request: SizingRequest, ok: np.ndarray) -> BookSizing:
+def size_parts(stack: LayerStack, duty: Duty, request: SizingRequest, ok: np.ndarray,
+               inputs: dict[str, np.ndarray] | None = None) -> BookSizing:
     """Solve every part that asks and was rated (``ok``), grouped by dimension and outer layers.
 
     One core call per group (at most six), never a loop over parts.
@@ -285,8 +287,9 @@ def size_parts(stack: LayerStack, duty: Duty, request: SizingRequest, ok: np.nda
             if idx.size == 0:
                 continue
             sub, sub_duty = stack.take(idx), duty.take(idx)
+            sub_inputs = take_inputs(inputs, idx, n)
             found = solve_dimension(sub, sub_duty, dimension=dim, layer=request.slot[idx], outer_layers=outer,
-                                    target_reserve=request.target[idx])
+                                    target_reserve=request.target[idx], inputs=sub_inputs)
             size[idx], status[idx], reserve[idx] = found.size, found.status, found.reserve_factor
             crit[idx], glayer[idx] = found.governing_criterion, found.governing_layer
             with_stock = np.flatnonzero(has_stock[idx])
@@ -295,7 +298,8 @@ def size_parts(stack: LayerStack, duty: Duty, request: SizingRequest, ok: np.nda
             pick = idx[with_stock]
             got = round_up_to_stock(sub.take(with_stock), sub_duty.take(with_stock), found.size[with_stock],
                                     request.stock[pick], dimension=dim, layer=request.slot[pick],
-                                    outer_layers=outer, target_reserve=request.target[pick])
+                                    outer_layers=outer, target_reserve=request.target[pick],
+                                    inputs=take_inputs(sub_inputs, with_stock, idx.size))
             s_size[pick], s_status[pick], s_res[pick] = got.size, got.status, got.reserve_factor
             s_crit[pick], s_layer[pick] = got.governing_criterion, got.governing_layer
     return BookSizing(request, sized, size, status, reserve, crit, glayer, has_stock, s_size, s_status, s_res,

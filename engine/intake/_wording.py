@@ -12,8 +12,8 @@ from types import MappingProxyType
 from twistshare.engine.core import Criterion, SizingStatus, StockStatus
 from twistshare.engine.units import display_unit, si_factor
 
-__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "governs_text", "Display",
-           "SIZING_STATUS_WORDS", "STOCK_STATUS_WORDS", "SIZING_CAUTION"]
+__all__ = ["CAUTION_LINES", "METHOD_LINE", "CRITERION_WORDS", "CRITERION_NOUNS", "BOND_CAUTION", "governs_text",
+           "Display", "SIZING_STATUS_WORDS", "STOCK_STATUS_WORDS", "SIZING_CAUTION"]
 
 #: The caution every output carries, one sentence a line.
 CAUTION_LINES: tuple[str, ...] = (
@@ -25,8 +25,8 @@ CAUTION_LINES: tuple[str, ...] = (
 
 #: What the rating covers, beside the caution.
 METHOD_LINE = ("Method: layers twist as one (full connection along the length), elastic stress only, "
-               "static torque; static bending, axial force, whirl and thin-wall buckling where their inputs are "
-               "given; fatigue, fits and bonds are not checked here.")
+               "static torque; static bending, axial force, whirl, thin-wall buckling, fits and bonds where "
+               "their inputs are given; fatigue is not checked here.")
 
 #: What governs, as results, the summary and ``TWS_GOVERNS`` write it; ``{layer}`` is 1-based.
 CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
@@ -36,6 +36,10 @@ CRITERION_WORDS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.COMBINED_STRESS: "layer {layer} combined stress (bending held at its given value)",
     Criterion.WHIRL: "whirl: speed above 70 % of the first critical",
     Criterion.TORSIONAL_BUCKLING: "torsional buckling of the wall",
+    # {inner} and {layer}: the two layers of the interface, inner and outer member
+    Criterion.INTERFACE_SLIP: "slip of the fit between layers {inner} and {layer}",
+    Criterion.BOND_SHEAR: "average bond shear between layers {inner} and {layer}",
+    Criterion.FIT_STRESS: "layer {layer} fit and torsion stress",
 })
 
 #: The criterion as a noun, for counts ("governed by a layer's shear stress: 31 parts").
@@ -46,7 +50,15 @@ CRITERION_NOUNS: Mapping[Criterion, str] = MappingProxyType({
     Criterion.COMBINED_STRESS: "a layer's combined stress, bending held fixed",
     Criterion.WHIRL: "whirl gate (0: too close to the first critical)",
     Criterion.TORSIONAL_BUCKLING: "torsional buckling",
+    Criterion.INTERFACE_SLIP: "slip of a fit",
+    Criterion.BOND_SHEAR: "average bond shear",
+    Criterion.FIT_STRESS: "a layer's fit and torsion stress",
 })
+
+#: The caution on the bond criterion, where a bond is rated.
+BOND_CAUTION = ("the bond is rated by its average shear T/(2π·r²·L); the shear peaks at the ends "
+                "of the bond well above the average, so the allowable must be one meant for the "
+                "average over a joint of this kind (the adhesive maker's data), not the peak")
 
 
 #: The outcome of sizing a part, as the sizing sheet, the summary and the cell functions write it.
@@ -90,7 +102,7 @@ def governs_text(criterion: int, layer: int, material: str | None = None) -> str
     c = Criterion(int(criterion))
     if c == Criterion.NONE:
         return ""
-    text = CRITERION_WORDS[c].format(layer=layer + 1)
+    text = CRITERION_WORDS[c].format(layer=layer + 1, inner=layer)
     if layer >= 0 and material:
         text += f" ({material})"
     return text

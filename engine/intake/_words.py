@@ -10,7 +10,7 @@ import re
 from collections.abc import Mapping
 from types import MappingProxyType
 
-from twistshare.engine.core import AllowableRule, EndSupport, OuterLayers, SizedDimension, normalise_name
+from twistshare.engine.core import AllowableRule, EndSupport, LoadPath, OuterLayers, SizedDimension, normalise_name
 
 __all__ = [
     "header_key",
@@ -20,6 +20,9 @@ __all__ = [
     "RULE_FORMULAS",
     "RULE_CHOICES",
     "flag_from_value",
+    "load_path_from_text",
+    "LOAD_PATH_WORDS",
+    "LOAD_PATH_CHOICES",
     "YES_WORDS",
     "NO_WORDS",
     "quoted",
@@ -100,6 +103,35 @@ def rule_from_text(text: object) -> AllowableRule | None:
     if not isinstance(text, str):
         return None
     return _RULE_NAMES.get(header_key(text))
+
+
+#: Each load path as the results write it (the first of its spellings below).
+LOAD_PATH_WORDS: Mapping[LoadPath, str] = MappingProxyType({
+    LoadPath.THROUGH_CORE: "through the core",
+    LoadPath.THROUGH_OUTER_LAYER: "through the outer layer",
+    LoadPath.THROUGH_EVERY_LAYER: "every layer",
+})
+_LOAD_PATH_NAMES: Mapping[str, LoadPath] = MappingProxyType({
+    header_key(word): path for word, path in (
+        ("through the core", LoadPath.THROUGH_CORE), ("through core", LoadPath.THROUGH_CORE),
+        ("core", LoadPath.THROUGH_CORE), ("core driven", LoadPath.THROUGH_CORE),
+        ("through the outer layer", LoadPath.THROUGH_OUTER_LAYER),
+        ("through outer layer", LoadPath.THROUGH_OUTER_LAYER),
+        ("outer layer", LoadPath.THROUGH_OUTER_LAYER), ("outer", LoadPath.THROUGH_OUTER_LAYER),
+        ("sleeve driven", LoadPath.THROUGH_OUTER_LAYER),
+        ("every layer", LoadPath.THROUGH_EVERY_LAYER), ("all layers", LoadPath.THROUGH_EVERY_LAYER),
+        ("through every layer", LoadPath.THROUGH_EVERY_LAYER),
+        ("each layer", LoadPath.THROUGH_EVERY_LAYER),
+    )
+})
+LOAD_PATH_CHOICES = "through the core (the default), through the outer layer, every layer"
+
+
+def load_path_from_text(text: object) -> LoadPath | None:
+    """The load path a cell names (case, spaces, ``-`` and ``_`` do not matter), or None."""
+    if not isinstance(text, str):
+        return None
+    return _LOAD_PATH_NAMES.get(header_key(text))
 
 
 YES_WORDS = frozenset({"yes", "y", "true", "1", "x", "keyway", "with keyway"})

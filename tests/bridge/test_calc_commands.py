@@ -52,6 +52,11 @@ PARTS = [  # id, length mm, torque N·m or None, (power kW, speed rpm) or None, 
 ]
 ALLOWABLE_CALL = '=TWS_ALLOWABLE("distortion energy","520 MPa",,2,"no","MPa")'
 BAD_UNIT = '=TWS_TORQUE_FROM_POWER("30 GPa","1450 rpm")'
+SLEEVE_CALLS = {
+    "T1": '=TWS_FIT_PRESSURE("0.02 mm","40 mm","60 mm","207 GPa",0.3)',
+    "T2": '=TWS_SLIP_TORQUE("28.75 MPa",0.12,"40 mm","50 mm")',
+    "T3": '=TWS_BOND_STRESS("400 N·m","40 mm","30 mm")',
+}
 
 
 def _torque(part) -> float:
@@ -128,6 +133,12 @@ def make_every_function_book(path: Path) -> Path:
         beyond.append(row)
     for ref, formula in BEYOND_FORMULAS.items():
         beyond[ref] = ArrayFormula(f"{ref}:{ref[0]}2", formula) if ref.endswith("1") else formula
+    # fits, bonds and the plastic reserve: single values, and a curve spilled as a table
+    for cell, formula in SLEEVE_CALLS.items():
+        ws[cell] = formula
+    ws["P1"], ws["Q1"], ws["P2"], ws["Q2"] = "Material", "Outer diameter [mm]", STEEL, 40
+    ws["T4"] = '=TWS_PLASTIC_TORQUE(P1:Q2,,,Materials!A1:G3)'
+    ws["R1"] = ArrayFormula("R1:S4", '=TWS_TORQUE_TWIST(P1:Q2,,3,"rad/m",,Materials!A1:G3)')
     wb.save(path)
     return path
 
@@ -215,6 +226,20 @@ def test_the_book_calls_every_cell_function(tmp_path):
     formulas = " ".join(str(c.value.text if isinstance(c.value, ArrayFormula) else c.value)
                         for name in ("Cells", "Beyond") for row in wb[name].iter_rows() for c in row)
     assert set(re.findall(r"\b(TWS_[A-Z_]+)\(", formulas)) == {f.name for f in cells.registry()}
+
+
+@needs_office
+def test_recalculated_sleeve_functions_equal_the_closed_forms(every_function):
+    # Shigley's same-material shrink fit p = E·δ·(do² − d²)/(2·d·do²); slip (π/2)·μ·p·d²·L; average
+    # bond shear T/(2π·r²·L); a solid bar's fully plastic torque 2π/3·τy·r³ with τy = Sy/√3
+    # (distortion energy, the default theory; Timoshenko, Strength of Materials)
+    ws = every_function["values"]
+    _close(ws["T1"].value, 207e9 * 0.02e-3 * (0.06**2 - 0.04**2) / (2 * 0.04 * 0.06**2) / 1e6)
+    _close(ws["T2"].value, math.pi / 2 * 0.12 * 28.75e6 * 0.04**2 * 0.05)
+    _close(ws["T3"].value, 400 / (2 * math.pi * 0.02**2 * 0.03) / 1e6)
+    _close(ws["T4"].value, 2 * math.pi / 3 * 520e6 / math.sqrt(3) * 0.02**3)
+    assert ws["R1"].value == "twist per length [rad/m]" and ws["R2"].value == 0
+    assert 0 < ws["S3"].value < ws["S4"].value < ws["T4"].value
 
 
 @needs_office

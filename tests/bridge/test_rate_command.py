@@ -250,7 +250,8 @@ class TestRateCatalogue:
         for phrase in ("preliminary design aid", "applicable codes and standards", "qualified engineer",
                        "Local codes and licensed engineering practice prevail"):
             assert phrase in text
-        assert len(wb["Twistshare summary"]._charts) == 2
+        # margins, stress across the radius, and torque–twist (the charted part has yield strengths)
+        assert len(wb["Twistshare summary"]._charts) == 3
 
     def test_members_not_owned_are_byte_identical(self, rated):
         owned = {"xl/workbook.xml", "xl/_rels/workbook.xml.rels", "[Content_Types].xml", "xl/styles.xml"}

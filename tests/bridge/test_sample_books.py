@@ -26,7 +26,7 @@ CONVENTION_MATERIAL_HEADERS = {
 }
 CONVENTION_PART_HEADERS = {
     "Part", "Length [mm]", "Torque [N·m]", "Power [kW]", "Speed [rpm]", "Service factor",
-    "Twist limit [deg]", "Twist limit per length [deg/m]",
+    "Twist limit [deg]", "Twist limit per length [deg/m]", "Bearing span [mm]",
 }
 CONVENTION_LAYER_GROUP = re.compile(
     r"^Layer ([1-9]) (material|outer diameter \[mm\]|inner diameter \[mm\]|Kt)$")

@@ -534,7 +534,7 @@ class TestCatalogue:
     def test_every_function_listed(self):
         listed = [f["name"] for f in list_functions()]
         assert listed == [n for n in cells.__all__ if n.startswith("TWS_")]
-        assert len(listed) == 20  # 11 rating functions, 3 sizing and 6 beyond torsion
+        assert len(listed) == 25  # 11 of torsion, 3 sizing, 6 beyond torsion, 5 fits, bonds, plastic
 
     def test_arguments_match_signatures(self):
         for entry in list_functions():

@@ -13,6 +13,9 @@ def test_criterion_codes_are_fixed():
         ("COMBINED_STRESS", 4),
         ("WHIRL", 5),
         ("TORSIONAL_BUCKLING", 6),
+        ("INTERFACE_SLIP", 7),
+        ("BOND_SHEAR", 8),
+        ("FIT_STRESS", 9),
     ]
 
 

@@ -1,9 +1,9 @@
 """The words an engineer types, read once for both front ends (engine/intake/_words.py)."""
 
 import pytest
-from twistshare.engine.core import AllowableRule
+from twistshare.engine.core import AllowableRule, LoadPath
 from twistshare.engine.intake import flag_from_value, header_key, material_key, rule_from_text, where_text
-from twistshare.engine.intake._words import error_value_text, quoted
+from twistshare.engine.intake._words import LOAD_PATH_WORDS, error_value_text, load_path_from_text, quoted
 
 
 class TestRuleWords:
@@ -69,3 +69,26 @@ def test_quoted_cuts_a_pasted_paragraph():
     assert quoted("  52 mm ") == "'52 mm'"
     long = "x" * 100
     assert quoted(long) == repr("x" * 60) + " (… 100 characters)"
+
+
+# --- load path words (engine/intake/_words.py) ----------------------------------------------
+
+
+@pytest.mark.parametrize("text, path", [
+    ("through the core", LoadPath.THROUGH_CORE), ("Through-the-Core", LoadPath.THROUGH_CORE),
+    ("core", LoadPath.THROUGH_CORE), ("through the outer layer", LoadPath.THROUGH_OUTER_LAYER),
+    ("outer layer", LoadPath.THROUGH_OUTER_LAYER), ("every layer", LoadPath.THROUGH_EVERY_LAYER),
+    ("ALL LAYERS", LoadPath.THROUGH_EVERY_LAYER),
+])
+def test_load_path_words(text, path):
+    assert load_path_from_text(text) is path
+
+
+@pytest.mark.parametrize("text", ["sideways", "", "inner", 2, None])
+def test_unknown_load_path_words_are_none(text):
+    assert load_path_from_text(text) is None
+
+
+def test_every_load_path_has_words_that_read_back():
+    for path, words in LOAD_PATH_WORDS.items():
+        assert load_path_from_text(words) is path

@@ -49,3 +49,15 @@ def add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Dis
                                summ.range_ref(3, a + 1, b + 1), xs, lims)),
         )
         writer.add_chart(summ, (6, 23), (15, 44), chart)
+    if getattr(layout, "curve", None) is not None:
+        a, b = layout.curve
+        pu, _ = display.unit("angle_per_length")
+        xs = [float("nan") if v is None else v for v in _col_values(srows, a, b, 0)]
+        ys = [float("nan") if v is None else v for v in _col_values(srows, a, b, 1)]
+        chart = ScatterChart(
+            title=f"Torque against twist, part {layout.profile_part} (elastic–perfectly plastic)",
+            x_title=f"Twist per length [{pu}]", y_title=f"Torque [{tu}]",
+            series=(SeriesData("Torque", summ.range_ref(1, a + 1, b + 1), summ.range_ref(2, a + 1, b + 1),
+                               xs, ys),),
+        )
+        writer.add_chart(summ, (6, 45), (15, 66), chart)

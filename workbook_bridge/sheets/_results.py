@@ -12,6 +12,7 @@ import math
 import numpy as np
 from twistshare.engine.core import Criterion
 from twistshare.engine.intake import CRITERION_NOUNS, Display, governs_text
+from twistshare.engine.intake._words import LOAD_PATH_WORDS
 from twistshare.engine.units import si_factor
 
 from ._cells import Styled
@@ -85,6 +86,13 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         whirl = None
     if whirl is not None:
         header += ["First critical speed [rpm]", "Whirl ratio (speed / first critical)"]
+    load_path = parts.inputs.get("load_path")
+    if load_path is not None:
+        header.append("Load path")
+    plastic = getattr(book, "plastic", None)
+    if plastic is not None:
+        header += [f"First-yield torque [{tu}]", f"Fully plastic torque [{tu}]",
+                   "Plastic reserve (fully plastic / first yield)"]
     header.append("First problem")
     rated = np.zeros(P, bool) if book.rated is None else np.asarray(book.rated, bool)
     nan = np.full(P, np.nan)
@@ -138,12 +146,21 @@ def results_rows(book, display: Display, first_error: dict[str, str]):
         cols.append(_column(np.asarray(whirl.critical_speed, dtype=float) * 30.0 / np.pi, checked))
         cols.append(_column(np.asarray(whirl.speed_ratio, dtype=float), checked))
     n_whirl = 0 if whirl is None else 2
+    if load_path is not None:
+        cols.append([LOAD_PATH_WORDS.get(int(x)) if k and x == x else None
+                     for x, k in zip(np.asarray(load_path).tolist(), rated.tolist())])
+    if plastic is not None:
+        cols += [_column(np.asarray(plastic.first_yield_torque) / tf, rated),
+                 _column(np.asarray(plastic.fully_plastic_torque) / tf, rated),
+                 _column(np.asarray(plastic.reserve_ratio), rated)]
     cols.append(errors)
     rows = itertools.chain([[Styled(h, "header") for h in header]], zip(*cols))
-    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * (len(further) + n_whirl) + [60]
+    widths = [14, 10, 7, 14, 11, 14, 28, 10, 10, 14, 12, 12, 14] + [13] * (9 * L) + [14] * (len(further) + n_whirl) \
+        + ([22] if load_path is not None else []) + ([14] * 3 if plastic is not None else []) + [60]
     styles = [None, None, None, "fixed1", None, "fixed1", None, "fixed1", "fixed3", "sci", "fixed3", "fixed3",
               "fixed1"] + [None, "fixed3", "fixed3", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1", "fixed1"] * L \
-        + ["fixed1"] * len(further) + ["fixed1", "fixed3"][:n_whirl]
+        + ["fixed1"] * len(further) + ["fixed1", "fixed3"][:n_whirl] + ([None] if load_path is not None else []) \
+        + (["fixed1", "fixed1", "fixed3"] if plastic is not None else [])
     return rows, widths, styles
 
 

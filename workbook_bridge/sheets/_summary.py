@@ -7,7 +7,7 @@ import math
 from dataclasses import dataclass
 
 import numpy as np
-from twistshare.engine.core import stress_profile
+from twistshare.engine.core import stress_profile, torque_twist_curve
 from twistshare.engine.intake import RULE_FORMULAS, Display, Problem, Severity, governs_text
 
 from .. import __version__
@@ -27,6 +27,7 @@ class SummaryLayout:
     margins: tuple[int, int] | None
     profile: tuple[int, int] | None
     profile_part: str | None
+    curve: tuple[int, int] | None = None  # the chosen part's torque–twist curve
 
 
 def _f(x) -> float | None:
@@ -140,4 +141,27 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             rows.append([Styled(_f(rad / lf), "fixed3"), Styled(_f(st / sf), "fixed1"),
                          Styled(_f(lim / sf), "fixed1")])
         profile_block = (start, len(rows) - 1)
-    return rows, SummaryLayout(margins_block, profile_block, parts.ids[chosen] if chosen is not None else None)
+    curve_block = _curve_rows(book, chosen, rows, display) if chosen is not None else None
+    return rows, SummaryLayout(margins_block, profile_block, parts.ids[chosen] if chosen is not None else None,
+                               curve_block)
+
+
+def _curve_rows(book, i: int, rows: list[list], display: Display) -> tuple[int, int] | None:
+    """The torque–twist curve of part ``i`` (elastic–perfectly plastic), where it has one."""
+    plastic, ty = getattr(book, "plastic", None), getattr(book, "shear_yield", None)
+    if plastic is None or ty is None or not math.isfinite(float(plastic.fully_plastic_torque[i])):
+        return None
+    parts = book.parts
+    tu, tf = display.unit("torque")
+    pu, pf = display.unit("angle_per_length")
+    twist, torque = torque_twist_curve(parts.outer_diameter[i:i + 1], parts.inner_diameter[i:i + 1],
+                                       parts.shear_modulus[i:i + 1], ty[i:i + 1], parts.present[i:i + 1],
+                                       n_points=25)
+    rows.append([])
+    rows.append([Styled(f"Torque against twist of part {parts.ids[i]}, elastic–perfectly plastic, to four times "
+                        "the first-yield twist (the torque tends to the fully plastic torque)", "title")])
+    rows.append([Styled(f"Twist per length [{pu}]", "header"), Styled(f"Torque [{tu}]", "header")])
+    start = len(rows)
+    for a, b in zip(np.asarray(twist[0]), np.asarray(torque[0])):
+        rows.append([Styled(_f(a / pf), "fixed3"), Styled(_f(b / tf), "fixed1")])
+    return start, len(rows) - 1
