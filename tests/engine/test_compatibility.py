@@ -86,11 +86,17 @@ class TestShares:
         assert rating.share[0, 0] / rating.share[0, 1] == pytest.approx(j_core / j_sleeve, rel=1e-12)
 
     def test_stiffer_layer_carries_more(self):
-        """Shares follow G*J: doubling one layer's G with equal J doubles its torque ratio."""
+        """Shares follow G*J (twist compatibility). J written here, not taken from the engine:
+        J = pi (D^4 - d^4) / 32 (Roark's Formulas for Stress and Strain, table 10.1, hollow
+        circle), so a wrong polar moment cannot cancel out. rtol 1e-12."""
         gj = layer_stiffness([0.04, 0.05], [0.0, 0.04], [80e9, 40e9])
+        j_core = math.pi * 0.04**4 / 32
+        j_sleeve = math.pi * (0.05**4 - 0.04**4) / 32
+        np.testing.assert_allclose(polar_moment([0.04, 0.05], [0.0, 0.04]), [j_core, j_sleeve], rtol=1e-12)
+        np.testing.assert_allclose(gj, [80e9 * j_core, 40e9 * j_sleeve], rtol=1e-12)
         share = torque_share(gj)
-        j = polar_moment([0.04, 0.05], [0.0, 0.04])
-        assert share[0] / share[1] == pytest.approx(2.0 * j[0] / j[1], rel=1e-12)
+        total = 80e9 * j_core + 40e9 * j_sleeve
+        np.testing.assert_allclose(share, [80e9 * j_core / total, 40e9 * j_sleeve / total], rtol=1e-12)
         assert share.sum() == pytest.approx(1.0, rel=1e-15)
 
 
