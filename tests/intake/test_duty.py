@@ -17,8 +17,8 @@ HEAD = ["Part", "Length [mm]", "Torque [N·m]", "Power [kW]", "Speed [rpm]", "Se
         "Layer 1 material", "Layer 1 outer diameter [mm]"]
 
 
-def _part(torque=None, power=None, speed=None, sf=None, length=500):
-    return ["P1", length, torque, power, speed, sf, "Core steel", 40]
+def _part(torque=None, power=None, speed=None, sf=None, length=500, pid="P1"):
+    return [pid, length, torque, power, speed, sf, "Core steel", 40]
 
 
 def _demand(result) -> float:
@@ -100,3 +100,35 @@ def test_no_duty_at_all():
 def test_a_good_part_next_to_a_bad_one_is_rated():
     result = rate_parts(HEAD, _part(torque=300), ["P2", 500, None, None, None, None, "Core steel", 40])
     assert list(result.rated) == [True, False]
+
+
+def test_twist_limits_are_read_in_si():
+    # 1° = π/180 rad (definition)
+    head = HEAD + ["Twist limit [deg]", "Twist limit per length [deg/m]"]
+    result = rate_parts(head, _part(torque=300) + [0.5, 0.25])
+    duty = result.parts.duty()
+    assert float(duty.twist_limit_angle[0]) == pytest.approx(0.5 * math.pi / 180, rel=1e-12)
+    assert float(duty.twist_limit_per_length[0]) == pytest.approx(0.25 * math.pi / 180, rel=1e-12)
+
+
+def test_an_unreadable_duty_cell_refuses_the_part_once():
+    # the unreadable torque is the one problem: no second "no duty" for the same part
+    result = rate_parts(HEAD, _part(torque="abc"), _part(torque=300, pid="P2"))
+    ours = [p for p in result.problems if p.part == "P1"]
+    assert [p.cell for p in ours] == ["C2"]
+    assert list(result.parts.input_error) == [True, False]
+    assert list(result.rated) == [False, True]
+
+
+def test_an_unreadable_cell_before_a_good_column_still_refuses():
+    # bad in the length column (read first), the other duty columns good
+    result = rate_parts(HEAD, _part(torque=300, length="long"), _part(torque=300, pid="P2"))
+    assert [p.cell for p in result.problems if p.part == "P1"] == ["B2"]
+    assert list(result.parts.input_error) == [True, False]
+
+
+def test_missing_length_and_a_bad_torque_are_both_refused():
+    result = rate_parts(HEAD, _part(torque=300, length=None), _part(torque="abc", pid="P2"),
+                        _part(torque=300, pid="P3"))
+    assert list(result.parts.input_error) == [True, True, False]
+    assert [p.cell for p in result.problems if p.part == "P1"] == ["B2"]
