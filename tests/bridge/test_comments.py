@@ -33,10 +33,11 @@ def test_part_id_column_not_first():
 
 def test_cell_problems_stay_on_their_cell_and_repeats_are_merged():
     result = _result()
-    found = [Problem(Severity.ERROR, "Parts", "C2", "a", part="P1"),
+    found = [Problem(Severity.ERROR, None, None, "nowhere", part="P9"),
+             Problem(Severity.ERROR, "Parts", None, "a sheet but no cell", part="P9"),
              Problem(Severity.ERROR, "Parts", "C2", "a", part="P1"),
-             Problem(Severity.WARNING, "Parts", "C2", "b", part="P1"),
-             Problem(Severity.ERROR, None, None, "nowhere", part="P9")]
+             Problem(Severity.ERROR, "Parts", "C2", "a", part="P1"),
+             Problem(Severity.WARNING, "Parts", "C2", "b", part="P1")]
     assert comment_map(result, found) == {"Parts": {"C2": "twistshare error: a\ntwistshare warning: b"}}
 
 
@@ -47,3 +48,12 @@ def test_first_errors_per_part():
              Problem(Severity.ERROR, None, None, "e3", part="P2"),
              Problem(Severity.ERROR, None, None, "no part")]
     assert first_errors(found) == {"P1": "e1", "P2": "e3"}
+
+
+def test_without_a_parts_table_spot_cell_problems_still_map():
+    import dataclasses
+
+    result = dataclasses.replace(_result(), parts_spot=None)
+    found = [Problem(Severity.ERROR, None, None, "part-level", part="P1"),
+             Problem(Severity.ERROR, "Materials", "B2", "m")]
+    assert comment_map(result, found) == {"Materials": {"B2": "twistshare error: m"}}

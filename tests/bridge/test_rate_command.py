@@ -265,6 +265,15 @@ class TestRateCatalogue:
         assert ws["B2"].font.i
         assert openpyxl.load_workbook(rated["src"])["Materials"]["B2"].value is None
 
+    def test_every_filled_value_is_written_in_its_columns_unit(self, rated):
+        """AISI 1045 hot rolled, all its values left blank: the copy shows the handbook values in
+        the column's unit (Shigley's Mechanical Engineering Design, tables A-5 and A-20: G 79.3 GPa,
+        E 207 GPa, ν 0.292 (no unit), Sy 310 MPa, Su 570 MPa)."""
+        ws = _load(rated["out"])["Materials"]
+        for cell, value in (("B2", 79.3), ("C2", 207.0), ("D2", 0.292), ("F2", 310.0), ("G2", 570.0)):
+            assert ws[cell].value == pytest.approx(value, rel=1e-9), cell
+            assert ws[cell].font.i, cell
+
     def test_fill_never_overwrites(self, rated):
         ws = _load(rated["out"])["Materials"]
         src = openpyxl.load_workbook(rated["src"])["Materials"]

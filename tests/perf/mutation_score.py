@@ -6,6 +6,7 @@ Run as a script (not collected by pytest, not run in CI; needs the ``mutation`` 
     python tests/perf/mutation_score.py                 # every target below, one after another
     python tests/perf/mutation_score.py --only units    # targets whose name contains 'units'
     python tests/perf/mutation_score.py --report        # summarise the saved results only
+    python tests/perf/mutation_score.py --only units --lines 191:284   # mutate only those lines
 
 The tool is mutmut 2.5 (``mutmut run --paths-to-mutate ... --runner ...``). mutmut 3 was
 tried first: it copies the sources into ``mutants/`` and recognises a mutant by the module name
@@ -49,7 +50,7 @@ E, I, B = "tests/engine/", "tests/intake/", "tests/bridge/"
 
 # (target name, package, module, test files): each module with the tests that concern it.
 TARGETS: list[tuple[str, str, str, list[str]]] = [
-    ("units", "units", "engine/units.py", [E + "test_units.py", E + "test_units_spellings.py"]),
+    ("units", "units", "engine/units.py", [E + "test_units_spellings.py", E + "test_units.py"]),
     ("core_demand", "core", "engine/core/_demand.py", [E + "test_demand.py"]),
     ("core_section", "core", "engine/core/_section.py", [E + "test_section.py"]),
     ("core_compatibility", "core", "engine/core/_compatibility.py", [E + "test_compatibility.py"]),
@@ -68,20 +69,21 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_parts", "intake", "engine/intake/_parts.py", [I + "test_front_ends_agree.py", B + "test_bad_cells.py"]),
     ("bridge_duty", "bridge", "engine/intake/_duty.py", [I + "test_duty.py"]),
     ("bridge_layers", "bridge", "engine/intake/_layers.py", [I + "test_front_ends_agree.py", B + "test_bad_cells.py"]),
-    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [B + "test_comments.py"]),
+    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [B + "test_comments.py", B + "test_rate_command.py"]),
 ]
 
 _STATUS_KILLED = {"ok_killed", "bad_timeout", "ok_suspicious"}  # a timeout is a detected change
 
 
 def _equivalents() -> set[tuple[str, str]]:
-    """(file, diff) pairs listed as equivalent: lines ``- `file` ... `-old` / `+new` ``."""
+    """(file, diff) pairs listed as equivalent: table rows ``| `file` | line | `old` → `new` | reason |``."""
     if not EQUIVALENTS.exists():
         return set()
     found = set()
     for m in re.finditer(r"^\|\s*`([^`]+)`\s*\|\s*\d+\s*\|\s*`(.+?)`\s*→\s*`(.+?)`\s*\|", EQUIVALENTS.read_text(),
                          re.MULTILINE):
-        found.add((m.group(1), m.group(2).strip() + " -> " + m.group(3).strip()))
+        old, new = (g.replace("\\|", "|").strip() for g in (m.group(2), m.group(3)))  # markdown escapes | in tables
+        found.add((m.group(1), old + " -> " + new))
     return found
 
 
@@ -92,8 +94,22 @@ def _diff(mutant_id: int) -> str:
     return " / ".join(old) + " -> " + " / ".join(new)
 
 
-def run_target(name: str, package: str, module: str, tests: list[str]) -> dict:
-    """Run mutmut on one module with its tests; the module's text is restored afterwards."""
+def _line_patch(module: str, lines: tuple[int, int]) -> Path:
+    """A unified diff that shows lines[0]..lines[1] (1-based, inclusive) of `module` as added,
+    so that mutmut's ``--use-patch-file`` mutates only those lines."""
+    text = (ROOT / module).read_text().splitlines()
+    first, last = lines
+    body = "".join(f"+{line}\n" for line in text[first - 1:last])
+    patch = RESULTS / "lines.patch"
+    RESULTS.mkdir(parents=True, exist_ok=True)
+    patch.write_text(f"--- a/{module}\n+++ b/{module}\n@@ -{first - 1},0 +{first},{last - first + 1} @@\n{body}")
+    return patch
+
+
+def run_target(name: str, package: str, module: str, tests: list[str], lines: tuple[int, int] | None = None) -> dict:
+    """Run mutmut on one module with its tests; the module's text is restored afterwards.
+
+    `lines` (first, last), 1-based: mutate only those lines (the result records the range)."""
     tests = [t for t in tests if (ROOT / t).exists()]
     cache = ROOT / ".mutmut-cache"
     if cache.exists():
@@ -102,6 +118,8 @@ def run_target(name: str, package: str, module: str, tests: list[str]) -> dict:
     runner = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(tests)
     cmd = ["mutmut", "run", "--paths-to-mutate", module, "--tests-dir", "tests", "--runner", runner,
            "--test-time-multiplier", "3", "--test-time-base", "10", "--no-progress", "--simple-output"]
+    if lines is not None:
+        cmd += ["--use-patch-file", str(_line_patch(module, lines))]
     print(f"== {name}: {module} against {' '.join(tests)}", flush=True)
     try:
         subprocess.run(cmd, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
@@ -118,7 +136,7 @@ def run_target(name: str, package: str, module: str, tests: list[str]) -> dict:
             survivors.append({"target": name, "file": module, "line": line_number + 1, "status": status,
                               "diff": _diff(mid)})
     result = {"target": name, "package": package, "module": module, "tests": tests, "total": len(rows),
-              "survivors": survivors}
+              "lines": list(lines) if lines else None, "survivors": survivors}
     RESULTS.mkdir(parents=True, exist_ok=True)
     (RESULTS / f"{name}.json").write_text(json.dumps(result, indent=1))
     shutil.move(str(cache), str(RESULTS / f"{name}.mutmut-cache"))
@@ -137,8 +155,9 @@ def report() -> dict:
         tally = per_package.setdefault(r["package"], [0, 0])
         tally[0] += killed_or_equivalent
         tally[1] += r["total"]
+        scope = f" lines {r['lines'][0]}-{r['lines'][1]}" if r.get("lines") else ""
         print(f"{r['target']:<24} {killed_or_equivalent:>4}/{r['total']:<4} "
-              f"{killed_or_equivalent / max(r['total'], 1):6.1%}  ({r['module']})")
+              f"{killed_or_equivalent / max(r['total'], 1):6.1%}  ({r['module']}{scope})")
         left.extend(alive)
     print()
     scores = {}
@@ -157,6 +176,7 @@ def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--only", action="append", default=[], help="run only targets whose name contains this")
     parser.add_argument("--report", action="store_true", help="only summarise the saved results")
+    parser.add_argument("--lines", help="FIRST:LAST, mutate only these lines of each target run")
     args = parser.parse_args()
     if shutil.which("mutmut") is None:
         sys.exit("mutmut is not installed: pip install -e '.[mutation]'")
@@ -164,7 +184,8 @@ def main() -> None:
         for name, package, module, tests in TARGETS:
             if args.only and not any(o in name for o in args.only):
                 continue
-            run_target(name, package, module, tests)
+            lines = tuple(int(x) for x in args.lines.split(":")) if args.lines else None
+            run_target(name, package, module, tests, lines)
     print(json.dumps(report()))
 
 
