@@ -46,30 +46,30 @@ ROOT = Path(__file__).resolve().parents[2]
 RESULTS = ROOT / "out" / "mutation"
 EQUIVALENTS = ROOT / "tests" / "perf" / "mutation_equivalents.md"
 
-E, I, B = "tests/engine/", "tests/intake/", "tests/bridge/"
+TE, TI, TB = "tests/engine/", "tests/intake/", "tests/bridge/"
 
 # (target name, package, module, test files): each module with the tests that concern it.
 TARGETS: list[tuple[str, str, str, list[str]]] = [
-    ("units", "units", "engine/units.py", [E + "test_units_spellings.py", E + "test_units.py"]),
-    ("core_demand", "core", "engine/core/_demand.py", [E + "test_demand.py"]),
-    ("core_section", "core", "engine/core/_section.py", [E + "test_section.py"]),
-    ("core_compatibility", "core", "engine/core/_compatibility.py", [E + "test_compatibility.py"]),
-    ("core_capacity", "core", "engine/core/_capacity.py", [E + "test_capacity.py"]),
-    ("core_governing", "core", "engine/core/_governing.py", [E + "test_governing.py"]),
-    ("core_allowables", "core", "engine/core/_allowables.py", [E + "test_allowables.py"]),
-    ("core_criteria_list", "core", "engine/core/_criteria_list.py", [E + "test_criteria.py", E + "test_rating.py"]),
-    ("core_rating", "core", "engine/core/_rating.py", [E + "test_rating.py"]),
+    ("units", "units", "engine/units.py", [TE + "test_units_spellings.py", TE + "test_units.py"]),
+    ("core_demand", "core", "engine/core/_demand.py", [TE + "test_demand.py"]),
+    ("core_section", "core", "engine/core/_section.py", [TE + "test_section.py"]),
+    ("core_compatibility", "core", "engine/core/_compatibility.py", [TE + "test_compatibility.py"]),
+    ("core_capacity", "core", "engine/core/_capacity.py", [TE + "test_capacity.py"]),
+    ("core_governing", "core", "engine/core/_governing.py", [TE + "test_governing.py"]),
+    ("core_allowables", "core", "engine/core/_allowables.py", [TE + "test_allowables.py"]),
+    ("core_criteria_list", "core", "engine/core/_criteria_list.py", [TE + "test_criteria.py", TE + "test_rating.py"]),
+    ("core_rating", "core", "engine/core/_rating.py", [TE + "test_rating.py"]),
     ("core_materials", "core", "engine/core/_materials.py",
-     [E + "test_materials.py", E + "test_materials_laminate.py"]),
-    ("intake_words", "intake", "engine/intake/_words.py", [I + "test_words.py"]),
-    ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [I + "test_allowable_rule.py"]),
-    ("intake_schema", "intake", "engine/intake/_schema.py", [I + "test_schema.py"]),
-    ("intake_columns", "intake", "engine/intake/_columns.py", [I + "test_schema.py", I + "test_front_ends_agree.py"]),
-    ("intake_materials", "intake", "engine/intake/_materials.py", [I + "test_front_ends_agree.py", B + "test_materials_rules.py"]),
-    ("intake_parts", "intake", "engine/intake/_parts.py", [I + "test_front_ends_agree.py", B + "test_bad_cells.py"]),
-    ("bridge_duty", "bridge", "engine/intake/_duty.py", [I + "test_duty.py"]),
-    ("bridge_layers", "bridge", "engine/intake/_layers.py", [I + "test_front_ends_agree.py", B + "test_bad_cells.py"]),
-    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [B + "test_comments.py", B + "test_rate_command.py"]),
+     [TE + "test_materials.py", TE + "test_materials_laminate.py"]),
+    ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py"]),
+    ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
+    ("intake_schema", "intake", "engine/intake/_schema.py", [TI + "test_schema.py"]),
+    ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
+    ("intake_materials", "intake", "engine/intake/_materials.py", [TI + "test_front_ends_agree.py", TB + "test_materials_rules.py"]),
+    ("intake_parts", "intake", "engine/intake/_parts.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("bridge_duty", "bridge", "engine/intake/_duty.py", [TI + "test_duty.py"]),
+    ("bridge_layers", "bridge", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [TB + "test_comments.py", TB + "test_rate_command.py"]),
 ]
 
 _STATUS_KILLED = {"ok_killed", "bad_timeout", "ok_suspicious"}  # a timeout is a detected change
