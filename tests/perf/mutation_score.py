@@ -141,6 +141,8 @@ def run_target(name: str, package: str, module: str, tests: list[str], lines: tu
     (RESULTS / f"{name}.json").write_text(json.dumps(result, indent=1))
     shutil.move(str(cache), str(RESULTS / f"{name}.mutmut-cache"))
     print(f"   {len(rows) - len(survivors)}/{len(rows)} killed", flush=True)
+    if not rows:
+        print("   no mutants: mutmut failed (for --lines, is whatthepatch installed?)", flush=True)
     return result
 
 
