@@ -26,7 +26,7 @@ the changed line), and last one JSON line with ``score_core``, ``score_intake``,
 ``score_bridge`` (each a fraction in [0, 1], or null when none of its targets was run) and
 ``survivors`` (a list of {"target", "file", "line", "diff"}). Mutants shown equivalent are listed
 with their reason in ``tests/perf/mutation_equivalents.md`` and counted as killed when the file
-names them (file, the line's text before and after the change). Targets: >= 0.95 core and
+names them (file, line number, the line's text before and after the change). Targets: >= 0.95 core and
 intake, >= 0.90 units and bridge.
 """
 
@@ -75,15 +75,15 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
 _STATUS_KILLED = {"ok_killed", "bad_timeout", "ok_suspicious"}  # a timeout is a detected change
 
 
-def _equivalents() -> set[tuple[str, str]]:
-    """(file, diff) pairs listed as equivalent: table rows ``| `file` | line | `old` → `new` | reason |``."""
+def _equivalents() -> set[tuple[str, int, str]]:
+    """(file, line, diff) listed as equivalent: table rows ``| `file` | line | `old` → `new` | reason |``."""
     if not EQUIVALENTS.exists():
         return set()
     found = set()
-    for m in re.finditer(r"^\|\s*`([^`]+)`\s*\|\s*\d+\s*\|\s*`(.+?)`\s*→\s*`(.+?)`\s*\|", EQUIVALENTS.read_text(),
+    for m in re.finditer(r"^\|\s*`([^`]+)`\s*\|\s*(\d+)\s*\|\s*`(.+?)`\s*→\s*`(.+?)`\s*\|", EQUIVALENTS.read_text(),
                          re.MULTILINE):
-        old, new = (g.replace("\\|", "|").strip() for g in (m.group(2), m.group(3)))  # markdown escapes | in tables
-        found.add((m.group(1), old + " -> " + new))
+        old, new = (g.replace("\\|", "|").strip() for g in (m.group(3), m.group(4)))  # markdown escapes | in tables
+        found.add((m.group(1), int(m.group(2)), old + " -> " + new))
     return found
 
 
@@ -152,7 +152,7 @@ def report() -> dict:
     left = []
     for path in sorted(RESULTS.glob("*.json")):
         r = json.loads(path.read_text())
-        alive = [s for s in r["survivors"] if (s["file"], s["diff"]) not in equivalent]
+        alive = [s for s in r["survivors"] if (s["file"], s["line"], s["diff"]) not in equivalent]
         killed_or_equivalent = r["total"] - len(alive)
         tally = per_package.setdefault(r["package"], [0, 0])
         tally[0] += killed_or_equivalent
