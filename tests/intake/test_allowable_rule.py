@@ -95,3 +95,21 @@ def test_bronze_without_a_rule_is_told_what_to_give():
         "material 'MPD bronze': no allowable shear and no rule given: the shafting code rule "
         "min(0.30·Sy, 0.18·Su) is a rule for steel shafting; give this material a row in the materials "
         "table with an allowable shear, or a rule (max shear, distortion energy) and a factor of safety")
+
+
+def test_decision_and_notes_are_frozen_and_doubts_are_not_assumptions():
+    import dataclasses
+
+    decision = allowable_of("MPD shaft steel", AllowableRule.MAX_SHEAR, NAN, 300 * MPA, 200 * MPA, 2, False)
+    assert decision.missing is None
+    (note,) = decision.notes
+    assert note.assumed is False
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        decision.allowable = 1.0  # type: ignore[misc]
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        note.message = ""  # type: ignore[misc]
+
+
+def test_a_nameless_material_is_not_named_in_its_notes():
+    decision = allowable_of(None, AllowableRule.MAX_SHEAR, NAN, 300 * MPA, 200 * MPA, 2, False)
+    assert [n.message for n in decision.notes] == ["the ultimate strength is below the yield strength: check both values"]
