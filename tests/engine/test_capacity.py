@@ -77,3 +77,13 @@ def test_no_limit_means_infinite_capacity():
     assert twist_per_length_capacity(np.nan, 1e4) == np.inf
     both = twist_angle_capacity([np.nan, 0.01], [1e4, 1e4], [1.0, 2.0])
     np.testing.assert_array_equal(both, [np.inf, 50.0])
+
+
+def test_layer_capacity_without_kt_is_the_plain_section():
+    """No stress concentration given means Kt = 1: T = tau J / r = pi d^3 tau / 16 for one solid
+    layer (Roark's Formulas for Stress and Strain, table 10.1, solid circle): 40 mm at 100 MPa
+    is 1256.637 N·m by hand."""
+    d, g, tau = 0.04, 79.3e9, 100e6
+    sum_gj = g * math.pi * d**4 / 32
+    assert layer_capacity(tau, sum_gj, g, d) == pytest.approx(math.pi * d**3 * tau / 16, rel=1e-12)
+    assert layer_capacity(tau, sum_gj, g, d) == pytest.approx(1256.637, rel=1e-6)

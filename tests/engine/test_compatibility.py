@@ -86,12 +86,29 @@ class TestShares:
         assert rating.share[0, 0] / rating.share[0, 1] == pytest.approx(j_core / j_sleeve, rel=1e-12)
 
     def test_stiffer_layer_carries_more(self):
-        """Shares follow G*J: doubling one layer's G with equal J doubles its torque ratio."""
+        """Shares follow G*J (twist compatibility). J written here, not taken from the engine:
+        J = pi (D^4 - d^4) / 32 (Roark's Formulas for Stress and Strain, table 10.1, hollow
+        circle), so a wrong polar moment cannot cancel out. rtol 1e-12."""
         gj = layer_stiffness([0.04, 0.05], [0.0, 0.04], [80e9, 40e9])
+        j_core = math.pi * 0.04**4 / 32
+        j_sleeve = math.pi * (0.05**4 - 0.04**4) / 32
+        np.testing.assert_allclose(polar_moment([0.04, 0.05], [0.0, 0.04]), [j_core, j_sleeve], rtol=1e-12)
+        np.testing.assert_allclose(gj, [80e9 * j_core, 40e9 * j_sleeve], rtol=1e-12)
         share = torque_share(gj)
-        j = polar_moment([0.04, 0.05], [0.0, 0.04])
-        assert share[0] / share[1] == pytest.approx(2.0 * j[0] / j[1], rel=1e-12)
+        total = 80e9 * j_core + 40e9 * j_sleeve
+        np.testing.assert_allclose(share, [80e9 * j_core / total, 40e9 * j_sleeve / total], rtol=1e-12)
         assert share.sum() == pytest.approx(1.0, rel=1e-15)
+
+
+    def test_shares_of_several_parts_are_per_part(self):
+        """Each part's shares are its own G_i J_i / sum(G J) (twist compatibility), for parts
+        on the leading axis; J = pi (D^4 - d^4) / 32 written here (Roark, table 10.1)."""
+        outer = np.array([[0.04, 0.05, 0.06], [0.03, 0.045, 0.05]])
+        inner = np.array([[0.0, 0.04, 0.05], [0.01, 0.03, 0.045]])
+        g = np.array([[80e9, 40e9, 26e9], [79e9, 41e9, 70e9]])
+        gj = g * math.pi * (outer**4 - inner**4) / 32
+        expected = gj / gj.sum(axis=1)[:, None]
+        np.testing.assert_allclose(torque_share(layer_stiffness(outer, inner, g)), expected, rtol=1e-12)
 
 
 class TestPointFunctions:
@@ -120,12 +137,14 @@ class TestStressProfile:
         assert radius.shape == (2,)
 
     def test_needs_two_points(self):
-        with pytest.raises(ValueError, match="points_per_layer must be at least 2; got 1"):
+        with pytest.raises(ValueError) as info:
             stress_profile([0.04], [0.0], [80e9], 0.02, 1)
+        assert str(info.value) == "points_per_layer must be at least 2; got 1"
 
     def test_one_part_only(self):
-        with pytest.raises(ValueError, match="one part's layers"):
+        with pytest.raises(ValueError) as info:
             stress_profile([[0.04]], [[0.0]], [[80e9]], 0.02)
+        assert str(info.value) == "stress_profile takes one part's layers (1-D); got shape (1, 1)"
 
 
 class TestNumericalIntegration:

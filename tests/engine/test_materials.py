@@ -183,3 +183,15 @@ class TestCompleteFromLibrary:
         lib = find_material("Carbon/epoxy tube 45 wound")
         values, filled = complete_from_library({"youngs_modulus": 17.7e9, "poisson_ratio": 0.77}, lib)
         assert "shear_modulus" in filled and values["shear_modulus"] == lib.shear_modulus
+
+
+@pytest.mark.parametrize("name, lb_per_in3", [
+    ("AISI 1020 hot rolled", 0.282),  # Shigley table A-5 states steel densities in lb/in³
+    ("AISI 1045 hot rolled", 0.282),
+    ("Phosphor bronze", 0.295),       # the library states these two in lb/in³ as well
+    ("Grey cast iron class 30", 0.260),
+])
+def test_us_density_converted_with_the_nist_factor(name, lb_per_in3):
+    """pound per cubic inch = 2.767 990 E+04 kg/m³ (NIST SP 811 (2008) App. B.9); a wrong inch
+    factor (e.g. 0.025 m) moves the density by 5 % and fails here."""
+    assert LIBRARY[name].density == pytest.approx(lb_per_in3 * 2.767990e4, rel=5e-7)

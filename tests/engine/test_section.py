@@ -97,8 +97,9 @@ class TestLayerStack:
             LayerStack(**_two_layer(shear_modulus=[[79e9, 40e9, 1e9]]))
 
     def test_one_dimensional_refused(self):
-        with pytest.raises(ValueError, match=r"outer_diameter must be a \(parts, layers\) array"):
+        with pytest.raises(ValueError) as info:
             LayerStack(**_two_layer(outer_diameter=[0.04, 0.05]))
+        assert str(info.value) == "LayerStack.outer_diameter must be a (parts, layers) array; got shape (2,)"
 
     def test_default_rule_is_given(self):
         stack = LayerStack(**_two_layer())

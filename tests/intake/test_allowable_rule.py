@@ -65,3 +65,51 @@ def test_doubts_are_notes_beside_a_number(rule, sy, su, fs, keyway, words):
 def test_missing_inputs_are_named(rule, sy, su, fs, missing):
     decision = allowable_of(None, rule, NAN, sy * MPA, su * MPA, fs, False)
     assert math.isnan(decision.allowable) and missing in decision.missing
+
+
+# The whole sentence of each note, field and code: the words a user reads beside the number.
+# The 0.30·Sy / 0.18·Su / 0.75 figures are the shafting code rule's (common practice, from memory).
+_WHO = "material 'MPD shaft steel': "
+
+
+@pytest.mark.parametrize("rule, sy, su, fs, keyway, field, code, words", [
+    (AllowableRule.SHAFTING_CODE, 300, 500, 2, False, "factor_of_safety", "factor-of-safety-ignored",
+     "the factor of safety is not used: the shafting code rule carries its own allowance "
+     "(FS is not applied on top); leave it blank"),
+    (AllowableRule.MAX_SHEAR, 300, NAN, 2, True, "keyway", "keyway-ignored",
+     "the keyway is not used by this rule: the 0.75 keyway factor belongs to the shafting code rule; "
+     "use Kt for a keyway's stress concentration"),
+    (AllowableRule.MAX_SHEAR, 300, 200, 2, False, "ultimate_strength", "ultimate-below-yield",
+     "the ultimate strength is below the yield strength: check both values"),
+    (AllowableRule.MAX_SHEAR, 300, NAN, 0.8, False, "factor_of_safety", "factor-of-safety-below-one",
+     "the factor of safety is below 1"),
+])
+def test_note_words_in_full(rule, sy, su, fs, keyway, field, code, words):
+    decision = allowable_of("MPD shaft steel", rule, NAN, sy * MPA, su * MPA, fs, keyway)
+    assert [(n.field, n.code, n.message) for n in decision.notes] == [(field, code, _WHO + words)]
+
+
+def test_bronze_without_a_rule_is_told_what_to_give():
+    decision = allowable_of("MPD bronze", None, NAN, 200 * MPA, 400 * MPA, NAN, False)
+    assert decision.missing == (
+        "material 'MPD bronze': no allowable shear and no rule given: the shafting code rule "
+        "min(0.30·Sy, 0.18·Su) is a rule for steel shafting; give this material a row in the materials "
+        "table with an allowable shear, or a rule (max shear, distortion energy) and a factor of safety")
+
+
+def test_decision_and_notes_are_frozen_and_doubts_are_not_assumptions():
+    import dataclasses
+
+    decision = allowable_of("MPD shaft steel", AllowableRule.MAX_SHEAR, NAN, 300 * MPA, 200 * MPA, 2, False)
+    assert decision.missing is None
+    (note,) = decision.notes
+    assert note.assumed is False
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        decision.allowable = 1.0  # type: ignore[misc]
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        note.message = ""  # type: ignore[misc]
+
+
+def test_a_nameless_material_is_not_named_in_its_notes():
+    decision = allowable_of(None, AllowableRule.MAX_SHEAR, NAN, 300 * MPA, 200 * MPA, 2, False)
+    assert [n.message for n in decision.notes] == ["the ultimate strength is below the yield strength: check both values"]

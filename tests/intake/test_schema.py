@@ -58,3 +58,33 @@ class TestLayerGroups:
 
     def test_not_a_group(self):
         assert match_layer_group_header("Outer diameter [mm]") is None
+
+
+# --- plausible ranges read in US units (the ranges are stated in SI; 1 in = 25.4 mm exactly,
+# NIST SP 811; 1 rpm = 2π/60 rad/s by definition) ---------------------------------------------
+
+def _plausible(head, row):
+    from _membook import rate_parts
+
+    return [p for p in rate_parts(head, row).problems if p.code == "plausible"]
+
+
+_US_HEAD = ["Part", "Length [in]", "Torque [lbf·in]", "Speed [rpm]", "Layer 1 material", "Layer 1 outer diameter [in]"]
+
+
+def test_outer_diameter_in_inches_message_and_range():
+    # upper bound 5000 mm = 196.85 in
+    assert not _plausible(_US_HEAD, ["P1", 20, 100, None, "Core steel", 196.5])
+    (p,) = _plausible(_US_HEAD, ["P1", 20, 100, None, "Core steel", 400])
+    assert "400 in = 10160 mm is outside the plausible range 0.1 to 5000 mm (common practice)" in p.message
+    assert p.cell == "F2"
+
+
+def test_speed_range_in_rpm():
+    # upper bound 200 000 rpm, lower 0.1 rpm
+    assert not _plausible(_US_HEAD, ["P1", 20, 100, 199_000, "Core steel", 2])
+    assert not _plausible(_US_HEAD, ["P1", 20, 100, 0.11, "Core steel", 2])
+    (p,) = _plausible(_US_HEAD, ["P1", 20, 100, 201_000, "Core steel", 2])
+    assert "201000 rpm" in p.message and "0.1 to 200000 rpm" in p.message
+    (p,) = _plausible(_US_HEAD, ["P1", 20, 100, 0.09, "Core steel", 2])
+    assert p.cell == "D2"

@@ -1,0 +1,195 @@
+"""Mutation score of the engine core, the intake, the units and the bridge's duty/placement paths.
+
+Run as a script (not collected by pytest, not run in CI; needs the ``mutation`` extra)::
+
+    pip install -e '.[test,mutation]'
+    python tests/perf/mutation_score.py                 # every target below, one after another
+    python tests/perf/mutation_score.py --only units    # targets whose name contains 'units'
+    python tests/perf/mutation_score.py --report        # summarise the saved results only
+    python tests/perf/mutation_score.py --only units --lines 191:284   # mutate only those lines
+
+The tool is mutmut 2.5 (``mutmut run --paths-to-mutate ... --runner ...``). mutmut 3 was
+tried first: it copies the sources into ``mutants/`` and recognises a mutant by the module name
+derived from the file path (``engine.units``), while this repository installs its folders under
+another name (``engine/`` is ``twistshare.engine``), so its trampolines never switch a mutant
+on. mutmut 2 writes each mutant into the source file in place, runs the given test command and
+restores the file, which works with any package layout (run it in a clean worktree: the module
+is rewritten while it runs).
+
+Each target is one module and the few fast test files that concern it (the machine is shared:
+never the whole suite per mutant). Each mutant's run is stopped after ``3 x baseline + 10 s``.
+The per-target results are kept in ``out/mutation/<target>.json`` (git-ignored), so one target
+can be rerun and the summary rebuilt with ``--report``.
+
+Prints, per package, killed / total and the score, then every surviving mutant (file, line,
+the changed line), and last one JSON line with ``score_core``, ``score_intake``, ``score_units``,
+``score_bridge`` (each a fraction in [0, 1], or null when none of its targets was run) and
+``survivors`` (a list of {"target", "file", "line", "diff"}). Mutants shown equivalent are listed
+with their reason in ``tests/perf/mutation_equivalents.md`` and counted as killed when the file
+names them (file, line number, the line's text before and after the change). Targets: >= 0.95 core and
+intake, >= 0.90 units and bridge.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import re
+import shutil
+import sqlite3
+import subprocess
+import sys
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[2]
+RESULTS = ROOT / "out" / "mutation"
+EQUIVALENTS = ROOT / "tests" / "perf" / "mutation_equivalents.md"
+
+TE, TI, TB = "tests/engine/", "tests/intake/", "tests/bridge/"
+
+# (target name, package, module, test files): each module with the tests that concern it.
+TARGETS: list[tuple[str, str, str, list[str]]] = [
+    ("units", "units", "engine/units.py", [TE + "test_units_spellings.py", TE + "test_units.py"]),
+    ("core_demand", "core", "engine/core/_demand.py", [TE + "test_demand.py"]),
+    ("core_section", "core", "engine/core/_section.py", [TE + "test_section.py"]),
+    ("core_compatibility", "core", "engine/core/_compatibility.py", [TE + "test_compatibility.py"]),
+    ("core_capacity", "core", "engine/core/_capacity.py", [TE + "test_capacity.py"]),
+    ("core_governing", "core", "engine/core/_governing.py", [TE + "test_governing.py"]),
+    ("core_allowables", "core", "engine/core/_allowables.py", [TE + "test_allowables.py"]),
+    ("core_criteria_list", "core", "engine/core/_criteria_list.py", [TE + "test_criteria.py", TE + "test_rating.py"]),
+    ("core_rating", "core", "engine/core/_rating.py", [TE + "test_rating.py"]),
+    ("core_materials", "core", "engine/core/_materials.py",
+     [TE + "test_materials.py", TE + "test_materials_laminate.py"]),
+    ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py"]),
+    ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
+    ("intake_schema", "intake", "engine/intake/_schema.py", [TI + "test_schema.py"]),
+    ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
+    ("intake_materials", "intake", "engine/intake/_materials.py", [TI + "test_front_ends_agree.py", TB + "test_materials_rules.py"]),
+    ("intake_parts", "intake", "engine/intake/_parts.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("bridge_duty", "bridge", "engine/intake/_duty.py", [TI + "test_duty.py"]),
+    ("bridge_layers", "bridge", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [TB + "test_comments.py", TB + "test_rate_command.py"]),
+]
+
+_STATUS_KILLED = {"ok_killed", "bad_timeout", "ok_suspicious"}  # a timeout is a detected change
+
+
+def _equivalents() -> set[tuple[str, int, str]]:
+    """(file, line, diff) listed as equivalent: table rows ``| `file` | line | `old` → `new` | reason |``."""
+    if not EQUIVALENTS.exists():
+        return set()
+    found = set()
+    for m in re.finditer(r"^\|\s*`([^`]+)`\s*\|\s*(\d+)\s*\|\s*`(.+?)`\s*→\s*`(.+?)`\s*\|", EQUIVALENTS.read_text(),
+                         re.MULTILINE):
+        old, new = (g.replace("\\|", "|").strip() for g in (m.group(3), m.group(4)))  # markdown escapes | in tables
+        found.add((m.group(1), int(m.group(2)), old + " -> " + new))
+    return found
+
+
+def _diff(mutant_id: int) -> str:
+    out = subprocess.run(["mutmut", "show", str(mutant_id)], cwd=ROOT, capture_output=True, text=True).stdout
+    old = [ln[1:].strip() for ln in out.splitlines() if ln.startswith("-") and not ln.startswith("---")]
+    new = [ln[1:].strip() for ln in out.splitlines() if ln.startswith("+") and not ln.startswith("+++")]
+    return " / ".join(old) + " -> " + " / ".join(new)
+
+
+def _line_patch(module: str, lines: tuple[int, int]) -> Path:
+    """A unified diff that shows lines[0]..lines[1] (1-based, inclusive) of `module` as added,
+    so that mutmut's ``--use-patch-file`` mutates only those lines."""
+    text = (ROOT / module).read_text().splitlines()
+    first, last = lines
+    body = "".join(f"+{line}\n" for line in text[first - 1:last])
+    patch = RESULTS / "lines.patch"
+    RESULTS.mkdir(parents=True, exist_ok=True)
+    patch.write_text(f"--- a/{module}\n+++ b/{module}\n@@ -{first - 1},0 +{first},{last - first + 1} @@\n{body}")
+    return patch
+
+
+def run_target(name: str, package: str, module: str, tests: list[str], lines: tuple[int, int] | None = None) -> dict:
+    """Run mutmut on one module with its tests; the module's text is restored afterwards.
+
+    `lines` (first, last), 1-based: mutate only those lines (the result records the range)."""
+    tests = [t for t in tests if (ROOT / t).exists()]
+    cache = ROOT / ".mutmut-cache"
+    if cache.exists():
+        cache.unlink()
+    source = (ROOT / module).read_text()
+    runner = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(tests)
+    cmd = ["mutmut", "run", "--paths-to-mutate", module, "--tests-dir", "tests", "--runner", runner,
+           "--test-time-multiplier", "3", "--test-time-base", "10", "--no-progress", "--simple-output"]
+    if lines is not None:
+        cmd += ["--use-patch-file", str(_line_patch(module, lines))]
+    print(f"== {name}: {module} against {' '.join(tests)}", flush=True)
+    try:
+        subprocess.run(cmd, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
+                       stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    finally:
+        if (ROOT / module).read_text() != source:
+            (ROOT / module).write_text(source)
+    con = sqlite3.connect(cache)
+    rows = con.execute("SELECT m.id, m.status, l.line_number, l.line FROM Mutant m JOIN Line l ON m.line = l.id").fetchall()
+    con.close()
+    survivors = []
+    for mid, status, line_number, _line in rows:
+        if status not in _STATUS_KILLED:
+            survivors.append({"target": name, "file": module, "line": line_number + 1, "status": status,
+                              "diff": _diff(mid)})
+    result = {"target": name, "package": package, "module": module, "tests": tests, "total": len(rows),
+              "lines": list(lines) if lines else None, "survivors": survivors}
+    RESULTS.mkdir(parents=True, exist_ok=True)
+    (RESULTS / f"{name}.json").write_text(json.dumps(result, indent=1))
+    shutil.move(str(cache), str(RESULTS / f"{name}.mutmut-cache"))
+    print(f"   {len(rows) - len(survivors)}/{len(rows)} killed", flush=True)
+    if not rows:
+        print("   no mutants: mutmut failed (for --lines, is whatthepatch installed?)", flush=True)
+    return result
+
+
+def report() -> dict:
+    equivalent = _equivalents()
+    per_package: dict[str, list[int]] = {}
+    left = []
+    for path in sorted(RESULTS.glob("*.json")):
+        r = json.loads(path.read_text())
+        alive = [s for s in r["survivors"] if (s["file"], s["line"], s["diff"]) not in equivalent]
+        killed_or_equivalent = r["total"] - len(alive)
+        tally = per_package.setdefault(r["package"], [0, 0])
+        tally[0] += killed_or_equivalent
+        tally[1] += r["total"]
+        scope = f" lines {r['lines'][0]}-{r['lines'][1]}" if r.get("lines") else ""
+        print(f"{r['target']:<24} {killed_or_equivalent:>4}/{r['total']:<4} "
+              f"{killed_or_equivalent / max(r['total'], 1):6.1%}  ({r['module']}{scope})")
+        left.extend(alive)
+    print()
+    scores = {}
+    for package in ("core", "intake", "units", "bridge"):
+        k, n = per_package.get(package, (0, 0))
+        scores[f"score_{package}"] = round(k / n, 4) if n else None
+        print(f"{package:<8} {k}/{n} " + (f"{k / n:.1%}" if n else "not run"))
+    print("\nsurviving mutants:" if left else "\nno surviving mutants")
+    for s in left:
+        print(f"  {s['file']}:{s['line']} [{s['status']}] {s['diff']}")
+    scores["survivors"] = [{k: s[k] for k in ("target", "file", "line", "diff")} for s in left]
+    return scores
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--only", action="append", default=[], help="run only targets whose name contains this")
+    parser.add_argument("--report", action="store_true", help="only summarise the saved results")
+    parser.add_argument("--lines", help="FIRST:LAST, mutate only these lines of each target run")
+    args = parser.parse_args()
+    if shutil.which("mutmut") is None:
+        sys.exit("mutmut is not installed: pip install -e '.[mutation]'")
+    if not args.report:
+        for name, package, module, tests in TARGETS:
+            if args.only and not any(o in name for o in args.only):
+                continue
+            lines = tuple(int(x) for x in args.lines.split(":")) if args.lines else None
+            run_target(name, package, module, tests, lines)
+    print(json.dumps(report()))
+
+
+if __name__ == "__main__":
+    main()
