@@ -352,7 +352,7 @@ def solve_dimension(
     bracket with a failing and a holding end then contains one crossing, whichever criterion
     governs on either side, and the criterion at the answer is reported.
 
-    Which criteria are monotone (BRIEF §2 formulas): twist limits go with ``sum(GJ)``, which
+    Which criteria are monotone (the twist-compatibility formulas): twist limits go with ``sum(GJ)``, which
     any added material raises; a layer's stress capacity ``tau_a sum(GJ) / (G r_o Kt)`` rises
     too where its ``r_o`` does not move (layers inside the change, every layer when the bore
     changes). A layer whose ``r_o`` moves gains if ``D dsum(GJ)/dD >= sum(GJ)``; for the

@@ -1,6 +1,6 @@
 """A worked calculation a checking engineer can audit: one part's rating as native formulas.
 
-The part's inputs, then every step of the hand method of twist compatibility (BRIEF §2; Roark's
+The part's inputs, then every step of the hand method of twist compatibility (common practice; Roark's
 Formulas for Stress and Strain, torsion of circular sections) — J per layer, G·J, ΣGJ, share,
 layer torque, stress, each capacity, the twist limits, the governing limit, margin and reserve
 factor — each as a plain spreadsheet formula (PI, SUM, MIN, RADIANS, ...) on the input cells of
@@ -26,7 +26,7 @@ from ._cells import Styled, caution_rows
 __all__ = ["worked_rows", "worked_sheet_name", "WORKED_PREFIX"]
 
 WORKED_PREFIX = "Twistshare calc "
-_SOURCE = "BRIEF §2 twist compatibility; Roark's Formulas for Stress and Strain, torsion of circular sections"
+_SOURCE = "twist compatibility of concentric layers that twist as one (common practice); Roark's Formulas for Stress and Strain, torsion of circular sections"
 
 
 def worked_sheet_name(part: str) -> str:
