@@ -2,8 +2,8 @@
 
 Figures, one run:
 
-* ``max_scalar_call_us``: the slowest median over every cell function whose arguments are
-  single cells (``one value`` in the registry), each called with ``value unit`` strings, e.g.
+* ``max_scalar_call_us``: the slowest median over every cell function that returns one value
+  (``one value`` in the registry) and whose arguments are single cells, each called with ``value unit`` strings, e.g.
   ``TWS_ALLOWABLE("distortion energy", "310 MPa", None, 2, None, "ksi")`` (target <= 50 us);
 * ``block_vs_floor``: one ``TWS_LAYER_CAPACITY`` call over a 10,000-row layer block (Part,
   Material, Outer diameter [mm], Inner diameter [mm], Allowable [MPa], Kt; one row per layer,
@@ -28,13 +28,21 @@ from typing import Any
 
 from twistshare.engine.cells import (
     TWS_ALLOWABLE,
+    TWS_BOND_STRESS,
+    TWS_FIT_PRESSURE,
     TWS_GOVERNING_LIMIT,
+    TWS_LAMINATE_E,
+    TWS_LAMINATE_G,
     TWS_LAYER_CAPACITY,
     TWS_MARGIN,
+    TWS_PLASTIC_TORQUE,
+    TWS_SLIP_TORQUE,
     TWS_TORQUE_FROM_POWER,
     registry,
 )
 
+# Returns one value but takes a layer block: read like a table, so not held to the 50 us bar.
+BLOCK_ARGUMENT = {"TWS_PLASTIC_TORQUE"}
 MATERIALS = ("AISI 1045 hot rolled", "Stainless 316 annealed", "Aluminium bronze C95400 as cast")
 
 
@@ -82,6 +90,15 @@ def main() -> None:
     calls = {
         "TWS_TORQUE_FROM_POWER": lambda: TWS_TORQUE_FROM_POWER("15 kW", "1450 rpm", 1.25, "lbf·in"),
         "TWS_ALLOWABLE": lambda: TWS_ALLOWABLE("distortion energy", "310 MPa", None, 2, None, "ksi"),
+        "TWS_FIT_PRESSURE": lambda: TWS_FIT_PRESSURE("0.04 mm", "50 mm", "80 mm", "110 GPa", 0.34,
+                                                     "20 mm", "207 GPa", 0.30),
+        "TWS_SLIP_TORQUE": lambda: TWS_SLIP_TORQUE("28.75 MPa", 0.12, "40 mm", "50 mm"),
+        "TWS_BOND_STRESS": lambda: TWS_BOND_STRESS("400 N·m", "40 mm", "30 mm"),
+        "TWS_PLASTIC_TORQUE": lambda: TWS_PLASTIC_TORQUE(
+            [["Material", "Outer diameter [mm]", "Inner diameter [mm]"], [MATERIALS[0], 40, None],
+             [MATERIALS[1], 50, 40]]),
+        "TWS_LAMINATE_G": lambda: TWS_LAMINATE_G("135 GPa", "10 GPa", "5 GPa", 0.3, "0.125 mm", "[±45]s"),
+        "TWS_LAMINATE_E": lambda: TWS_LAMINATE_E("135 GPa", "10 GPa", "5 GPa", 0.3, "0.125 mm", "[±45]s"),
     }
     scalar_functions = {spec.name for spec in registry() if spec.shape == "one value"}
     assert scalar_functions == set(calls), f"add a scalar call for {scalar_functions ^ set(calls)}"
@@ -92,7 +109,8 @@ def main() -> None:
         seconds, result = median_time(call, 2000)
         assert isinstance(result, float), result
         scalar[name] = seconds * 1e6
-        print(f"{name:<28} median {scalar[name]:8.1f} us   (target <= 50 us)")
+        bar = "(a layer block: for information)" if name in BLOCK_ARGUMENT else "(target <= 50 us)"
+        print(f"{name:<28} median {scalar[name]:8.1f} us   {bar}")
 
     one_part = [["Material", "Outer diameter [mm]", "Inner diameter [mm]", "Allowable [MPa]", "Kt"],
                 [MATERIALS[0], 40, 0, 100, None], [MATERIALS[1], 50, 40, 80, 1.2]]
@@ -116,9 +134,12 @@ def main() -> None:
     assert all(not isinstance(r[0], str) for r in result[1:]), result[:3]
     print(f"{'same, value-unit strings':<28} median {seconds * 1e3:8.2f} ms   (for information)")
 
-    max_scalar = max(scalar.values())
+    slowest = max((n for n in scalar if n not in BLOCK_ARGUMENT), key=scalar.__getitem__)
+    max_scalar = scalar[slowest]
+    print(f"slowest single-cell function: {slowest}")
     print(f"ratios to target: scalar {max_scalar / 50:.2f}, block {ratio / 2.5:.2f} (<= 1 meets)")
-    print(json.dumps({"max_scalar_call_us": round(max_scalar, 2), "block_vs_floor": round(ratio, 3),
+    print(json.dumps({"max_scalar_call_us": round(max_scalar, 2), "slowest_scalar": slowest,
+                      "scalar_us": {n: round(v, 1) for n, v in scalar.items()}, "block_vs_floor": round(ratio, 3),
                       "scalar_call_us": round(scalar["TWS_TORQUE_FROM_POWER"], 2),
                       "allowable_call_us": round(scalar["TWS_ALLOWABLE"], 2),
                       "block_10k_ms": round(block_ms, 3), "floor_10k_ms": round(floor_seconds * 1e3, 3),
