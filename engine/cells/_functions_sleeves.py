@@ -22,6 +22,7 @@ from twistshare.engine.intake import field_by_key
 
 from ._arguments import WARNING_SIGN, CellError, is_empty, read_field, read_rule, result_factor
 from ._blocks import read_block, read_materials_block
+from ._functions import _result
 from ._registry import Argument, cell_function
 
 __all__ = [
@@ -38,11 +39,6 @@ _STRESS = "stress: MPa, GPa, psi, ksi"
 
 def _f(key: str):
     return field_by_key(key)
-
-
-def _result(default: str, kind_words: str, examples: str) -> Argument:
-    return Argument("result_unit", f"Unit of the result (default {default})",
-                    unit=f"{kind_words}: {examples}")
 
 
 @cell_function(

@@ -5,15 +5,12 @@ from __future__ import annotations
 import numpy as np
 from numpy.typing import NDArray
 
+from ._arrays import flag_where as _flag
 from ._diagnoses import LAYER_ERRORS, LayerFlag, PartFlag
 from ._duty import Duty
 from ._section import LayerStack, interface_gaps
 
 __all__ = ["layer_flags", "part_flags"]
-
-
-def _flag(words: NDArray[np.int32], condition: NDArray[np.bool_], flag: int) -> None:
-    np.bitwise_or(words, np.int32(flag), out=words, where=condition)
 
 
 def _detailed_layer_flags(

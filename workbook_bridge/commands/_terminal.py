@@ -4,21 +4,17 @@ per-part results as CSV or JSON, in the same units and words as the results shee
 from __future__ import annotations
 
 import csv
+import io
 import json
-import math
 from pathlib import Path
 
 import numpy as np
 from twistshare.engine.intake import BookRating, Display, governs_text
 
-from ..sheets import criterion_counts, lowest_margins
+from ..ooxml import atomic_file
+from ..sheets import criterion_counts, finite_or_none, lowest_margins
 
 __all__ = ["part_records", "terminal_table", "write_records"]
-
-
-def _num(value: float) -> float | None:
-    value = float(value)
-    return value if math.isfinite(value) else None
 
 
 def part_records(result: BookRating, display: Display) -> list[dict[str, object]]:
@@ -40,11 +36,11 @@ def part_records(result: BookRating, display: Display) -> list[dict[str, object]
             material = parts.materials[i][layer] if layer >= 0 else None
             record.update({
                 "Status": "FAILS" if margin < 0 else "ok",
-                f"Demand torque [{tu}]": _num(parts.torque[i] / tf),
-                f"Governing limit [{tu}]": _num(r.governing_capacity[i] / tf),
+                f"Demand torque [{tu}]": finite_or_none(parts.torque[i] / tf),
+                f"Governing limit [{tu}]": finite_or_none(r.governing_capacity[i] / tf),
                 "Governs": governs_text(int(r.governing_criterion[i]), layer, material),
-                "Margin [%]": _num(margin),
-                "Reserve factor (limit / demand)": _num(r.reserve_factor[i]),
+                "Margin [%]": finite_or_none(margin),
+                "Reserve factor (limit / demand)": finite_or_none(r.reserve_factor[i]),
             })
         out.append(record)
     return out
@@ -53,12 +49,15 @@ def part_records(result: BookRating, display: Display) -> list[dict[str, object]
 def write_records(records: list[dict[str, object]], path: Path) -> None:
     """CSV (by the file's suffix ``.csv``) or JSON (anything else): the records as they are."""
     if path.suffix.lower() == ".csv":
-        with path.open("w", newline="", encoding="utf-8") as f:
-            writer = csv.DictWriter(f, fieldnames=list(records[0]) if records else ["Part"])
-            writer.writeheader()
-            writer.writerows(records)
+        text = io.StringIO(newline="")
+        writer = csv.DictWriter(text, fieldnames=list(records[0]) if records else ["Part"])
+        writer.writeheader()
+        writer.writerows(records)
+        data = text.getvalue()
     else:
-        path.write_text(json.dumps(records, indent=1, ensure_ascii=False), encoding="utf-8")
+        data = json.dumps(records, indent=1, ensure_ascii=False)
+    with atomic_file(path, 0o644) as f:  # like every file the bridge writes: whole or not at all
+        f.write(data.encode("utf-8"))
 
 
 def terminal_table(result: BookRating, display: Display, count: int = 10) -> str:

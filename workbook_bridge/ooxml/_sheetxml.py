@@ -102,7 +102,7 @@ def insert_link_element(text: str, local: str, rel_id: str) -> str:
     return text[:close] + element + text[close:]
 
 
-_CELL = re.compile(r"<(?P<p>(?:[\w.-]+:)?)c\s(?P<attrs>[^>]*?\br=\"(?P<r>[^\"]*)\"[^>]*?)(?P<empty>/?)>")
+CELL_TAG = re.compile(r"<(?P<p>(?:[\w.-]+:)?)c\s(?P<attrs>[^>]*?\br=\"(?P<r>[^\"]*)\"[^>]*?)(?P<empty>/?)>")
 _SHARED_F = re.compile(r"<(?:[\w.-]+:)?f\b([^>]*?)/?>")
 
 
@@ -142,7 +142,7 @@ def replace_cells(text: str, values: Mapping[str, Any]) -> tuple[str, dict[str, 
     masters: dict[str, str] = {}
     had_formula = 0
     last = 0
-    for match in _CELL.finditer(text):
+    for match in CELL_TAG.finditer(text):
         ref = match.group("r").replace("$", "").upper()
         if ref not in wanted:
             continue
@@ -206,7 +206,7 @@ def insert_missing_cells(text: str, refs: Sequence[str]) -> str:
     gains a cell loses its optional ``spans`` hint (a hint only; Excel recomputes it). Nothing
     else changes, so ``replace_cells`` can then fill them like any other cell.
     """
-    present = {m.group("r").replace("$", "").upper() for m in _CELL.finditer(text)}
+    present = {m.group("r").replace("$", "").upper() for m in CELL_TAG.finditer(text)}
     todo: dict[int, list[int]] = {}
     for ref in refs:
         col, row = split_ref(ref)
@@ -247,7 +247,7 @@ def insert_missing_cells(text: str, refs: Sequence[str]) -> str:
         pieces: list[str] = []
         pos = 0
         pending = list(new)
-        for cm in _CELL.finditer(body):
+        for cm in CELL_TAG.finditer(body):
             c_col, _ = split_ref(cm.group("r").replace("$", ""))
             while pending and pending[0][0] < c_col:
                 pieces.append(body[pos:cm.start()])

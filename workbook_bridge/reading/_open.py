@@ -64,10 +64,10 @@ class OpenBook:
 
         try:
             with zipfile.ZipFile(self.path) as zf:
-                size = zf.getinfo(member).file_size
-                if size > Limits().max_part_parsed:
+                size, most = zf.getinfo(member).file_size, Limits().max_part_parsed
+                if size > most:
                     raise BookUnusable(f"{self.path.name}: sheet {name!r} is {size:,} bytes of XML, more than "
-                                       f"the {Limits().max_part_parsed:,} this tool reads")
+                                       f"the {most:,} this tool reads")
                 extras = sheet_extras(zf, member, MAX_SHEET_CELLS)
         except (zipfile.BadZipFile, zlib.error, EOFError, OSError, KeyError) as exc:
             raise BookUnusable(f"{self.path.name}: sheet {name!r} is corrupt ({_one_line(exc)})") from None
@@ -99,8 +99,7 @@ def open_book(path: Path, sheet_parts: dict[str, str]) -> OpenBook:
     try:
         wb = pc.CalamineWorkbook.from_path(str(path), load_tables=True)
     except Exception as exc:  # calamine's errors are not one family; word them in one line
-        raise BookUnusable(f"{path.name}: the workbook could not be read ({type(exc).__name__}: "
-                           f"{' '.join(str(exc).split())[:200]})") from None
+        raise BookUnusable(f"{path.name}: the workbook could not be read ({_one_line(exc)})") from None
     tables: dict[str, TableRegion] = {}
     try:
         names = list(wb.table_names)

@@ -2,19 +2,14 @@
 
 from __future__ import annotations
 
-import math
-
 from twistshare.engine.intake import RULE_FORMULAS, Display, MaterialSet
 
 from ._cells import Styled
+from ._cells import finite_or_none as _num
 
 __all__ = ["materials_rows", "MATERIALS_SHEET"]
 
 MATERIALS_SHEET = "Twistshare materials"
-
-
-def _num(x: float) -> float | None:
-    return None if x is None or not math.isfinite(float(x)) else float(x)
 
 
 def materials_rows(materials: MaterialSet, display: Display) -> list[list]:
@@ -26,7 +21,7 @@ def materials_rows(materials: MaterialSet, display: Display) -> list[list]:
     filled = {(f.material.lower(), f.field) for f in materials.filled}
     for m in materials.by_name.values():
         def v(x: float, field: str, scale: float) -> object:
-            val = _num(x / scale) if x is not None and math.isfinite(x) else None
+            val = _num(x / scale) if x is not None else None
             if (m.name.lower(), field) in filled and val is not None:
                 return Styled(val, "filled")
             return val

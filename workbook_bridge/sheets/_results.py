@@ -7,7 +7,6 @@ writer's named styles. Units sit in the headers, in the results' unit system.
 from __future__ import annotations
 
 import itertools
-import math
 
 import numpy as np
 from twistshare.engine.core import Criterion
@@ -38,10 +37,6 @@ READING_THE_RESULTS = (
     "Nominal stress: G·r·θ' at the layer's outer and inner radius, without Kt; utilisation = Kt × "
     "nominal stress at the outer radius / allowable.",
 )
-
-def _num(x: float) -> float | None:
-    return None if x is None or not math.isfinite(float(x)) else float(x)
-
 
 def _column(x: np.ndarray, keep: np.ndarray) -> list:
     """One results column as Python floats; NaN (blank in the sheet) where the part is not rated."""

@@ -12,15 +12,12 @@ from twistshare.engine.intake import Display, governs_text
 from twistshare.engine.intake._wording import SIZING_CAUTION, SIZING_STATUS_WORDS, STOCK_STATUS_WORDS
 from twistshare.engine.intake._words import OUTER_LAYERS_WORDS, size_text
 
-from ._cells import CAUTIONS, Styled
+from ._cells import Styled, caution_rows
+from ._cells import finite_or_none as _f
 
 __all__ = ["SIZING_SHEET", "sizing_rows", "sizing_summary_rows"]
 
 SIZING_SHEET = "Twistshare sizing"
-
-
-def _f(x: float) -> float | None:
-    return float(x) if np.isfinite(x) else None
 
 
 def _governs(book, i: int, criterion: int, layer: int) -> str:
@@ -60,8 +57,7 @@ def sizing_rows(book, display: Display) -> tuple[list[list], list[int], list[str
         rows.append(row)
     rows.append([])
     rows.append([SIZING_CAUTION])
-    rows.append([Styled("Caution", "caution_title")])
-    rows.extend([Styled(c, "caution_line")] for c in CAUTIONS)
+    rows.extend(caution_rows()[:-1])  # no blank row after: the block ends the sheet
     widths = [14, 26, 10, 10, 34, 12, 30, 12, 12, 28, 12, 30]
     styles = [None, None, None, "fixed3", None, "fixed3", None, "fixed3", "fixed3", None, "fixed3", None]
     return rows, widths, styles

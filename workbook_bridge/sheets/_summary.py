@@ -11,7 +11,8 @@ from twistshare.engine.core import stress_profile, torque_twist_curve
 from twistshare.engine.intake import RULE_FORMULAS, Display, Problem, Severity, governs_text
 
 from .. import __version__
-from ._cells import CAUTIONS, Styled
+from ._cells import Styled, caution_rows
+from ._cells import finite_or_none as _f
 from ._results import READING_THE_RESULTS, criteria_checked, criterion_counts, lowest_margins
 from ._sizing_sheet import sizing_summary_rows
 
@@ -28,10 +29,6 @@ class SummaryLayout:
     profile: tuple[int, int] | None
     profile_part: str | None
     curve: tuple[int, int] | None = None  # the chosen part's torque–twist curve
-
-
-def _f(x) -> float | None:
-    return float(x) if x is not None and math.isfinite(float(x)) else None
 
 
 def summary_rows(book, display: Display, profile_part: str | None = None) -> tuple[list[list], SummaryLayout]:
@@ -52,10 +49,7 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             rows.append([label, f"sheet {spot.sheet!r}, header on row {spot.header_row + 1}, "
                                 f"{len(spot.data_rows)} rows ({spot.data_rows[0] + 1} to {spot.data_rows[-1] + 1})"])
     rows.append([])
-    rows.append([Styled("Caution", "caution_title")])
-    for c in CAUTIONS:
-        rows.append([Styled(c, "caution_line")])
-    rows.append([])
+    rows.extend(caution_rows())
     rows.append([Styled("Reading the results", "title")])
     for line in READING_THE_RESULTS:
         rows.append([line])

@@ -22,6 +22,7 @@ from twistshare.engine.intake import BookRating, cell_ref, governs_text
 
 from ..ooxml import Cell, Formula
 from ._cells import Styled, caution_rows
+from ._cells import finite_or_none as _f
 
 __all__ = ["worked_rows", "worked_sheet_name", "WORKED_PREFIX"]
 
@@ -33,11 +34,6 @@ def worked_sheet_name(part: str) -> str:
     """The sheet's name for a part (a spreadsheet allows 31 characters; forbidden ones dropped)."""
     clean = "".join(ch for ch in part if ch not in "[]:*?/\\'")
     return (WORKED_PREFIX + clean)[:31]
-
-
-def _f(value: float) -> float | None:
-    value = float(value)
-    return value if math.isfinite(value) else None
 
 
 def worked_rows(book: BookRating, index: int) -> list[list]:

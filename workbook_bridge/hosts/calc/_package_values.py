@@ -19,7 +19,10 @@ from pathlib import Path
 
 from twistshare.engine.intake import cell_ref, parse_ref
 from twistshare.workbook_bridge.ooxml import PackageInfo, atomic_file
-from twistshare.workbook_bridge.ooxml._sheetxml import insert_missing_cells  # the writer's own row editing
+from twistshare.workbook_bridge.ooxml._sheetxml import (  # the writer's own cell pattern and row editing
+    CELL_TAG,
+    insert_missing_cells,
+)
 from twistshare.workbook_bridge.ooxml._xmltext import escape_text
 
 __all__ = ["OfficeError", "CellValue", "formula_cells", "sheet_formula_cells", "set_cached_values",
@@ -49,7 +52,6 @@ class OfficeError:
 
 CellValue = float | str | OfficeError
 
-_CELL = re.compile(r"<(?P<p>(?:[\w.-]+:)?)c\s(?P<attrs>[^>]*?\br=\"(?P<r>[^\"]*)\"[^>]*?)(?P<empty>/?)>")
 _F = re.compile(r"<(?P<p>(?:[\w.-]+:)?)f\b(?P<attrs>[^>]*?)(?:/>|>.*?</(?P=p)f>)", re.S)
 _V_OR_IS = re.compile(r"<(?P<p>(?:[\w.-]+:)?)(?P<tag>v|is)\b[^>]*?(?:/>|>.*?</(?P=p)(?P=tag)>)", re.S)
 _ATTR = re.compile(r'\b([\w:]+)="([^"]*)"')
@@ -58,7 +60,7 @@ _T_ATTR = re.compile(r'\s+t="[^"]*"')
 
 def _cell_spans(text: str):
     """Each <c> element: (match, end of the element, its inner text)."""
-    for m in _CELL.finditer(text):
+    for m in CELL_TAG.finditer(text):
         if m.group("empty"):
             yield m, m.end(), ""
             continue
