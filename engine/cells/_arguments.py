@@ -137,13 +137,24 @@ def value_and_unit(value: Any, where: str) -> tuple[Any, str | None]:
         return flat[0], None
     if len(flat) == 2:
         first, second = flat
-        if isinstance(first, str) and not looks_numeric(first) and "[" in first:
+        pair = pair_kind(first, second)
+        if pair == "header":
             return second, split_header(first)[1]
-        if isinstance(second, str) and second.strip() and not looks_numeric(second) \
-                and error_value_text(second) is None:
+        if pair == "unit":
             return first, second.strip()
         raise CellError(where, "expected one cell, or a value and its unit in two cells")
     raise CellError(where, f"expected one cell, got a range of {len(flat)} cells")
+
+
+def pair_kind(first: Any, second: Any) -> str | None:
+    """Whether two cells are one value: ``"header"`` (a header with its unit, then the value),
+    ``"unit"`` (the value, then its unit) or None."""
+    if isinstance(first, str) and not looks_numeric(first) and "[" in first:
+        return "header"
+    if isinstance(second, str) and second.strip() and not looks_numeric(second) \
+            and error_value_text(second) is None:
+        return "unit"
+    return None
 
 
 def read_field(value: Any, field: Field, where: str, *, unit: str | None = None) -> float:

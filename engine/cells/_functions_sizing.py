@@ -21,7 +21,7 @@ from twistshare.engine.core import (
     solve_dimension,
 )
 from twistshare.engine.intake import LAYER_FIELDS, field_by_key, header_factor
-from twistshare.engine.intake._sizing_input import parse_stock_list
+from twistshare.engine.intake._sizing_input import parse_stock_list, slot_refusal
 from twistshare.engine.intake._wording import SIZING_STATUS_WORDS, STOCK_STATUS_WORDS
 from twistshare.engine.intake._words import (
     OUTER_LAYERS_CHOICES,
@@ -82,9 +82,10 @@ def _slots(block, dimension: SizedDimension, layer: int, outer: OuterLayers) -> 
     for i in range(block.n_parts):
         if count[i] == 0:
             continue  # the block's own problem says why
-        if slot[i] >= count[i]:
+        why = slot_refusal(dimension, slot[i], count[i], outer)
+        if why == "size-layer":
             problems[i] = f"size: the part has {count[i]} layer(s)"
-        elif outer == OuterLayers.FIXED and dimension != SizedDimension.BORE and slot[i] != count[i] - 1:
+        elif why == "size-fixed":
             problems[i] = (f"size: with the outer layers fixed only the outermost layer (layer {count[i]}) "
                            "can be sized; say 'move' or size that layer")
     return np.maximum(slot, 0), problems

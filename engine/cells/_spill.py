@@ -14,7 +14,7 @@ from twistshare.engine.intake._interface_inputs import interface_problems
 from twistshare.engine.intake._words import error_value_text
 from twistshare.engine.units import display_unit, split_header
 
-from ._arguments import WARNING_SIGN, CellError, flatten, is_empty, looks_numeric, read_field
+from ._arguments import WARNING_SIGN, CellError, flatten, is_empty, looks_numeric, pair_kind, read_field
 from ._blocks import THRESHOLD, Block
 
 __all__ = ["per_part", "rate_block", "spill_layers", "spill_parts", "unit_label", "merge"]
@@ -22,13 +22,7 @@ __all__ = ["per_part", "rate_block", "spill_layers", "spill_parts", "unit_label"
 
 def _is_pair(cells: list[Any]) -> bool:
     """Two cells that are one value: (value, unit) or (header with unit, value)."""
-    if len(cells) != 2:
-        return False
-    first, second = cells
-    if isinstance(second, str) and second.strip() and not looks_numeric(second) \
-            and error_value_text(second) is None:
-        return True
-    return isinstance(first, str) and "[" in first and not looks_numeric(first)
+    return len(cells) == 2 and pair_kind(*cells) is not None
 
 
 def per_part(value: Any, field: Field, block: Block, where: str, required: bool

@@ -46,7 +46,19 @@ from ._words import (
     where_text,
 )
 
-__all__ = ["SizingRequest", "BookSizing", "read_sizing", "size_parts", "parse_stock_list", "sizing_problems"]
+__all__ = ["SizingRequest", "BookSizing", "read_sizing", "size_parts", "parse_stock_list", "sizing_problems",
+           "slot_refusal"]
+
+
+def slot_refusal(dimension: int, slot: int, n_layers: int, outer: int) -> str | None:
+    """Why a part cannot size that layer slot, the one rule of tables and cells: ``"size-layer"``
+    (the part has no such layer), ``"size-fixed"`` (with the outer layers fixed only the
+    outermost layer's face is free), or None."""
+    if n_layers == 0 or slot >= n_layers:
+        return "size-layer"
+    if outer == OuterLayers.FIXED and dimension != SizedDimension.BORE and slot != n_layers - 1:
+        return "size-fixed"
+    return None
 
 _SEPARATORS = re.compile(r"[;,]")
 _TAIL_UNIT = re.compile(r"^[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?\s*([^\d\s.+-].*)$")
@@ -203,10 +215,11 @@ def read_sizing(grid: SheetGrid, spot: TableSpot, ids: list[str], rows: list[int
     for i in np.flatnonzero(asked).tolist():
         if error[i]:
             continue  # another cell already refused the part; its own message says why
-        if slot[i] >= n_layers[i] or n_layers[i] == 0:
+        why = slot_refusal(dimension[i], slot[i], n_layers[i], outer[i])
+        if why == "size-layer":
             refuse(i, size_col.index, "dimension to size",
                    f"{quoted(texts[i])}: the part has {n_layers[i]} layer(s)", "size-layer")
-        elif outer[i] == OuterLayers.FIXED and dimension[i] != SizedDimension.BORE and slot[i] != outermost[i]:
+        elif why == "size-fixed":
             refuse(i, size_col.index, "dimension to size",
                    f"{quoted(texts[i])} with the outer layers fixed: only the outermost layer (layer "
                    f"{outermost[i] + 1}) can change its outer face without breaking a contact; "
