@@ -275,8 +275,10 @@ def read_block(layers: Any, materials: Any, need_allowable: bool = True) -> Bloc
 def _part_problems(parts: PartsInput, problems: list[Problem], need_allowable: bool) -> tuple[str | None, ...]:
     """Per part, the first problem that stops it: its own, or one of a material it uses (a
     material without an allowable stops only the results that need one)."""
-    index = {pid: i for i, pid in enumerate(parts.ids)}
     out: list[str | None] = [None] * parts.count
+    if not problems and not parts.input_error.any():
+        return tuple(out)
+    index = {pid: i for i, pid in enumerate(parts.ids)}
     by_material: dict[str, str] = {}
     for p in problems:
         if not stops(p.severity, THRESHOLD):

@@ -93,6 +93,8 @@ def merge(*problem_lists: list[str | None]) -> list[str | None]:
     """Per part, the first problem of the lists given (in their order)."""
     merged = list(problem_lists[0])
     for problems in problem_lists[1:]:
+        if problems.count(None) == len(problems):
+            continue  # nothing to add: the common case of a long block
         merged = [a if a is not None else b for a, b in zip(merged, problems)]
     return merged
 
@@ -172,16 +174,16 @@ def spill_layers(block: Block, values: NDArray[np.float64], factor: float,
         used = rows_part >= 0
         gathered = np.full(block.n_rows, np.nan)
         gathered[used] = values[rows_part[used], rows_slot[used]] / factor
-        cells: list[Any] = gathered.tolist()
-        for row in np.flatnonzero(~used | np.isnan(gathered)):
+        cells: list[list[Any]] = gathered[:, np.newaxis].tolist()  # one-cell rows, built by numpy
+        for row in np.flatnonzero(~used | np.isnan(gathered)).tolist():
             part = int(rows_part[row])
             if part < 0:
-                cells[row] = ""
+                cells[row] = [""]
             elif problems[part] is not None:
-                cells[row] = _warn(problems[part])
+                cells[row] = [_warn(problems[part])]
             else:
-                cells[row] = f"{WARNING_SIGN} not computed"
-        out.extend(map(list, zip(cells)))
+                cells[row] = [f"{WARNING_SIGN} not computed"]
+        out.extend(cells)
         return out
     n_layers = present.shape[1]
     if block.has_header:

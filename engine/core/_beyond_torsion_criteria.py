@@ -177,7 +177,8 @@ def buckling_capacity(section: Section) -> NDArray[np.float64]:
         return _no_limit_parts(section)
     used = ~section.unused
     known = ~(np.isnan(modulus) | np.isnan(poisson)) | ~used
-    checkable = known.all(axis=1)
+    # No span, no buckling torque (the formulas need L): such parts are left out of the work.
+    checkable = known.all(axis=1) & np.broadcast_to(np.isfinite(section.duty.length), known.shape[:1])
     if not checkable.any():
         return _no_limit_parts(section)
     stack = section.stack

@@ -291,7 +291,8 @@ def read_text(grid: SheetGrid, col: int, rows: Sequence[int]) -> list[str | None
     """Text of a column, stripped; whole numbers shown without a decimal point; None when empty."""
     raw = grid.cells(col, rows)
     if not grid.errors and set(map(type, raw)) == {str}:  # the common case, read straight from the grid
-        return [x.strip() or None for x in raw]
+        stripped: list[str | None] = list(map(str.strip, raw))
+        return [x or None for x in stripped] if "" in stripped else stripped
     out: list[str | None] = []
     errors = grid.errors
     for r, value in zip(rows, raw):

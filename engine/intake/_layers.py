@@ -8,6 +8,8 @@ material's.
 
 from __future__ import annotations
 
+import re
+from collections.abc import Callable, Hashable, Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
@@ -19,7 +21,7 @@ from ._grid import SheetGrid, cell_ref
 from ._problems import Problem, Severity
 from ._schema import LAYER_FIELDS, Column
 from ._tables import TableSpot
-from ._words import error_value_text, where_text
+from ._words import error_value_text, may_hold_error_values, where_text
 
 __all__ = ["LayerArrays", "layers_from_groups", "layers_from_rows", "row_labels"]
 
@@ -54,22 +56,38 @@ class LayerArrays:
                    cells, np.zeros(n, bool))
 
 
+def row_position(rows: Sequence[int]) -> Callable[[int], int | None]:
+    """``position(row)``: where a sheet row sits in `rows` (None if absent). The index is built
+    on the first question, so a long table with nothing to report never pays for it."""
+    index: dict[int, int] = {}
+
+    def position(r: int) -> int | None:
+        if not index and rows:
+            index.update(zip(rows, range(len(rows))))
+        return index.get(r)
+
+    return position
+
+
 def row_labels(ids: list[str | None], rows: list[int], layer: int | None = None):
     """``who(row)`` naming the part (and layer) of a table row, with a ``tag`` for problems."""
-    index = {r: i for i, r in enumerate(rows)}
+    index = row_position(rows)
 
     def who(r: int) -> str:
-        i = index.get(r)
+        i = index(r)
         pid = ids[i] if i is not None else None
         base = where_text(pid) if pid else f"row {r + 1}"
         return f"{base}, layer {layer}" if layer else base
 
     def tag(r: int) -> tuple[str | None, int | None]:
-        i = index.get(r)
+        i = index(r)
         return (ids[i] if i is not None else None), layer
 
     who.tag = tag  # lets the column reader tie each problem to its part and layer
     return who
+
+
+_NUMBER_START = re.compile(r"\n[0-9+\-.]")
 
 
 def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, findings: list[Problem],
@@ -83,9 +101,8 @@ def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, find
     modulus = np.full(n, np.nan)
     bad = np.zeros(n, bool)
     tag = who.tag
-    starts = {text[:1] for text in names if text is not None}
-    if not starts & set("0123456789+-."):
-        return names, modulus, bad  # names only: the common case
+    if not _NUMBER_START.search("\n" + "\n".join(filter(None, names))):
+        return names, modulus, bad  # names only (no text starts like a number): the common case
     for i, text in enumerate(names):
         if text is None or not (text[:1].isdigit() or text[:1] in "+-." and text[1:2].isdigit()):
             continue
@@ -248,7 +265,7 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
     if pcol is None:
         return [None] * len(rows), [False] * len(rows)
     keys = read_text(grid, pcol.index, rows)
-    if None not in keys and not grid.errors and not any(k[:1] == "#" or k[:4].upper() == "ERR:" for k in keys):
+    if None not in keys and not grid.errors and not may_hold_error_values(keys):
         return keys, [False] * len(rows)  # every row names its part
     out: list[str | None] = []
     errors: list[bool] = []
@@ -268,16 +285,20 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
     return out, errors
 
 
+def first_seen_index(keys: Sequence[Hashable]) -> tuple[list, np.ndarray]:
+    """The distinct keys in order of first appearance, and each key's position among them."""
+    position = {key: i for i, key in enumerate(dict.fromkeys(keys))}
+    return list(position), np.fromiter(map(position.__getitem__, keys), np.intp, len(keys))
+
+
 def part_positions(keys: list[str | None]) -> tuple[list[str], np.ndarray]:
     """The parts a row-per-layer table names, in order of appearance, and each row's position
     among them (-2 where the row names none)."""
-    position: dict[str | None, int] = {}
-    group = np.fromiter((position.setdefault(k, len(position)) for k in keys), np.intp, len(keys))
-    ids = list(position)
-    if None in position:
-        missing = position.pop(None)
+    ids, group = first_seen_index(keys)
+    if None in ids:
+        missing = ids.index(None)
+        del ids[missing]
         group = np.where(group == missing, -2, group - (group > missing))
-        ids = list(position)
     return ids, group
 
 
@@ -307,16 +328,16 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     n_layers = max(int(numbers.max()) if n_rows else 1, 1)
     n = len(ids)
     out = LayerArrays.empty(n, n_layers, CellRefs(grid.name, rows))
-    row_index = {r: i for i, r in enumerate(rows)}
+    row_index = row_position(rows)
 
     def who(r: int) -> str:
-        i = row_index[r]
+        i = row_index(r)
         k, number = keys[i], int(numbers[i])
         if not k:  # the one part of a block without a Part column: its row says where
             return f"row {r + 1}, layer {number}" if number else f"row {r + 1}"
         return f"part {k}, layer {number}" if number else f"part {k}"
 
-    who.tag = lambda r: (keys[row_index[r]], int(numbers[row_index[r]]) or None)
+    who.tag = lambda r: (keys[row_index(r)], int(numbers[row_index(r)]) or None)
     got = {key: read_numeric(grid, c, rows, who, findings, spot.header_row, header_seen)
            for key in _NUMERIC_KEYS if (c := spot.column(key)) is not None}
     mcol = spot.column("material")
@@ -349,8 +370,7 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     rowmap[p, j] = np.asarray(rows, dtype=np.intp)[src]
     out.cells.by_layer(rowmap, {key: c.index for key in (*_NUMERIC_KEYS, "material")
                                 if (c := spot.column(key)) is not None})
-    if mcol is not None and (grid.errors or any(n is not None and (n[:1] == "#" or n[:4].upper() == "ERR:")
-                                                for n in names)):
+    if mcol is not None and (grid.errors or may_hold_error_values(names)):
         for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
             err = error_problem(grid, rows[i], mcol.index, "a material name")
             if err is not None:

@@ -18,7 +18,15 @@ from ._columns import error_problem, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
 from ._interface_inputs import read_interface_inputs
-from ._layers import LayerArrays, layers_from_groups, layers_from_rows, part_keys, part_positions, row_labels
+from ._layers import (
+    LayerArrays,
+    first_seen_index,
+    layers_from_groups,
+    layers_from_rows,
+    part_keys,
+    part_positions,
+    row_labels,
+)
 from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._materials import MaterialSet
 from ._problems import Problem, Severity
@@ -254,9 +262,7 @@ def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: L
                      props: dict[str, np.ndarray] | None = None) -> None:
     # Each distinct name is looked up once; the arrays are filled through the inverse index.
     cells, kt = layers.cells, layers.kt
-    position: dict[str, int] = {}
-    inverse = np.fromiter((position.setdefault(name, len(position)) for name in named), np.intp, len(named))
-    unique = list(position)
+    unique, inverse = first_seen_index(named)
     first = np.zeros(len(unique), np.intp)
     first[inverse[::-1]] = np.arange(len(named))[::-1]
     # A layer's own allowable means its material need give none.

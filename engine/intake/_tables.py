@@ -90,11 +90,14 @@ def _data_rows(grid: SheetGrid, start: int, end: int, idx: list[int]) -> tuple[i
         return ()
     span = range(start, end)
     filled = np.zeros(end - start, bool)
-    columns = [grid.cells(c, span) for c in idx]
-    kinds = [set(map(type, cells)) for cells in columns]
-    if any(k <= {float, int} for k in kinds):
-        return tuple(span)  # a column of numbers: every row holds something
-    for cells, k in zip(columns, kinds):
+    columns = []
+    for c in idx:
+        cells = grid.cells(c, span)
+        k = set(map(type, cells))
+        if k <= {float, int}:
+            return tuple(span)  # a column of numbers: every row holds something
+        columns.append((cells, k))
+    for cells, k in columns:
         if k == {str}:
             filled |= np.fromiter(map(bool, map(str.strip, cells)), bool, len(cells))
         else:

@@ -7,7 +7,7 @@ so ``mises`` or ``with keyway`` means the same in a cell and in a table.
 from __future__ import annotations
 
 import re
-from collections.abc import Mapping
+from collections.abc import Iterable, Mapping
 from types import MappingProxyType
 
 from twistshare.engine.core import AllowableRule, EndSupport, LoadPath, OuterLayers, SizedDimension, normalise_name
@@ -190,6 +190,16 @@ def error_value_text(value: object) -> str | None:
         stripped = value.strip().upper()
         return stripped if stripped in ERROR_VALUES else None
     return None
+
+
+def may_hold_error_values(texts: Iterable[str | None]) -> bool:
+    """Whether any of these stripped texts could be a spreadsheet error value (``#...``, ``ERR:...``).
+
+    One pass at C speed over a long column. True only sends the caller to the exact check of
+    each cell (`error_value_text`), so a false alarm costs time, never a wrong answer.
+    """
+    joined = "\n" + "\n".join(filter(None, texts)).upper()
+    return "\n#" in joined or "\nERR:" in joined
 
 
 # --- Sizing: which dimension a Size cell names, and what the layers outside it do -------------
