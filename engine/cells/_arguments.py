@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
+from functools import lru_cache
 from types import MappingProxyType
 from typing import Any
 
@@ -170,16 +171,27 @@ def read_field(value: Any, field: Field, where: str, *, unit: str | None = None)
     """
     raw, pair_unit = value_and_unit(value, where)
     unit = pair_unit or unit
+    read = _read_plain if type(raw) in (str, float, int) else _read
+    got, problem = read(raw, field, unit)
+    if problem is not None:
+        raise CellError(where, problem)
+    return got
+
+
+def _read(raw: Any, field: Field, unit: str | None) -> tuple[float, str | None]:
     if raw is None or (isinstance(raw, str) and not raw.strip()):
-        raise CellError(where, f"cell is empty; expected {describe_kind(field.kind)}")
+        return math.nan, f"cell is empty; expected {describe_kind(field.kind)}"
     error = error_value_text(raw)
     factor, header_issue = header_factor(field, unit, field.description)
     if unit is None and field.needs_unit:
         header_issue = _no_unit_advice(raw, field)
     got, problem, _code = cell_value(raw, field, unit, factor, header_issue, is_error=error is not None)
-    if problem is not None:
-        raise CellError(where, problem)
-    return got
+    return got, problem
+
+
+# A recalculating sheet passes the same texts and numbers again and again: each distinct
+# (value, field, unit) is read once. Typed, so that TRUE is never taken for 1.
+_read_plain = lru_cache(maxsize=4096, typed=True)(_read)
 
 
 def read_flag(value: Any, where: str, default: bool = False) -> bool:

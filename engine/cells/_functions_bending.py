@@ -10,6 +10,7 @@ physics from the core. Each layer's E, density and Poisson's ratio come from its
 from __future__ import annotations
 
 import math
+from functools import lru_cache
 from typing import Any
 
 import numpy as np
@@ -216,6 +217,20 @@ def TWS_BUCKLING_TORQUE(layers, length, factor_of_safety=None, result_unit=None,
                        _title("buckling torque", result_unit, "torque"))
 
 
+# A sheet asks for the same laminate again and again: its G and its E, every row of a catalogue
+# wound to one specification, every recalculation. The notation is read and the laminate solved
+# once per distinct input (the results are frozen, so sharing them is safe).
+@lru_cache(maxsize=256)
+def _layup_angles(text: str) -> tuple[float, ...]:
+    return tuple(parse_layup(text))
+
+
+@lru_cache(maxsize=256)
+def _laminate_solved(e1: float, e2: float, g12: float, nu12: float, ply_thickness: float,
+                     angles: tuple[float, ...]):
+    return laminate_moduli(e1, e2, g12, nu12, ply_thickness, np.radians(np.asarray(angles, dtype=float)))
+
+
 def _laminate(e1, e2, g12, nu12, ply_thickness, layup):
     ply = [read_field(value, field_by_key(key), where) for value, key, where in (
         (e1, "ply_e1", "E1"), (e2, "ply_e2", "E2"), (g12, "ply_g12", "G12"), (nu12, "ply_nu12", "ν12"),
@@ -223,10 +238,10 @@ def _laminate(e1, e2, g12, nu12, ply_thickness, layup):
     if is_empty(layup) or not isinstance(layup, str):
         raise CellError("layup", "expected a layup in laminate notation, e.g. '[±45]s'")
     try:
-        angles = parse_layup(layup)
+        angles = _layup_angles(layup.strip())
     except LayupNotationError as error:
         raise CellError("layup", str(error)) from None
-    moduli = laminate_moduli(*ply, np.radians(np.asarray(angles, dtype=float)))
+    moduli = _laminate_solved(*ply, angles)
     if not bool(np.asarray(moduli.valid)[0]):
         raise CellError("ply data", "the plies are not usable (check E1, E2, G12 and ν12)")
     return moduli
