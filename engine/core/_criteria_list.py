@@ -155,6 +155,10 @@ def governing_of(
             columns = ((slot, values[:, slot]) for slot in range(values.shape[1])) if values.ndim == 2 \
                 else ((-1, values),)
             for slot, column in columns:
+                if not (column < np.inf).any():
+                    # No limit anywhere in it (only +inf and NaN): it could win only where
+                    # nothing else does, and such parts end as NONE below in any case.
+                    continue
                 # Strictly smaller takes over; NaN never wins.
                 wins = column < capacity
                 wins |= np.isnan(capacity) & ~np.isnan(column)

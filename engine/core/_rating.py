@@ -218,7 +218,8 @@ def rate(
                           MappingProxyType(dict(inputs or {})))
         capacities = {check.criterion: check.capacity(section) for check in CRITERIA}
         for values in capacities.values():
-            if invalid is not None and values.ndim == 1:
+            # A shared "no limit" array is read-only and NaN for these parts already.
+            if invalid is not None and values.ndim == 1 and values.flags.writeable:
                 values[invalid] = nan
         capacity = capacities[Criterion.LAYER_STRESS]
         utilisation = torque[:, np.newaxis] / capacity
