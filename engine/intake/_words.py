@@ -11,6 +11,7 @@ from collections.abc import Iterable, Mapping
 from types import MappingProxyType
 
 from twistshare.engine.core import AllowableRule, EndSupport, LoadPath, OuterLayers, SizedDimension, normalise_name
+from twistshare.engine.units import ERROR_VALUES, error_value_text
 
 __all__ = [
     "header_key",
@@ -174,22 +175,6 @@ def where_text(part: str | None, layer: int | None = None) -> str:
         return f"layer {layer}" if layer else "the part"
     who = part if part.startswith("row ") else f"part {part}"
     return f"{who}, layer {layer}" if layer else who
-
-
-#: The error values spreadsheets show in a cell (Excel's and LibreOffice Calc's spellings).
-ERROR_VALUES: frozenset[str] = frozenset({
-    "#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#GETTING_DATA",
-    "#SPILL!", "#CALC!", "#FIELD!", "#BLOCKED!", "#CONNECT!", "#BUSY!", "#UNKNOWN!",
-    "#EXTERNAL!", "#PYTHON!", "ERR:502", "ERR:504", "ERR:508", "ERR:522", "ERR:523",
-})
-
-
-def error_value_text(value: object) -> str | None:
-    """The spreadsheet error a cell's text stands for (``"#N/A"``), or None if it is not one."""
-    if isinstance(value, str):
-        stripped = value.strip().upper()
-        return stripped if stripped in ERROR_VALUES else None
-    return None
 
 
 def may_hold_error_values(texts: Iterable[str | None]) -> bool:

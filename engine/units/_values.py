@@ -13,6 +13,23 @@ import numpy as np
 from ._factors import _factor, si_offset
 from ._kinds import _DISPLAY, _KIND_PHRASE, UnitProblem, _check_kind_name
 
+# The error values spreadsheets show in a cell (Excel's and LibreOffice's), in capitals: the one
+# list every reader of a cell consults.
+ERROR_VALUES: frozenset[str] = frozenset({
+    "#NULL!", "#DIV/0!", "#VALUE!", "#REF!", "#NAME?", "#NUM!", "#N/A", "#GETTING_DATA",
+    "#SPILL!", "#CALC!", "#FIELD!", "#BLOCKED!", "#CONNECT!", "#BUSY!", "#UNKNOWN!",
+    "#EXTERNAL!", "#PYTHON!", "ERR:502", "ERR:504", "ERR:508", "ERR:522", "ERR:523",
+})
+
+
+def error_value_text(value: object) -> str | None:
+    """The spreadsheet error a cell's text stands for (``"#N/A"``), or None if it is not one."""
+    if isinstance(value, str):
+        stripped = value.strip().upper()
+        return stripped if stripped in ERROR_VALUES else None
+    return None
+
+
 _NUMBER = re.compile(
     # A unit right after the number must not start with a digit, comma or point ("1.200,5" is a
     # decimal comma, not 1 and a unit ".200,5"); after a space it may ("1450 1/min").
@@ -64,9 +81,9 @@ def parse_value(text_or_number: object, kind: str, default_unit: str | None = No
     """
     _check_kind_name(kind)
     value = text_or_number
-    if isinstance(value, str) and value.strip().startswith("#") and value.strip()[1:2].isalpha():
-        raise UnitProblem(value.strip().upper(), kind, "a spreadsheet error value",
-                          message=f"cell holds the error {value.strip().upper()}")
+    error = error_value_text(value)
+    if error is not None:
+        raise UnitProblem(error, kind, "a spreadsheet error value", message=f"cell holds the error {error}")
     if value is None:
         raise UnitProblem("", kind, "empty", message=f"cell is empty; expected {_KIND_PHRASE[kind]}")
     if isinstance(value, (bool, np.bool_)):

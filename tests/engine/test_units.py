@@ -385,12 +385,18 @@ class TestParseValue:
 
     @pytest.mark.parametrize(
         "error", ["#N/A", "#VALUE!", "#REF!", "#DIV/0!", "#NUM!", "#NAME?", "#NULL!", "#SPILL!",
-                  "#CALC!", "#n/a"]
+                  "#CALC!", "#n/a", "ERR:502", "Err:522"]
     )
     def test_excel_error_text(self, error):
+        # Excel's error values and LibreOffice Calc's Err:nnn codes (common practice: the
+        # values each program shows in a cell), read by the one list below every front end.
         with pytest.raises(UnitProblem) as caught:
             parse_value(error, "length", "mm")
         assert str(caught.value) == f"cell holds the error {error.upper()}"
+
+    def test_hash_word_that_no_spreadsheet_shows_is_not_an_error(self):
+        with pytest.raises(UnitProblem, match="not a number"):
+            parse_value("#FOO", "length", "mm")
 
     def test_hash_text_that_is_not_an_error(self):
         with pytest.raises(UnitProblem, match="not a number"):
