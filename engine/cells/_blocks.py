@@ -238,10 +238,12 @@ def read_block(layers: Any, materials: Any, need_allowable: bool = True) -> Bloc
         header_cells = _positional_header(width)
     grid = _grid(_LAYERS_SHEET, rows)
     spot_args = {"header_row": 0} if has_header else {"header_cells": header_cells}
-    by_part = locate_table(grid, PART_FIELDS, None, layer_groups=True, **spot_args)
+    # Which layout the header names decides the table read; only that one's rows are scanned.
+    by_part = locate_table(grid, PART_FIELDS, None, layer_groups=True, with_data=False, **spot_args)
     per_row_layers = by_part is None or not by_part.layer_numbers
     fields = LAYER_ROW_FIELDS
-    spot = locate_table(grid, fields, None, **spot_args) if per_row_layers else by_part
+    spot = locate_table(grid, fields if per_row_layers else PART_FIELDS, None,
+                        layer_groups=not per_row_layers, **spot_args)
     if spot is None:
         raise CellError("layers", "the header row names no layer column: expected Material (or G), Outer "
                         "diameter, Inner diameter, Allowable, Kt (and Part, Layer)")

@@ -135,18 +135,20 @@ def locate_table(
     first_col: int = 0,
     last_col: int | None = None,
     header_cells: list[object] | None = None,
+    with_data: bool = True,
 ) -> TableSpot | None:
     """Find the header row (the first row naming ``key_field`` and one more input) and the data.
 
     With ``header_row`` given (a workbook table, a cell function's block), only that row is
     tried; with ``key_field`` None any two recognised columns make a header. With
     ``header_cells`` (the headers a cell function's block implies by its shape), those name the
-    columns and every row of the grid is data (``header_row`` is then -1).
+    columns and every row of the grid is data (``header_row`` is then -1). ``with_data`` False
+    leaves the data rows out (empty), for a caller that only asks what the header names.
     """
     if header_cells is not None:
         cols, dups, unknown = _match_row(header_cells, fields, layer_groups, first_col, last_col)
         idx = [c.index for c in cols]
-        data = _data_rows(grid, 0, grid.height, idx)
+        data = _data_rows(grid, 0, grid.height, idx) if with_data else ()
         return TableSpot(grid.name, -1, data, tuple(cols), (), first_col, last_col, tuple(dups), tuple(unknown))
     candidates = [header_row] if header_row is not None else range(min(grid.height, _HEADER_SEARCH_ROWS))
     for r in candidates:
@@ -157,7 +159,7 @@ def locate_table(
             continue
         end = grid.height if last_row is None else min(grid.height, last_row + 1)
         idx = [c.index for c in cols]
-        data = _data_rows(grid, r + 1, end, idx)
+        data = _data_rows(grid, r + 1, end, idx) if with_data else ()
         return TableSpot(grid.name, r, data, tuple(cols), tuple((d.index, d.header) for d in dups),
                          first_col, last_col, tuple(dups), tuple(unknown))
     return None
