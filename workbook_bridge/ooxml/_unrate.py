@@ -17,10 +17,9 @@ from dataclasses import dataclass
 
 from ._atomic import atomic_file
 from ._errors import PackageRefused
-from ._opc import parse_rels, rels_path_of
 from ._ownership import undo_sheet_change
 from ._package import Limits, Package
-from ._record import RT_CUSTOM_XML, OwnershipRecord, is_record, parse_record, sha256
+from ._record import OwnershipRecord, is_record, parse_record, sha256
 from ._safety import PackageInfo, read_package_info
 from ._xmltext import decode_xml
 
@@ -58,7 +57,7 @@ class StripReport:
     copied: int
 
 
-def find_record(pkg: Package, info: PackageInfo) -> tuple[str, OwnershipRecord] | None:
+def find_record(pkg: Package, info: PackageInfo | None = None) -> tuple[str, OwnershipRecord] | None:
     """The package's ownership record (member name, record), or None where it has none.
 
     Raises
@@ -66,14 +65,11 @@ def find_record(pkg: Package, info: PackageInfo) -> tuple[str, OwnershipRecord] 
     PackageRefused
         More than one record, or one that cannot be read.
     """
-    rels_name = pkg.find(rels_path_of(info.workbook_part))
-    if rels_name is None:
-        return None
-    found = []
-    for rel in parse_rels(pkg.read(rels_name), info.workbook_part):
-        part = pkg.find(rel.part) if rel.type == RT_CUSTOM_XML and rel.part else None
-        if part is not None and is_record(pkg.head(part, 400)):
-            found.append(part)
+    # Related from the workbook part as written; a program that saves the book again may move the
+    # relationship (LibreOffice relates it from the package root), so every custom XML item is looked at.
+    found = [name for name in pkg.names
+             if name.lower().startswith("customxml/") and name.lower().endswith(".xml")
+             and "/_rels/" not in name.lower() and is_record(pkg.head(name, 400))]
     if not found:
         return None
     if len(found) > 1:
