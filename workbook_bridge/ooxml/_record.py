@@ -29,7 +29,7 @@ from ._opc import RT
 
 __all__ = ["RECORD_NS", "RT_CUSTOM_XML", "RT_CUSTOM_XML_PROPS", "CT_CUSTOM_XML_PROPS", "CT_XML",
            "MarkChange", "SheetChange", "StoredPart", "OwnershipRecord", "record_xml", "parse_record",
-           "item_props_xml", "sha256"]
+           "item_props_xml", "is_record", "sha256"]
 
 RECORD_NS = "urn:twistshare:ownership-record:1"
 RT_CUSTOM_XML = RT.BASE + "customXml"
@@ -158,9 +158,9 @@ def item_props_xml() -> bytes:
             ).encode("utf-8")
 
 
-def is_record(data: bytes) -> bool:
-    """True if a custom XML item is a twistshare ownership record (its root's namespace)."""
-    return f"<record xmlns=\"{RECORD_NS}\"".encode() in data[:400] or RECORD_NS.encode() in data[:400]
+def is_record(head: bytes) -> bool:
+    """True if a custom XML item (its first few hundred bytes) is a twistshare ownership record."""
+    return RECORD_NS.encode() in head
 
 
 def parse_record(data: bytes) -> OwnershipRecord:

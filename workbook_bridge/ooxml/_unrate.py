@@ -10,9 +10,11 @@ rewrites every part), nothing is written and the reason says what to do instead.
 
 from __future__ import annotations
 
+import hashlib
 import os
 import shutil
 import zipfile
+import zlib
 from dataclasses import dataclass
 
 from ._atomic import atomic_file
@@ -20,7 +22,7 @@ from ._errors import PackageRefused
 from ._ownership import undo_sheet_change
 from ._package import Limits, Package
 from ._record import OwnershipRecord, is_record, parse_record, sha256
-from ._safety import PackageInfo, read_package_info
+from ._safety import read_package_info
 from ._xmltext import decode_xml
 
 __all__ = ["find_record", "read_record", "strip_ours", "StripReport", "RESAVED_ADVICE"]
@@ -57,7 +59,7 @@ class StripReport:
     copied: int
 
 
-def find_record(pkg: Package, info: PackageInfo | None = None) -> tuple[str, OwnershipRecord] | None:
+def find_record(pkg: Package) -> tuple[str, OwnershipRecord] | None:
     """The package's ownership record (member name, record), or None where it has none.
 
     Raises
@@ -86,7 +88,8 @@ def read_record(path: str | os.PathLike, limits: Limits | None = None) -> Owners
     """The ownership record of a workbook file, or None (see ``find_record``)."""
     pkg = Package(path, limits)
     try:
-        found = find_record(pkg, read_package_info(pkg))
+        read_package_info(pkg)  # the checks every book gets
+        found = find_record(pkg)
         return found[1] if found else None
     finally:
         pkg.close()
@@ -99,6 +102,17 @@ def _stale(pkg: Package, detail: str) -> PackageRefused:
                                     f"marks from yours exactly and does not re-rate it: {RESAVED_ADVICE}")
 
 
+def _streamed_sha(pkg: Package, name: str) -> str:
+    digest = hashlib.sha256()
+    try:
+        with pkg.open_stream(name) as fh:
+            for chunk in iter(lambda: fh.read(1 << 20), b""):
+                digest.update(chunk)
+    except (zipfile.BadZipFile, zlib.error, EOFError) as exc:
+        raise PackageRefused(pkg.path, f"zip member {name!r} is corrupt ({exc})") from None
+    return digest.hexdigest()
+
+
 def _plan(pkg: Package, record: OwnershipRecord, record_part: str) -> tuple[set[str], dict[str, bytes], list[str], list[str]]:
     """(members to leave out, members to replace, cells kept, edited sheets); raises if stale."""
     drop = {record_part}
@@ -109,7 +123,7 @@ def _plan(pkg: Package, record: OwnershipRecord, record_part: str) -> tuple[set[
         name = pkg.find(part)
         if name is None:
             raise _stale(pkg, f"{part} is missing")
-        if sha256(pkg.read(name)) != digest:
+        if _streamed_sha(pkg, name) != digest:
             raise _stale(pkg, f"{part} was changed after twistshare wrote it")
         drop.add(name)
     replace: dict[str, bytes] = {}
@@ -158,8 +172,8 @@ def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Li
 
     pkg = Package(source, limits)
     try:
-        info = read_package_info(pkg)
-        found = find_record(pkg, info)
+        read_package_info(pkg)
+        found = find_record(pkg)
         if found is None:
             raise PackageRefused(pkg.path, "no twistshare ownership record in the book")
         record_part, record = found
@@ -175,8 +189,11 @@ def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Li
                 if name in replace:
                     zout.writestr(zinfo, replace[name])
                     continue
-                with pkg.open_stream(name) as fin, zout.open(zinfo, "w", force_zip64=src.file_size > (1 << 30)) as fout:
-                    shutil.copyfileobj(fin, fout, 1 << 20)
+                try:
+                    with pkg.open_stream(name) as fin, zout.open(zinfo, "w", force_zip64=src.file_size > (1 << 30)) as fout:
+                        shutil.copyfileobj(fin, fout, 1 << 20)
+                except (zipfile.BadZipFile, zlib.error, EOFError) as exc:
+                    raise PackageRefused(pkg.path, f"zip member {name!r} is corrupt ({exc})") from None
         copied = len(pkg.names) - len(drop) - len(replace)
     finally:
         pkg.close()

@@ -9,6 +9,10 @@ except the few the writer must change, which are edited at the text level:
 - an input sheet we comment on (one ``<legacyDrawing>`` link) or whose formulas ``share``
   replaces (those ``<c>`` elements only), with its relationships, comments and VML parts.
 
+Beside them it adds the ownership record (``_record``: a custom XML part listing every member
+it added, the members it changed as they were before, and its link and filled cells in the
+user's worksheets), so that a re-rating can take exactly its own work back out (``_unrate``).
+
 ``docProps/app.xml`` (which lists sheet titles for file browsers) is left as it was: spreadsheet
 programs rebuild it on save and do not read it to open a book, and leaving it alone keeps one
 more user part byte for byte. ``xl/calcChain.xml`` is removed (with its relationship and content
