@@ -147,6 +147,15 @@ def test_in_place_on_a_rated_copy_keeps_a_backup(rated, tmp_path, capsys):
     assert read_record(book) is not None
 
 
+def test_a_rated_copy_is_never_written_over_without_in_place(rated, tmp_path, capsys):
+    book = tmp_path / "book.xlsx"
+    shutil.copy(rated, book)
+    before = book.read_bytes()
+    assert main(["rate", str(book), "-o", str(book), "-q", "--lenient"]) == 2
+    assert "is the input workbook" in capsys.readouterr().err
+    assert book.read_bytes() == before and not list(tmp_path.glob("book.xlsx.bak-*"))
+
+
 def test_check_on_a_checked_copy_is_rechecked(tmp_path, capsys):
     checked, again = tmp_path / "checked.xlsx", tmp_path / "again.xlsx"
     assert main(["check", str(CATALOGUE), "-o", str(checked), "-q", "--lenient"]) == 0

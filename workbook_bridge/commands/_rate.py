@@ -2,12 +2,13 @@
 
 from __future__ import annotations
 
+import os
 from pathlib import Path
 
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.intake import BookRating, Display, Severity, rate_tables
 
-from ..ooxml import BookWriter, OoxmlError
+from ..ooxml import BookWriter, OoxmlError, WriteRefused
 from ..sheets import add_rating_sheets, add_warnings_sheet, write_comments
 from ._output import EXIT_OK, EXIT_PART_ERRORS, EXIT_PARTS_FAIL, fail, open_for_rating, say, write_book
 from ._progress import Progress
@@ -88,6 +89,9 @@ def _write(writer: BookWriter, source: RatingSource, out: Path, in_place: bool) 
     """Write the copy; a re-rated book written in place is kept first, like any in-place book."""
     if source.stripped is None:
         return write_book(writer, out, in_place)
+    if not in_place and out.exists() and os.path.samefile(out, source.original):
+        raise WriteRefused(f"output {out} is the input workbook; choose another name "
+                           "(or ask for in-place writing, which keeps a backup)")
     source.check_unchanged()
     return write_book(writer, out, False)  # the source is the stripped copy: the book itself is kept as a backup
 

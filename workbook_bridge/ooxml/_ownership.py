@@ -73,6 +73,8 @@ def sheet_change(part: str, name: str, before: str, after: str, marks: list[str]
     """What the writer changed in a worksheet: the link it inserted and the cells it filled."""
     link = _tail_link(after) if _tail_link(before) is None else None
     refs = {_norm(r) for r in marks}
+    if not refs:  # only the link: no need to scan the cells of a big parts sheet
+        return SheetChange(part, name, sha256(before.encode("utf-8")), sha256(after.encode("utf-8")), link)
     row_of = {r: split_ref(r)[1] for r in refs}
     cells_b, cells_a = _cells(before, refs), _cells(after, refs)
     rows_b, rows_a = _rows(before, set(row_of.values())), _rows(after, set(row_of.values()))
