@@ -209,3 +209,65 @@ def test_a_rerated_copy_opens_in_gnumeric_and_libreoffice(rated, tmp_path):
         assert proc.returncode == 0 and (tmp_path / "again.pdf").stat().st_size > 1000, proc.stderr
     if not (ssconvert or SOFFICE):
         pytest.skip("neither gnumeric's ssconvert nor LibreOffice is installed")
+
+
+def test_a_corrected_cell_loses_our_comment_and_keeps_the_users(tmp_path, capsys):
+    bad = Case("bad torque", "bad", cells={"torque": "lots"}, flag="torque")
+    book = build_book(tmp_path / "book.xlsx", 3, {1: bad})
+    wb = openpyxl.load_workbook(book)
+    ref = cell_of(1, "torque")
+    wb["Parts"][ref].comment = Comment("duty from the pump curve, rev B", "M. Okafor")
+    wb.save(book)
+    rated = tmp_path / "rated.xlsx"
+    assert main(["rate", str(book), "-o", str(rated), "-q"]) == 1  # the bad cell is an error
+    # The user corrects the cell in the rated copy (a number where the text was).
+    with zipfile.ZipFile(rated) as zf:
+        text = zf.read(_sheet_parts(zf)["Parts"]).decode()
+    old = re.search(rf'<c r="{ref}"[^>]*>.*?</c>', text).group(0)
+    assert "lots" in old
+    fixed = _edit_sheet(rated, tmp_path / "fixed.xlsx", "Parts", old, f'<c r="{ref}"><v>520</v></c>')
+    again = tmp_path / "again.xlsx"
+    assert main(["rate", str(fixed), "-o", str(again), "-q"]) == 0  # every part rated now
+    ws = openpyxl.load_workbook(again)["Parts"]
+    assert ws[ref].value == 520 and ws[ref].comment.text == "duty from the pump curve, rev B"
+    row = next(r for r in _results(again) if r[0] == part_id(1))
+    assert row[1] != "not rated"
+    # The same correction made in the original book gives the same results.
+    with zipfile.ZipFile(book) as zf:
+        original = zf.read(_sheet_parts(zf)["Parts"]).decode()
+    assert old in original
+    reference = tmp_path / "reference.xlsx"
+    _edit_sheet(book, tmp_path / "book-fixed.xlsx", "Parts", old, f'<c r="{ref}"><v>520</v></c>')
+    assert main(["rate", str(tmp_path / "book-fixed.xlsx"), "-o", str(reference), "-q"]) == 0
+    assert _results(again) == _results(reference)
+
+
+def test_rerating_again_and_again_changes_nothing(rated, tmp_path):
+    first, second = tmp_path / "1.xlsx", tmp_path / "2.xlsx"
+    assert _rate(rated, first, "-q") == 0 and _rate(first, second, "-q") == 0
+    a, b = _members(first), _members(second)
+    summary = _sheet_parts(zipfile.ZipFile(first))["Twistshare summary"]
+    assert list(a) == list(b) and {n for n in a if a[n] != b[n]} <= {summary, "customXml/item1.xml"}
+
+
+def test_the_by_layer_sample_rerates_to_the_same_results(tmp_path):
+    rated, again = tmp_path / "rated.xlsx", tmp_path / "again.xlsx"
+    assert _rate(SAMPLES / "marrowby_catalogue_by_layer.xlsx", rated, "-q", "--units", "US") == 0
+    assert _rate(rated, again, "-q", "--units", "US") == 0
+    assert _results(again) == _results(rated)
+
+
+@pytest.mark.parametrize("damage", ["format", "checksum"])
+def test_an_unreadable_record_is_refused_in_words(rated, tmp_path, capsys, damage):
+    with zipfile.ZipFile(rated) as zf:
+        name = next(n for n in zf.namelist() if n.startswith("customXml/item") and "Props" not in n)
+        data = zf.read(name)
+    if damage == "format":
+        data = data.replace(b'format="1"', b'format="7"')
+    else:
+        data = re.sub(rb'(<stored [^>]*before=")[0-9a-f]{8}', rb"\g<1>00000000", data, count=1)
+    broken = rezip(rated, tmp_path / "broken.xlsx", {name: data})
+    assert _rate(broken, tmp_path / "out.xlsx", "-q") == 2
+    err = capsys.readouterr().err
+    assert "ownership record" in err and ("format" in err or "checksum" in err) and "Traceback" not in err
+    assert not (tmp_path / "out.xlsx").exists()
