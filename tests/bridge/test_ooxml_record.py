@@ -162,3 +162,31 @@ def test_a_share_copy_gets_no_record(tmp_path):
         w.add_sheet("Twistshare handout", [["Cell", "Value"]])
         w.write(tmp_path / "out.xlsx")
     assert read_record(tmp_path / "out.xlsx") is None
+
+
+def test_the_users_own_custom_xml_parts_are_kept_beside_the_record(ooxml_kit, tmp_path):
+    """Books from document-management systems carry custom XML items of their own."""
+    plain = ooxml_kit.build_plain(tmp_path / "plain.xlsx")
+    with zipfile.ZipFile(plain) as zf:
+        wb_rels = zf.read("xl/_rels/workbook.xml.rels").decode()
+    rel = ('<Relationship Id="rId990" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/'
+           'customXml" Target="../customXml/item1.xml"/>')
+    add = {
+        "customXml/item1.xml": '<?xml version="1.0"?><b:Sources xmlns:b="http://schemas.openxmlformats.org/'
+                               'officeDocument/2006/bibliography" SelectedStyle="x"/>',
+        "customXml/itemProps1.xml": '<?xml version="1.0"?><ds:datastoreItem ds:itemID="{00000000-1111-2222-3333-'
+                                    '444444444444}" xmlns:ds="http://schemas.openxmlformats.org/officeDocument/'
+                                    '2006/customXml"><ds:schemaRefs/></ds:datastoreItem>',
+        "customXml/_rels/item1.xml.rels": '<?xml version="1.0"?><Relationships xmlns="http://schemas.openxmlformats.'
+                                          'org/package/2006/relationships"><Relationship Id="rId1" Type="http://'
+                                          'schemas.openxmlformats.org/officeDocument/2006/relationships/'
+                                          'customXmlProps" Target="itemProps1.xml"/></Relationships>',
+    }
+    src = ooxml_kit.rezip(plain, tmp_path / "in.xlsx",
+                          {"xl/_rels/workbook.xml.rels": wb_rels.replace("</Relationships>", rel + "</Relationships>")},
+                          add)
+    _rate_like(src, tmp_path / "out.xlsx")
+    record = read_record(tmp_path / "out.xlsx")
+    assert record.own_parts[0] == "customXml/item2.xml"
+    strip_ours(tmp_path / "out.xlsx", tmp_path / "back.xlsx")
+    assert _infos(tmp_path / "back.xlsx") == _infos(src)
