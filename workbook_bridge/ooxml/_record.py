@@ -1,8 +1,10 @@
 """The ownership record: which members, entries, comments and marks of a package are ours.
 
 Written at rating time as a custom XML part (``customXml/itemN.xml`` with its properties part,
-related from the workbook part; spreadsheet programs keep custom XML parts they do not know),
-read at re-rating time to take exactly our own work back out. It holds:
+related from the workbook part), read at re-rating time to take exactly our own work back out.
+Custom XML parts outlive a re-save (LibreOffice was seen to keep it, relating it from the package
+root instead; Excel keeps custom XML parts too, from memory), which is how a stale record is
+recognised rather than missed. It holds:
 
 - ``added``: every member the writer added (our sheets, their drawings, charts, comments and
   VML, comments parts and relationship parts it created for input sheets), with the SHA-256 of
