@@ -190,3 +190,22 @@ def test_the_users_own_custom_xml_parts_are_kept_beside_the_record(ooxml_kit, tm
     assert record.own_parts[0] == "customXml/item2.xml"
     strip_ours(tmp_path / "out.xlsx", tmp_path / "back.xlsx")
     assert _infos(tmp_path / "back.xlsx") == _infos(src)
+
+
+def test_a_worksheet_edit_the_record_cannot_undo_is_named_and_refused(ooxml_kit, tmp_path, monkeypatch):
+    """A kind of edit the writer learns later without teaching ``_ownership`` must not be half undone."""
+    from twistshare.workbook_bridge.ooxml import _writer
+
+    real = _writer.replace_cells
+
+    def also_widen(text, values):  # an extra edit of the user's sheet the record knows nothing of
+        text, formulas, had = real(text, values)
+        return text.replace("<sheetData>", '<cols><col min="1" max="1" width="30"/></cols><sheetData>', 1), formulas, had
+
+    src = ooxml_kit.build_plain(tmp_path / "in.xlsx")
+    monkeypatch.setattr(_writer, "replace_cells", also_widen)
+    _rate_like(src, tmp_path / "out.xlsx")
+    assert read_record(tmp_path / "out.xlsx").unrecoverable == ("Materials",)
+    with pytest.raises(PackageRefused, match="could not note exactly how it changed sheet 'Materials'"):
+        strip_ours(tmp_path / "out.xlsx", tmp_path / "back.xlsx")
+    assert not (tmp_path / "back.xlsx").exists()

@@ -103,6 +103,7 @@ class OwnershipRecord:
     stored: tuple[StoredPart, ...]
     worksheets: tuple[SheetChange, ...]
     comments: tuple[tuple[str, int], ...]       # (sheet name, comments of ours on it)
+    unrecoverable: tuple[str, ...] = ()         # worksheets whose changes the record cannot undo exactly
 
     @property
     def comment_count(self) -> int:
@@ -134,6 +135,8 @@ def record_xml(record: OwnershipRecord) -> bytes:
         ET.SubElement(root, _q("sheet"), {"name": name})
     for sheet, count in record.comments:
         ET.SubElement(root, _q("comments"), {"sheet": sheet, "count": str(count)})
+    for name in record.unrecoverable:
+        ET.SubElement(root, _q("unrecoverable"), {"sheet": name})
     for part, digest in record.added:
         ET.SubElement(root, _q("added"), {"part": part, "sha256": digest})
     for stored in record.stored:
@@ -202,4 +205,5 @@ def parse_record(data: bytes) -> OwnershipRecord:
         added=tuple((el.get("part", ""), el.get("sha256", "")) for el in root.iter(_q("added"))),
         stored=tuple(stored), worksheets=tuple(worksheets),
         comments=tuple((el.get("sheet", ""), int(el.get("count", "0"))) for el in root.iter(_q("comments"))),
+        unrecoverable=tuple(el.get("sheet", "") for el in root.iter(_q("unrecoverable"))),
     )

@@ -8,7 +8,7 @@ from typing import Any, Callable, Iterable, Mapping
 
 from ._naming import free_part
 from ._opc import new_rels, next_rel_id, relative_target, rels_path_of
-from ._ownership import sheet_change
+from ._ownership import sheet_change, undo_sheet_change
 from ._record import (
     CT_CUSTOM_XML_PROPS,
     CT_XML,
@@ -90,14 +90,20 @@ class RecordPlan:
         cells filled); every other changed member is stored as it was before.
         """
         own = (self.item, self.props, self.rels)
+        changes = [sheet_change(part, name, before, after, marks)
+                   for part, (name, before, after, marks) in worksheets.items()]
+        # An edit of a user's worksheet that the record cannot undo exactly (a kind of edit added to
+        # the writer and not yet to `_ownership`) is named, and such a copy is not re-rated.
+        unrecoverable = tuple(change.name for change, (_, before, after, _) in zip(changes, worksheets.values())
+                              if undo_sheet_change(after, change).text != before)
         record = OwnershipRecord(
             own_parts=own,
             sheets=tuple(sheets),
             added=tuple((name, _payload_sha(payload)) for name, payload in added if name not in own),
             stored=tuple(StoredPart(name, read_before(name), sha256(data))
                          for name, data in changed.items() if name not in worksheets),
-            worksheets=tuple(sheet_change(part, name, before, after, marks)
-                             for part, (name, before, after, marks) in worksheets.items()),
+            worksheets=tuple(changes),
             comments=tuple((name, n) for name, n in comments if n),
+            unrecoverable=unrecoverable,
         )
         return self.item, record_xml(record)

@@ -115,6 +115,10 @@ def _streamed_sha(pkg: Package, name: str) -> str:
 
 def _plan(pkg: Package, record: OwnershipRecord, record_part: str) -> tuple[set[str], dict[str, bytes], list[str], list[str]]:
     """(members to leave out, members to replace, cells kept, edited sheets); raises if stale."""
+    if record.unrecoverable:
+        raise PackageRefused(pkg.path, "twistshare's record of this copy says it could not note exactly how it "
+                                       f"changed sheet {record.unrecoverable[0]!r}, so it cannot take its work "
+                                       f"out again: {RESAVED_ADVICE}")
     drop = {record_part}
     for part in record.own_parts:
         if pkg.find(part) is not None:
