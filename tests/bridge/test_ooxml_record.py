@@ -91,7 +91,8 @@ def test_record_round_trip():
                                 '<legacyDrawing r:id="rId3"/>',
                                 (MarkChange("D2", "", '<c r="D2" s="9"><v>1.5</v></c>', "", '<row r="2">'),
                                  MarkChange("C3", '<c r="C3" s="1"/>', '<c r="C3" s="9"><v>2</v></c>'))),),
-        comments=(("Parts", 2),))
+        comments=(("Parts", 2),), unrecoverable=("Layers",),
+        notes=(("Parts", "B2", "twistshare warning: a & b\n\nline two"),))
     assert parse_record(record_xml(record)) == record
 
 

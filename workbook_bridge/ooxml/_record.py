@@ -16,7 +16,9 @@ recognised rather than missed. It holds:
 - ``worksheet``: every input worksheet the writer changed (the comment link it inserted, the
   blank cells it filled with marked values): the exact text it inserted and replaced, so that
   re-rating takes them out again while keeping the user's later edits of other cells;
-- ``sheet`` and ``comments``: our sheet names and the number of comments per sheet, for the report.
+- ``sheet`` and ``comments``: our sheet names and the number of comments per sheet, for the report;
+- ``note``: the text of each comment of ours on an input cell, to find it again in a copy that a
+  spreadsheet program saved again (``_unrate_resaved``).
 """
 
 from __future__ import annotations
@@ -104,6 +106,7 @@ class OwnershipRecord:
     worksheets: tuple[SheetChange, ...]
     comments: tuple[tuple[str, int], ...]       # (sheet name, comments of ours on it)
     unrecoverable: tuple[str, ...] = ()         # worksheets whose changes the record cannot undo exactly
+    notes: tuple[tuple[str, str, str], ...] = ()  # (input sheet, cell, our comment text) for a re-saved copy
 
     @property
     def comment_count(self) -> int:
@@ -135,6 +138,8 @@ def record_xml(record: OwnershipRecord) -> bytes:
         ET.SubElement(root, _q("sheet"), {"name": name})
     for sheet, count in record.comments:
         ET.SubElement(root, _q("comments"), {"sheet": sheet, "count": str(count)})
+    for sheet, ref, text in record.notes:
+        ET.SubElement(root, _q("note"), {"sheet": sheet, "ref": ref}).text = text
     for name in record.unrecoverable:
         ET.SubElement(root, _q("unrecoverable"), {"sheet": name})
     for part, digest in record.added:
@@ -206,4 +211,5 @@ def parse_record(data: bytes) -> OwnershipRecord:
         stored=tuple(stored), worksheets=tuple(worksheets),
         comments=tuple((el.get("sheet", ""), int(el.get("count", "0"))) for el in root.iter(_q("comments"))),
         unrecoverable=tuple(el.get("sheet", "") for el in root.iter(_q("unrecoverable"))),
+        notes=tuple((el.get("sheet", ""), el.get("ref", ""), el.text or "") for el in root.iter(_q("note"))),
     )

@@ -83,7 +83,8 @@ class RecordPlan:
     def record_part(self, *, added: Iterable[tuple[str, Any]], changed: Mapping[str, bytes],
                     read_before: Callable[[str], bytes],
                     worksheets: Mapping[str, tuple[str, str, str, list[str]]],
-                    sheets: Iterable[str], comments: Iterable[tuple[str, int]]) -> tuple[str, bytes]:
+                    sheets: Iterable[str], comments: Iterable[tuple[str, int]],
+                    notes: Iterable[tuple[str, str, str]] = ()) -> tuple[str, bytes]:
         """The record item: every member added and changed, as the plan has them.
 
         ``worksheets`` maps each changed input worksheet to (name, text before, text after,
@@ -105,5 +106,6 @@ class RecordPlan:
             worksheets=tuple(changes),
             comments=tuple((name, n) for name, n in comments if n),
             unrecoverable=unrecoverable,
+            notes=tuple(notes),
         )
         return self.item, record_xml(record)

@@ -781,7 +781,9 @@ class BookWriter:
         comments = [(e.info.name, len(e.comments)) for e in self._inputs.values()]
         comments += [(n.handle.name, len(n.comments)) for n in self._new]
         return record.record_part(added=plan.added, changed=plan.changed, read_before=self._pkg.read,
-                                  worksheets=sheets, sheets=[n.handle.name for n in self._new], comments=comments)
+                                  worksheets=sheets, sheets=[n.handle.name for n in self._new], comments=comments,
+                                  notes=[(e.info.name, ref, text) for e in self._inputs.values()
+                                         for ref, text in e.comments.items()])
 
     def _vml_blocks_in_use(self) -> set[int]:
         blocks: set[int] = set()
