@@ -126,8 +126,8 @@ def test_user_edits_since_the_rating_are_kept(ooxml_kit, tmp_path):
     assert text.replace('<c r="D2"><v>1.75</v></c>', "") == expected
 
 
-@pytest.mark.parametrize("what", ["our sheet", "stored part", "our link"])
-def test_a_copy_changed_where_it_is_ours_is_refused(ooxml_kit, tmp_path, what):
+def _changed_copy(ooxml_kit, tmp_path, what):
+    """A rated copy changed where it is ours, as a program saving it again would change it."""
     src = ooxml_kit.build_plain(tmp_path / "in.xlsx")
     _rate_like(src, tmp_path / "out.xlsx")
     record = read_record(tmp_path / "out.xlsx")
@@ -143,11 +143,64 @@ def test_a_copy_changed_where_it_is_ours_is_refused(ooxml_kit, tmp_path, what):
         member = record.worksheets[0].part
         with zipfile.ZipFile(tmp_path / "out.xlsx") as zf:
             data = zf.read(member).replace(record.worksheets[0].link.encode(), b"")
-    ooxml_kit.rezip(tmp_path / "out.xlsx", tmp_path / "changed.xlsx", {member: data})
+    return src, ooxml_kit.rezip(tmp_path / "out.xlsx", tmp_path / "changed.xlsx", {member: data}), member
+
+
+@pytest.mark.parametrize("what", ["our sheet", "stored part", "our link"])
+def test_a_copy_changed_where_it_is_ours_is_not_undone_byte_for_byte(ooxml_kit, tmp_path, what):
+    _, changed, _ = _changed_copy(ooxml_kit, tmp_path, what)
     with pytest.raises(PackageRefused, match="saved again by a spreadsheet program") as caught:
-        strip_ours(tmp_path / "changed.xlsx", tmp_path / "back.xlsx")
+        strip_ours(changed, tmp_path / "back.xlsx", fallback=False)
     assert "rate the book you rated first" in str(caught.value)
     assert not (tmp_path / "back.xlsx").exists()
+
+
+@pytest.mark.parametrize("what", ["our sheet", "stored part", "our link"])
+def test_the_fallback_finds_our_work_by_name_cell_and_text(ooxml_kit, tmp_path, what):
+    src, changed, member = _changed_copy(ooxml_kit, tmp_path, what)
+    record = read_record(changed)
+    report = strip_ours(changed, tmp_path / "back.xlsx")
+    assert report.resaved and report.sheets == ("Twistshare results",)
+    assert report.comments == 3 and report.marks == 3  # Parts B2 (cut), Parts C3, Materials A2; D2, B5, D3
+    back = _infos(tmp_path / "back.xlsx")
+    assert not {p for p, _ in record.added if p.startswith(("xl/worksheets/sheet", "xl/charts/"))} & set(back)
+    assert not any(n.startswith("customXml/") for n in back)
+    # Members the rating did not touch are the changed copy's, byte for byte.
+    ours = {p for p, _ in record.added} | {s.part for s in record.stored} | {w.part for w in record.worksheets}
+    copy = _infos(changed)
+    for name in set(copy) - ours - set(record.own_parts) - {member}:
+        assert back[name] == copy[name], name
+    wb, problems = ooxml_kit.load_clean(tmp_path / "back.xlsx")
+    assert wb.sheetnames == ooxml_kit.load_clean(src)[0].sheetnames and not problems
+    assert wb["Parts"]["B2"].comment.text == "length from drawing rev C"  # the user's, ours cut off
+    assert wb["Parts"]["C3"].comment is None and wb["Materials"]["A2"].comment is None
+    assert wb["Parts"]["D4"].comment.text == "tube alloy per supplier cert"
+    assert wb["Materials"]["D2"].value is None and wb["Materials"]["B5"].value is None
+
+
+def test_the_fallback_refuses_an_edited_comment_of_ours(ooxml_kit, tmp_path):
+    src = ooxml_kit.build_plain(tmp_path / "in.xlsx")
+    _rate_like(src, tmp_path / "out.xlsx")
+    with zipfile.ZipFile(tmp_path / "out.xlsx") as zf:
+        name = next(n for n in zf.namelist() if n.startswith("xl/comments")
+                    and b"torque" in zf.read(n))
+        data = zf.read(name).replace(b"twistshare error: torque", b"twistshare error: torque (seen, fine)")
+    ooxml_kit.rezip(tmp_path / "out.xlsx", tmp_path / "changed.xlsx", {name: data})
+    with pytest.raises(PackageRefused, match="the comment twistshare wrote on Parts!C3 was changed"):
+        strip_ours(tmp_path / "changed.xlsx", tmp_path / "back.xlsx")
+    assert not (tmp_path / "back.xlsx").exists()
+
+
+def test_the_fallback_refuses_our_sheets_moved_before_the_users(ooxml_kit, tmp_path):
+    src = ooxml_kit.build_plain(tmp_path / "in.xlsx")
+    _rate_like(src, tmp_path / "out.xlsx")
+    with zipfile.ZipFile(tmp_path / "out.xlsx") as zf:
+        wb = zf.read("xl/workbook.xml").decode()
+    ours = re.search(r'<sheet name="Twistshare results"[^>]*/>', wb).group(0)
+    moved = wb.replace(ours, "").replace("<sheets>", "<sheets>" + ours)
+    ooxml_kit.rezip(tmp_path / "out.xlsx", tmp_path / "moved.xlsx", {"xl/workbook.xml": moved.encode()})
+    with pytest.raises(PackageRefused, match="no longer the last sheets"):
+        strip_ours(tmp_path / "moved.xlsx", tmp_path / "back.xlsx")
 
 
 def test_a_share_copy_gets_no_record(tmp_path):

@@ -175,19 +175,65 @@ def test_a_copy_without_its_record_is_refused(rated, tmp_path, capsys):
     assert not (tmp_path / "out.xlsx").exists()
 
 
-@pytest.mark.skipif(SOFFICE is None, reason="LibreOffice (soffice) is not installed")
-def test_a_copy_saved_again_by_libreoffice_is_refused_in_words(rated, tmp_path, capsys):
+def _resave_in_libreoffice(book: Path, tmp_path: Path) -> Path:
     profile, outdir = tmp_path / "profile", tmp_path / "lo"
     proc = subprocess.run([SOFFICE, f"-env:UserInstallation=file://{profile}", "--headless", "--convert-to", "xlsx",
-                           "--outdir", str(outdir), str(rated)], capture_output=True, text=True, timeout=240)
-    resaved = outdir / rated.name
+                           "--outdir", str(outdir), str(book)], capture_output=True, text=True, timeout=240)
+    resaved = outdir / book.name
     assert proc.returncode == 0 and resaved.exists(), proc.stderr
+    return resaved
+
+
+def _comments(path: Path) -> dict[str, dict[str, str]]:
+    wb = openpyxl.load_workbook(path)
+    return {ws.title: {c.coordinate: c.comment.text for row in ws.iter_rows() for c in row if c.comment}
+            for ws in wb.worksheets if not ws.title.startswith("Twistshare")}
+
+
+@pytest.mark.skipif(SOFFICE is None, reason="LibreOffice (soffice) is not installed")
+def test_a_copy_saved_again_by_libreoffice_is_rerated_by_the_fallback(rated, tmp_path, capsys):
+    resaved = _resave_in_libreoffice(rated, tmp_path)
     before = resaved.read_bytes()
-    assert _rate(resaved, tmp_path / "out.xlsx", "-q") == 2
+    again = tmp_path / "again.xlsx"
+    assert _rate(resaved, again) == 0
     err = capsys.readouterr().err
-    assert "saved again by a spreadsheet program" in err or "saves it again" in err, err
-    assert "rate the book you rated first" in err and "Traceback" not in err
-    assert resaved.read_bytes() == before and not (tmp_path / "out.xlsx").exists()
+    assert "re-rated a copy that a spreadsheet program saved again" in err, err
+    assert re.search(r"replaced 5 sheets of ours, \d+ comments, emptied \d+ cells", err), err
+    assert resaved.read_bytes() == before
+    assert _results(again) == _results(rated)
+    assert _comments(again) == _comments(rated)  # ours once each, not doubled
+    # Rated by the fallback, the copy carries a fresh record: rating it again is exact.
+    assert _rate(again, tmp_path / "third.xlsx") == 0
+    assert "re-rated: replaced 5 sheets of ours" in capsys.readouterr().err
+    assert _results(tmp_path / "third.xlsx") == _results(rated)
+
+
+@pytest.mark.skipif(SOFFICE is None, reason="LibreOffice (soffice) is not installed")
+def test_an_input_corrected_in_a_libreoffice_copy_gives_the_new_result(tmp_path, capsys):
+    bad = Case("bad torque", "bad", cells={"torque": "lots"}, flag="torque")
+    book = build_book(tmp_path / "book.xlsx", 3, {1: bad})
+    wb = openpyxl.load_workbook(book)
+    ref = cell_of(1, "torque")
+    wb["Parts"][ref].comment = Comment("duty from the pump curve, rev B", "M. Okafor")
+    wb.save(book)
+    rated = tmp_path / "rated.xlsx"
+    assert main(["rate", str(book), "-o", str(rated), "-q"]) == 1
+    resaved = _resave_in_libreoffice(rated, tmp_path)
+    # The correction as LibreOffice would store it: the text cell becomes a number.
+    with zipfile.ZipFile(resaved) as zf:
+        text = zf.read(_sheet_parts(zf)["Parts"]).decode()
+    old = re.search(rf'<c r="{ref}"[^>]*>.*?</c>', text).group(0)
+    fixed = _edit_sheet(resaved, tmp_path / "fixed.xlsx", "Parts", old, f'<c r="{ref}" t="n"><v>520</v></c>')
+    again = tmp_path / "again.xlsx"
+    assert main(["rate", str(fixed), "-o", str(again), "-q"]) == 0
+    ws = openpyxl.load_workbook(again)["Parts"]
+    assert ws[ref].value == 520 and ws[ref].comment.text == "duty from the pump curve, rev B"
+    book_fixed = tmp_path / "book-fixed.xlsx"
+    wb = openpyxl.load_workbook(book)
+    wb["Parts"][ref] = 520
+    wb.save(book_fixed)
+    assert main(["rate", str(book_fixed), "-o", str(tmp_path / "reference.xlsx"), "-q"]) == 0
+    assert _results(again) == _results(tmp_path / "reference.xlsx")
 
 
 def test_a_rerated_copy_opens_in_gnumeric_and_libreoffice(rated, tmp_path):

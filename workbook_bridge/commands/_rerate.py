@@ -52,10 +52,18 @@ class RatingSource:
         s = self.stripped
         if s is None:
             return []
-        marks = f", {s.marks} marked value{'s' if s.marks != 1 else ''}" if s.marks else ""
-        out = [f"twistshare: re-{verb}: replaced {len(s.sheets)} sheet{'s' if len(s.sheets) != 1 else ''} of ours, "
-               f"{s.comments} comment{'s' if s.comments != 1 else ''}{marks}; "
-               "every other member kept byte for byte"]
+        sheets = f"{len(s.sheets)} sheet{'s' if len(s.sheets) != 1 else ''} of ours"
+        comments = f"{s.comments} comment{'s' if s.comments != 1 else ''}"
+        if s.resaved:
+            out = [f"twistshare: re-{verb} a copy that a spreadsheet program saved again: its parts no longer "
+                   f"match twistshare's record byte for byte, so twistshare's work was found by the names, cells "
+                   f"and texts the record gives: replaced {sheets}, {comments}"
+                   + (f", emptied {s.marks} cell{'s' if s.marks != 1 else ''} it had filled from its library "
+                      "(they keep the look it gave them)" if s.marks else "")
+                   + "; every other member of the saved copy kept byte for byte"]
+        else:
+            marks = f", {s.marks} marked value{'s' if s.marks != 1 else ''}" if s.marks else ""
+            out = [f"twistshare: re-{verb}: replaced {sheets}, {comments}{marks}; every other member kept byte for byte"]
         if s.edited:
             out.append(f"  your edits since the last run are kept (sheets {', '.join(s.edited)})")
         if s.kept_cells:

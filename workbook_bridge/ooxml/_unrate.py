@@ -23,6 +23,7 @@ from ._ownership import undo_sheet_change
 from ._package import Limits, Package
 from ._record import OwnershipRecord, is_record, parse_record, sha256
 from ._safety import read_package_info
+from ._unrate_resaved import plan_resaved
 from ._xmltext import decode_xml
 
 __all__ = ["find_record", "read_record", "strip_ours", "StripReport", "RESAVED_ADVICE"]
@@ -47,6 +48,9 @@ class StripReport:
         The user's worksheets we had touched that were edited since the rating (edits kept).
     removed, restored, copied : int
         Members left out, given their old bytes back or cleaned of our edits, copied unchanged.
+    resaved : bool
+        The copy had been saved again by a spreadsheet program: our work was found by the names,
+        cells and texts the record gives (``_unrate_resaved``), not undone byte for byte.
     """
 
     sheets: tuple[str, ...]
@@ -57,6 +61,7 @@ class StripReport:
     removed: int
     restored: int
     copied: int
+    resaved: bool = False
 
 
 def find_record(pkg: Package) -> tuple[str, OwnershipRecord] | None:
@@ -95,8 +100,12 @@ def read_record(path: str | os.PathLike, limits: Limits | None = None) -> Owners
         pkg.close()
 
 
+class _Stale(PackageRefused):
+    """The package no longer matches its record byte for byte (the fallback may still apply)."""
+
+
 def _stale(pkg: Package, detail: str) -> PackageRefused:
-    return PackageRefused(pkg.path, f"this rated copy no longer matches twistshare's record of what it added "
+    return _Stale(pkg.path, f"this rated copy no longer matches twistshare's record of what it added "
                                     f"({detail}); it was probably saved again by a spreadsheet program, which "
                                     f"rewrites every part, so twistshare cannot tell its own sheets, comments and "
                                     f"marks from yours exactly and does not re-rate it: {RESAVED_ADVICE}")
@@ -163,8 +172,13 @@ def _plan(pkg: Package, record: OwnershipRecord, record_part: str) -> tuple[set[
     return drop, replace, kept, edited
 
 
-def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Limits | None = None) -> StripReport:
+def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Limits | None = None,
+               fallback: bool = True) -> StripReport:
     """Write ``dest``: the rated copy ``source`` with everything of twistshare's taken out.
+
+    A copy that no longer matches its record byte for byte (saved again by a spreadsheet
+    program) is stripped by what the record names instead (``_unrate_resaved``) when
+    ``fallback``; that too refuses where the copy does not look as expected.
 
     Raises
     ------
@@ -176,12 +190,19 @@ def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Li
 
     pkg = Package(source, limits)
     try:
-        read_package_info(pkg)
+        info = read_package_info(pkg)
         found = find_record(pkg)
         if found is None:
             raise PackageRefused(pkg.path, "no twistshare ownership record in the book")
         record_part, record = found
-        drop, replace, kept, edited = _plan(pkg, record, record_part)
+        resaved = None
+        try:
+            drop, replace, kept, edited = _plan(pkg, record, record_part)
+        except _Stale:
+            if not fallback:
+                raise
+            resaved = plan_resaved(pkg, info, record, record_part)
+            drop, replace, kept, edited = set(resaved.drop), resaved.replace, list(resaved.kept_cells), []
         mode = os.stat(source).st_mode
         with atomic_file(dest, mode) as raw, zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
             zout.comment = pkg.zip.comment
@@ -201,5 +222,8 @@ def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Li
         copied = len(pkg.names) - len(drop) - len(replace)
     finally:
         pkg.close()
+    if resaved is not None:
+        return StripReport(resaved.sheets, resaved.comments, resaved.marks, tuple(kept), (), len(drop),
+                           len(replace), copied, resaved=True)
     return StripReport(record.sheets, record.comment_count, record.mark_count, tuple(kept), tuple(edited),
                        len(drop), len(replace), copied)
