@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import html
 import re
+import xml.etree.ElementTree as ET
 from dataclasses import dataclass
 
 from ._comments import SEPARATOR
@@ -71,8 +72,8 @@ def _graph(pkg: Package) -> dict[str, list[tuple[str, str, str]]]:
         source = (folder + file[:-5]).rstrip("/") if file != ".rels" else ""
         try:
             rels = parse_rels(pkg.read(name), source)
-        except Exception:  # noqa: BLE001 - a part we cannot read: its targets are simply not followed
-            continue
+        except ET.ParseError as exc:
+            raise _refuse(pkg, f"its relationships part {name} is not well-formed XML ({exc})") from None
         out[source] = [(r.rel_id, r.type, pkg.find(r.part)) for r in rels if not r.external and r.part and pkg.find(r.part)]
     return out
 
