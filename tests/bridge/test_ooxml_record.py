@@ -263,3 +263,15 @@ def test_a_worksheet_edit_the_record_cannot_undo_is_named_and_refused(ooxml_kit,
     with pytest.raises(PackageRefused, match="could not note exactly how it changed sheet 'Materials'"):
         strip_ours(tmp_path / "out.xlsx", tmp_path / "back.xlsx")
     assert not (tmp_path / "back.xlsx").exists()
+
+
+def test_the_fallback_refuses_a_renamed_input_sheet(ooxml_kit, tmp_path):
+    src = ooxml_kit.build_plain(tmp_path / "in.xlsx")
+    _rate_like(src, tmp_path / "out.xlsx")
+    with zipfile.ZipFile(tmp_path / "out.xlsx") as zf:
+        wb = zf.read("xl/workbook.xml").decode()
+    renamed = wb.replace('<sheet name="Materials"', '<sheet name="Stock materials"', 1)
+    assert renamed != wb
+    ooxml_kit.rezip(tmp_path / "out.xlsx", tmp_path / "renamed.xlsx", {"xl/workbook.xml": renamed.encode()})
+    with pytest.raises(PackageRefused, match="is not in the book under that name"):
+        strip_ours(tmp_path / "renamed.xlsx", tmp_path / "back.xlsx")

@@ -271,10 +271,13 @@ def plan_resaved(pkg: Package, info: PackageInfo, record: OwnershipRecord, recor
     notes: dict[str, dict[str, str]] = {}
     for sheet, ref, body in record.notes:
         notes.setdefault(sheet.casefold(), {})[ref.upper()] = body
+    wanted = set(notes) | {c.name.casefold() for c in record.worksheets if c.marks}
+    gone = [name for name in wanted if name not in by_name or not by_name[name].part]
+    if gone:  # renamed or deleted: our comments and marks on it could not be found
+        raise _refuse(pkg, f"sheet {gone[0]!r}, which twistshare commented on, is not in the book under that name")
     for sheet, cells in notes.items():
-        target = by_name.get(sheet)
-        if target is not None and target.part:
-            comments += _remove_comments(pkg, graph, target.part, cells, texts, replace, target.name)
+        target = by_name[sheet]
+        comments += _remove_comments(pkg, graph, target.part, cells, texts, replace, target.name)
     for change in record.worksheets:
         target = by_name.get(change.name.casefold())
         if target is not None and target.part and change.marks:
