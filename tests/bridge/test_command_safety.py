@@ -18,13 +18,13 @@ def _sha(p: Path) -> str:
     return hashlib.sha256(p.read_bytes()).hexdigest()
 
 
-def test_rating_our_own_output_is_refused(tmp_path, capsys):
+def test_rating_our_own_output_rerates_it_and_leaves_it_alone(tmp_path, capsys):
     out = tmp_path / "rated.xlsx"
     main(["rate", str(CATALOGUE), "-o", str(out), "-q"])
     before = _sha(out)
-    assert main(["rate", str(out), "-o", str(tmp_path / "again.xlsx"), "-q"]) == 2
-    assert "already holds twistshare's sheets" in capsys.readouterr().err
-    assert _sha(out) == before and not (tmp_path / "again.xlsx").exists()
+    assert main(["rate", str(out), "-o", str(tmp_path / "again.xlsx"), "--lenient"]) == 0
+    assert "re-rated: replaced 5 sheets of ours" in capsys.readouterr().err
+    assert _sha(out) == before and (tmp_path / "again.xlsx").exists()
 
 
 def test_missing_output_folder_is_said_in_words(tmp_path, capsys):

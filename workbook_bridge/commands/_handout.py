@@ -212,7 +212,7 @@ def run_handout(book_path: Path, out: Path, *, quiet: bool = False) -> int:
     log: list[list] = []
     problems = 0
     try:
-        with BookWriter(book_path) as writer:
+        with BookWriter(book_path, record=False) as writer:  # a values-only copy is not re-rated
             for sheet_name, found in found_by_sheet.items():
                 values: dict[str, object] = {}
                 notes: dict[str, str] = {}

@@ -8,7 +8,7 @@ from pathlib import Path
 
 from twistshare.engine.errors import BookUnusable
 
-from ..ooxml import check_output_name, check_output_place, inspect_package, keep_previous, write_book
+from ..ooxml import RESAVED_ADVICE, check_output_name, check_output_place, inspect_package, keep_previous, write_book
 from ..reading import MAX_TABLE_ROWS, OpenBook, open_book
 from ..sheets import RESULT_SHEET_PREFIX
 
@@ -48,13 +48,15 @@ def prepare(path: Path) -> tuple[object, OpenBook]:
 
 
 def refuse_rated_book(info: object, path: Path) -> None:
-    """Rating a book we already rated would double our comments and sheets: refuse it."""
+    """A book holding our sheets without the record of what is ours (a rated copy saved again by
+    a spreadsheet program, which drops or outdates the record): rating it would double our
+    comments and sheets, and taking them out would be guesswork. Refuse it."""
     ours = [s.name for s in info.sheets if s.name.startswith(RESULT_SHEET_PREFIX)]
     if ours:
         raise BookUnusable(
-            f"{path.name} already holds twistshare's sheets ({', '.join(ours[:4])}) from an earlier run: "
-            "rate the original book instead (after --in-place, its backup BOOK.xlsx.bak-...), or delete "
-            "those sheets and our comments first")
+            f"{path.name} already holds twistshare's sheets ({', '.join(ours[:4])}) but not twistshare's record "
+            "of which sheets, comments and marks are its own (a rated copy loses it when a spreadsheet program "
+            f"saves it again), so it cannot be re-rated exactly: {RESAVED_ADVICE}")
 
 
 def open_for_rating(book_path: Path, out: Path) -> OpenBook:

@@ -14,11 +14,12 @@ from ._output_place import check_output_name, check_output_place, keep_previous,
 from ._package import Limits
 from ._safety import HUGE_ROWS, DefinedName, ExternalLink, PackageInfo, SheetInfo, TableInfo, inspect_package
 from ._styles import STYLE_NAMES
+from ._unrate import RESAVED_ADVICE, StripReport, find_record, read_record, strip_ours
 from ._writer import BookWriter, SheetHandle, WriteReport
 
 __all__ = [
     "BarChart", "BookWriter", "Cell", "Formula", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
     "OoxmlError", "PackageInfo", "PackageRefused", "STYLE_NAMES", "ScatterChart", "SeriesData",
     "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
-    "atomic_file", "backup_path", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
+    "atomic_file", "backup_path", "RESAVED_ADVICE", "StripReport", "find_record", "read_record", "strip_ours", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
 ]

@@ -9,6 +9,10 @@ except the few the writer must change, which are edited at the text level:
 - an input sheet we comment on (one ``<legacyDrawing>`` link) or whose formulas ``share``
   replaces (those ``<c>`` elements only), with its relationships, comments and VML parts.
 
+Beside them it adds the ownership record (``_record``: a custom XML part listing every member
+it added, the members it changed as they were before, and its link and filled cells in the
+user's worksheets), so that a re-rating can take exactly its own work back out (``_unrate``).
+
 ``docProps/app.xml`` (which lists sheet titles for file browsers) is left as it was: spreadsheet
 programs rebuild it on save and do not read it to open a book, and leaving it alone keeps one
 more user part byte for byte. ``xl/calcChain.xml`` is removed (with its relationship and content
@@ -58,6 +62,7 @@ from ._opc import (
     tag_attributes,
 )
 from ._package import Limits, Package
+from ._record_plan import RecordPlan
 from ._safety import PackageInfo, SheetInfo, read_package_info
 from ._sheetxml import (
     StyledValue,
@@ -160,6 +165,7 @@ class _InputSheetEdit:
     dirty: bool = False              # text differs from the input's
     comments: dict[str, str] = field(default_factory=dict)
     author: str = "twistshare"
+    marks: list[str] = field(default_factory=list)  # cells fill_cells filled (for the ownership record)
 
 
 def _zip_info_like(src: zipfile.ZipInfo) -> zipfile.ZipInfo:
@@ -226,6 +232,10 @@ class BookWriter:
         The user's .xlsx/.xlsm.
     limits : Limits, optional
         Size caps for the safety checks.
+    record : bool
+        Also write the ownership record (``_record``): which members, comments and marks are
+        ours, so that a later re-rating can take exactly them out. It is left out when formulas
+        were replaced (a handout cannot be taken back).
     compress_level : int
         zlib level for every member written (1 = fastest; a 50,000 x 40 sheet compresses in
         about 0.7 s at 1 and 2.9 s at 6, 13 % larger). Copied members keep their uncompressed
@@ -245,10 +255,11 @@ class BookWriter:
     """
 
     def __init__(self, source_path: str | os.PathLike, *, limits: Limits | None = None,
-                 compress_level: int = 1) -> None:
+                 compress_level: int = 1, record: bool = True) -> None:
         if not (isinstance(compress_level, int) and 0 <= compress_level <= 9):
             raise ValueError(f"compress_level must be an integer 0..9: {compress_level!r}")
         self._level = compress_level
+        self._record = record
         self._source = os.path.abspath(os.fspath(source_path))
         self._pkg = Package(self._source, limits)
         try:
@@ -550,6 +561,7 @@ class BookWriter:
             wanted[ref] = v
         text, _formulas, _had = replace_cells(text, wanted)
         edit.text, edit.dirty = text, True
+        edit.marks.extend(values)
 
     # -- writing -------------------------------------------------------------------------------
     def write(self, out_path: str | os.PathLike, *, in_place: bool = False) -> WriteReport:
@@ -730,6 +742,14 @@ class BookWriter:
             removed_rel_ids = {r.rel_id for r in parse_rels(pkg.read(wb_rels_name), wb_part)
                                if r.type == RT.CALC_CHAIN}
 
+        defaults, _ = parse_content_types(content_types.encode("utf-8"))
+        record = None
+        if self._record and not self._formulas_replaced:
+            record = RecordPlan(self._used, wb_part, wb_rel_ids, "xml" in defaults)
+            wb_rel_entries.append(record.workbook_rel())
+            overrides.extend(record.overrides())
+            plan.added.extend(record.fixed_parts())
+
         # Workbook part, its relationships, content types.
         if sheet_entries or defined_names:
             plan.changed[wb_part] = self._edit_workbook(wb_text, sheet_entries, defined_names).encode("utf-8")
@@ -742,7 +762,6 @@ class BookWriter:
                     text = append_rels(text, wb_rel_entries)
                 plan.changed[wb_rels_name] = text.encode("utf-8")
         plan.added[:0] = sheet_parts
-        defaults, _ = parse_content_types(content_types.encode("utf-8"))
         if "rels" not in defaults:  # every real package has this default; a hand-made one may not
             overrides.extend((n, CT.RELS) for n, _ in plan.added if n.endswith(".rels"))
         new_ct = content_types
@@ -752,7 +771,19 @@ class BookWriter:
             new_ct = add_overrides(new_ct, overrides)
         if new_ct != content_types:
             plan.changed[ct_name] = new_ct.encode("utf-8")
+        if record is not None:
+            plan.added.append(self._record_part(record, plan))
         return plan
+
+    def _record_part(self, record: RecordPlan, plan: "_Plan") -> tuple[str, bytes]:
+        sheets = {part: (edit.info.name, decode_xml(self._pkg.read(part), part), edit.text, edit.marks)
+                  for part, edit in self._inputs.items() if part in plan.changed}
+        comments = [(e.info.name, len(e.comments)) for e in self._inputs.values()]
+        comments += [(n.handle.name, len(n.comments)) for n in self._new]
+        return record.record_part(added=plan.added, changed=plan.changed, read_before=self._pkg.read,
+                                  worksheets=sheets, sheets=[n.handle.name for n in self._new], comments=comments,
+                                  notes=[(e.info.name, ref, text) for e in self._inputs.values()
+                                         for ref, text in e.comments.items()])
 
     def _vml_blocks_in_use(self) -> set[int]:
         blocks: set[int] = set()
