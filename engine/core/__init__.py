@@ -91,6 +91,7 @@ from ._laminate import (
     reduced_stiffness,
     transformed_stiffness,
 )
+from ._layer_fit_stress import layer_fit_stress_capacity
 from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share, interface_torque
 from ._materials import (
     Material,
@@ -145,7 +146,7 @@ from ._sleeve_diagnoses import (
     describe_sleeve_flag,
     has_sleeve_error,
 )
-from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
+from ._stack_fits import stack_fit_pressures
 from ._stock import StockResult, StockStatus, round_up_to_stock
 from ._whirl import (
     WHIRL_SPEED_RATIO_LIMIT,
