@@ -14,6 +14,13 @@ Examples
 0.579
 """
 
+from ._adhesives import (
+    ADHESIVE_DESIGN_FACTOR,
+    ADHESIVE_SOURCE,
+    Adhesive,
+    adhesive_library,
+    find_adhesive,
+)
 from ._allowables import (
     DISTORTION_ENERGY_FACTOR,
     MAX_SHEAR_FACTOR,
@@ -297,6 +304,11 @@ __all__ = [
     "REFERENCE_TEMPERATURE",
     "FrictionGuide",
     "FRICTION_GUIDANCE",
+    "Adhesive",
+    "ADHESIVE_DESIGN_FACTOR",
+    "ADHESIVE_SOURCE",
+    "adhesive_library",
+    "find_adhesive",
     "FRICTION_GUIDANCE_SOURCE",
     "interference_at_temperature",
     "fit_pressure",
