@@ -83,10 +83,11 @@ def library_note(raw: str, field: Field) -> str:
     adhesive = find_adhesive(raw)
     if field.named != "adhesive" or adhesive is None:
         return ""
-    return (f"{field.description}: {adhesive.name!r} from the built-in adhesives, "
-            f"{_fmt(adhesive.allowable / 1e6)} MPa (typical strength {_fmt(adhesive.typical_strength / 1e6)} "
-            f"MPa in a {adhesive.test}, over a design factor of {_fmt(ADHESIVE_DESIGN_FACTOR)}; "
-            f"{adhesive.source})")
+    return (f"{field.description}: {adhesive.name!r} from the built-in adhesives: "
+            f"{_fmt(adhesive.allowable / 1e6)} MPa, its typical strength "
+            f"{_fmt(adhesive.typical_strength / 1e6)} MPa ({adhesive.test}, typical, from memory) "
+            f"over a design factor of {_fmt(ADHESIVE_DESIGN_FACTOR)} (common practice, from memory); "
+            "use the maker's data for your product, gap and temperature")
 
 
 def cell_value(raw: object, field: Field, unit: str | None, factor: float | None,
