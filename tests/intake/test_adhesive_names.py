@@ -75,3 +75,29 @@ def test_a_cell_function_block_reads_the_name_by_the_same_rule():
     assert limit[0] == ["governing limit [N·m]"]
     assert limit[1][0] == pytest.approx(min(_bond_limit(EPOXY), layer_cap), rel=1e-9)
     assert _bond_limit(EPOXY) < layer_cap  # the bond governs
+
+
+def test_a_named_adhesive_running_above_its_service_temperature_is_warned_and_still_rated():
+    # cyanoacrylate's typical upper service temperature is 80 °C (the library's, from memory)
+    head = HEAD + ["Operating temperature [°C]"]
+    rows = [_row("MPD-S-308", "cyanoacrylate") + [95], _row("MPD-S-309", "cyanoacrylate") + [60],
+            _row("MPD-S-310", 6) + [95]]
+    result = rate_tables(MemoryBook({"Materials": MATERIALS, "Parts": [head, *rows]}))
+    hot = [p for p in result.problems if p.code == "adhesive-too-hot"]
+    assert len(hot) == 1 and hot[0].severity is Severity.WARNING and hot[0].cell == "J2"
+    assert "95 °C is above the typical upper service temperature of cyanoacrylate (about 80 °C" in hot[0].message
+    assert list(result.rated) == [True, True, True]
+
+
+def test_the_one_row_per_layer_layout_reads_the_name_and_warns_the_same():
+    parts = [["Part", "Length [mm]", "Torque [N·m]", "Operating temperature [°C]"],
+             ["MPD-S-311", 400, 100, 95]]
+    layers = [["Part", "Layer", "Material", "Outer diameter [mm]", "Inner diameter [mm]",
+               "Bond allowable [MPa]", "Bond length [mm]"],
+              ["MPD-S-311", 1, "MPD core steel", 40, None, None, None],
+              ["MPD-S-311", 2, "MPD sleeve steel", 48, 40, "Cyanoacrylate", 30]]
+    result = rate_tables(MemoryBook({"Materials": MATERIALS, "Parts": parts, "Layers": layers}))
+    bond = result.rating.criterion_capacity[Criterion.BOND_SHEAR]
+    assert bond[0, 1] == pytest.approx(_bond_limit(adhesive_library()["cyanoacrylate"].allowable), rel=1e-12)
+    hot = [p for p in result.problems if p.code == "adhesive-too-hot"]
+    assert len(hot) == 1 and hot[0].sheet == "Layers" and hot[0].cell == "F3"
