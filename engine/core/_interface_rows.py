@@ -9,6 +9,7 @@ per part, so a block gives what the whole batch would, row for row.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from types import SimpleNamespace
 
 import numpy as np
 from numpy.typing import NDArray
@@ -19,7 +20,7 @@ from ._load_path import LoadPath, interface_share
 from ._sleeve_diagnoses import InterfaceFlag
 from ._stack_fits import _solve
 
-__all__ = ["RowInputs", "RowResults", "rate_rows"]
+__all__ = ["RowInputs", "rate_rows"]
 
 _KNOWN_PATHS = tuple(int(p) for p in LoadPath)
 
@@ -51,32 +52,6 @@ class RowInputs:
         """The same inputs for a slice of the rows (views)."""
         return RowInputs(**{name: None if value is None else value[rows]
                             for name, value in vars(self).items()})
-
-
-@dataclass(frozen=True)
-class RowResults:
-    """Where a block's results go: views of the batch's arrays (see `InterfaceRating`)."""
-
-    interface_share: NDArray[np.float64]
-    interference: NDArray[np.float64]
-    pressure: NDArray[np.float64]
-    slip_torque: NDArray[np.float64]
-    slip_capacity: NDArray[np.float64]
-    bond_capacity: NDArray[np.float64]
-    fit_stress_capacity: NDArray[np.float64]
-    fit_stress_face: NDArray[np.int8]
-    interface_flags: NDArray[np.int32]
-    layer_fit_flags: NDArray[np.int32]
-    slip_limit: NDArray[np.float64]
-    slip_slot: NDArray[np.int16]
-    bond_limit: NDArray[np.float64]
-    bond_slot: NDArray[np.int16]
-    fit_stress_limit: NDArray[np.float64]
-    fit_stress_slot: NDArray[np.int16]
-
-    def rows(self, rows: slice) -> RowResults:
-        """The same results for a slice of the rows (views)."""
-        return RowResults(**{name: value[rows] for name, value in vars(self).items()})
 
 
 def _smallest(
@@ -116,8 +91,9 @@ def _positive(value: NDArray[np.float64]) -> NDArray[np.bool_]:
     return ok
 
 
-def rate_rows(src: RowInputs, out: RowResults) -> None:
-    """Rate the interfaces of one block of rows into ``out`` (every element is written)."""
+def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
+    """Rate the interfaces of one block of rows into ``out``, views of the batch's arrays
+    named as the fields of `InterfaceRating` (every element is written)."""
     do, di, g, mask = src.do, src.di, src.g, src.mask
     n_parts, n_layers = do.shape
     full = bool(mask.all())

@@ -16,13 +16,14 @@ codes and standards and have a qualified engineer review.
 from __future__ import annotations
 
 from dataclasses import dataclass, fields
+from types import SimpleNamespace
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_float, frozen_view
 from ._fits import REFERENCE_TEMPERATURE
-from ._interface_rows import RowInputs, RowResults, rate_rows
+from ._interface_rows import RowInputs, rate_rows
 from ._load_path import DEFAULT_LOAD_PATH
 from ._section import LayerStack
 
@@ -95,6 +96,11 @@ def _grid(value: ArrayLike, shape: tuple[int, int]) -> NDArray[np.float64]:
 def _part(value: ArrayLike, n_parts: int) -> NDArray[np.float64]:
     return np.broadcast_to(as_float(value), (n_parts,))
 
+
+_DTYPES = {"fit_stress_face": np.int8, "interface_flags": np.int32, "layer_fit_flags": np.int32,
+           "slip_slot": np.int16, "bond_slot": np.int16, "fit_stress_slot": np.int16}
+_PER_PART = {"slip_limit", "slip_slot", "bond_limit", "bond_slot", "fit_stress_limit",
+             "fit_stress_slot"}
 
 #: Rows rated together: 2^16 parts of a few layers keep a block's temporaries in the cache.
 BLOCK_ROWS = 1 << 16
@@ -173,19 +179,10 @@ def rate_interfaces(
         heat=_part(operating_temperature, n_parts) - _part(reference_temperature, n_parts),
     )
     # Every element of these is written block by block: no fill here.
-    grids = {name: np.empty(shape, order="F") for name in (
-        "interface_share", "interference", "pressure", "slip_torque", "slip_capacity",
-        "bond_capacity", "fit_stress_capacity")}
-    out = RowResults(
-        **grids,
-        fit_stress_face=np.empty(shape, dtype=np.int8, order="F"),
-        interface_flags=np.empty(shape, dtype=np.int32, order="F"),
-        layer_fit_flags=np.empty(shape, dtype=np.int32, order="F"),
-        slip_limit=np.empty(n_parts), slip_slot=np.empty(n_parts, dtype=np.int16),
-        bond_limit=np.empty(n_parts), bond_slot=np.empty(n_parts, dtype=np.int16),
-        fit_stress_limit=np.empty(n_parts), fit_stress_slot=np.empty(n_parts, dtype=np.int16),
-    )
+    arrays = {item.name: np.empty(shape if item.name not in _PER_PART else (n_parts,),
+                                  dtype=_DTYPES.get(item.name, np.float64), order="F")
+              for item in fields(InterfaceRating)}
     for first in range(0, n_parts, BLOCK_ROWS):
         rows = slice(first, first + BLOCK_ROWS)
-        rate_rows(src.rows(rows), out.rows(rows))
-    return InterfaceRating(**vars(out))
+        rate_rows(src.rows(rows), SimpleNamespace(**{k: v[rows] for k, v in arrays.items()}))
+    return InterfaceRating(**arrays)
