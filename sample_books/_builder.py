@@ -37,6 +37,7 @@ from ._scenario import (  # the scenario's data, written here
     LAYER_HEADERS,
     MATERIAL_HEADERS,
     PART_HEADERS,
+    SLEEVE_PART_HEADERS,
     Cell,
     _extra_part_cells,
     _layer_cells,
@@ -44,6 +45,7 @@ from ._scenario import (  # the scenario's data, written here
     _long_parts,
     _Part,
     _part_cells,
+    _sleeve_part_cells,
     _wide_part_headers,
     planted_problems,
 )
@@ -75,8 +77,10 @@ def _wide_row(part: _Part) -> tuple[Cell, ...]:
     cells: list[Cell] = list(_part_cells(part))
     for layer in part.layers:
         cells.extend(_layer_cells(layer))
-    cells.extend([None] * (len(_wide_part_headers()) - len(cells) - len(EXTRA_PART_HEADERS)))
+    cells.extend([None] * (len(_wide_part_headers()) - len(cells) - len(EXTRA_PART_HEADERS)
+                           - len(SLEEVE_PART_HEADERS)))
     cells.extend(_extra_part_cells(part))
+    cells.extend(_sleeve_part_cells(part))
     return tuple(cells)
 
 
@@ -166,6 +170,10 @@ def write_catalogue(path: str | Path) -> Path:
         "Duties are a torque, or a power at a speed (with a service factor where given). "
         "MPD-S-0xx are sleeved pump shafts; MPD-T-2xx are hybrid line-shaft tubes "
         "(aluminium tube, carbon-fibre over-wrap, steel end fitting inside at the ends).",
+        "MPD-S-030 to MPD-S-033 are rebuilt shafts whose sleeve is shrink-fitted (interference, "
+        "fit length, friction) or bonded (a bond allowable, here named by a built-in adhesive "
+        "class, and a bond length) over the core: the results show the slip and bond checks, "
+        "and what the load path and a hot running temperature do to them.",
         f"Rate it with:  twistshare rate {CATALOGUE_FILE} -o rated.xlsx",
     ), CATALOGUE_FILE)
     return _save_reproducibly(wb, Path(path))

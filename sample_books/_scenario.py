@@ -109,6 +109,14 @@ class _Part:
     twist_limit: Cell = None
     twist_per_length: Cell = None
     bearing_span: Cell = None  # line-shaft tubes: the span between their bearings (whirl)
+    # Rebuilt shafts whose sleeve (layer 2) is shrink-fitted or bonded over the core.
+    load_path: Cell = None
+    operating_temperature: Cell = None
+    interference: Cell = None
+    fit_length: Cell = None
+    friction: Cell = None
+    bond_allowable: Cell = None
+    bond_length: Cell = None
 
 
 def _sleeved(*layers: tuple[Cell, ...]) -> tuple[_Layer, ...]:
@@ -170,6 +178,22 @@ _PARTS: tuple[_Part, ...] = (
           _sleeved((_SS, 60, 40)), torque=600, twist_limit=0.5),
     _Part("MPD-S-022", "Pump shaft, aluminium-bronze sleeve, torque in kN·m", 760,
           _sleeved((_CS, 58, 0, 1.6), (_AB, 64, 58)), torque="2.4 kN·m"),
+    # Rebuilt pump shafts whose sleeve is shrink-fitted or bonded on: the slip and bond checks.
+    # Friction 0.14, the low end of dry, degreased steel on steel (common-practice guidance).
+    _Part("MPD-S-030", "Rebuilt pump shaft, duplex sleeve shrink-fitted", 700,
+          _sleeved((_Q2, 50, 0, 1.6), (_DX, 62, 50)), torque=900,
+          interference=0.03, fit_length=50, friction=0.14),
+    # Running hot, a stainless sleeve grows more than its steel core and loses its grip.
+    _Part("MPD-S-031", "Rebuilt pump shaft, stainless sleeve shrink-fitted, runs at 90 °C", 700,
+          _sleeved((_CS, 50, 0, 1.6), (_SS, 56, 50)), torque=900, operating_temperature=90,
+          interference=0.03, fit_length=35, friction=0.14),
+    _Part("MPD-S-032", "Rebuilt pump shaft, aluminium-bronze sleeve bonded (toughened epoxy)", 760,
+          _sleeved((_CS, 55, 0, 1.6), (_AB, 62, 55)), torque=1400,
+          bond_allowable="toughened epoxy", bond_length=45),
+    # Gripped at both ends through its end fittings: the bond passes no torque.
+    _Part("MPD-S-033", "Rebuilt pump shaft, bronze sleeve on retaining compound, clamped ends",
+          600, _sleeved((_CS, 45, 0, 1.6), (_BZ, 50, 45)), torque=700, load_path="every layer",
+          bond_allowable="high-strength anaerobic retaining compound", bond_length=30),
     # The old US-built pump line: every cell carries its own US unit.
     _Part("MPD-S-051", "US line pump shaft, stainless sleeve", "36 in",
           _sleeved((_US, "1.875 in", 0, 1.6), (_SS, "2.125 in", "1.875 in")),
@@ -240,6 +264,16 @@ _PART_ATTRS: tuple[str, ...] = (
 # After the layer groups, so the columns of the first books keep their places.
 EXTRA_PART_HEADERS: tuple[str, ...] = ("Bearing span [mm]",)
 _EXTRA_PART_ATTRS: tuple[str, ...] = ("bearing_span",)
+# The sleeve's fit or bond (the interface under layer 2), in the one-row-per-part catalogue only.
+SLEEVE_PART_HEADERS: tuple[str, ...] = (
+    "Load path", "Operating temperature [°C]", "Layer 2 interference [mm]",
+    "Layer 2 fit length [mm]", "Layer 2 friction", "Layer 2 bond allowable [MPa]",
+    "Layer 2 bond length [mm]",
+)
+_SLEEVE_PART_ATTRS: tuple[str, ...] = (
+    "load_path", "operating_temperature", "interference", "fit_length", "friction",
+    "bond_allowable", "bond_length",
+)
 _LAYER_SUFFIXES: tuple[str, ...] = ("material", "outer diameter [mm]", "inner diameter [mm]", "Kt")
 _LAYER_ATTRS: tuple[str, ...] = ("material", "outer", "inner", "kt")
 
@@ -248,7 +282,7 @@ def _wide_part_headers() -> tuple[str, ...]:
     groups = tuple(
         f"Layer {n} {suffix}" for n in range(1, _MAX_LAYERS + 1) for suffix in _LAYER_SUFFIXES
     )
-    return PART_HEADERS + groups + EXTRA_PART_HEADERS
+    return PART_HEADERS + groups + EXTRA_PART_HEADERS + SLEEVE_PART_HEADERS
 
 
 # The one-row-per-layer book: a subset of the catalogue, plus two bad layer rows of its own.
@@ -377,6 +411,10 @@ def _part_cells(part: _Part) -> tuple[Cell, ...]:
 
 def _extra_part_cells(part: _Part) -> tuple[Cell, ...]:
     return tuple(getattr(part, a) for a in _EXTRA_PART_ATTRS)
+
+
+def _sleeve_part_cells(part: _Part) -> tuple[Cell, ...]:
+    return tuple(getattr(part, a) for a in _SLEEVE_PART_ATTRS)
 
 
 def _layer_cells(layer: _Layer) -> tuple[Cell, ...]:

@@ -14,6 +14,13 @@ Examples
 0.579
 """
 
+from ._adhesives import (
+    ADHESIVE_DESIGN_FACTOR,
+    ADHESIVE_SOURCE,
+    Adhesive,
+    adhesive_library,
+    find_adhesive,
+)
 from ._allowables import (
     DISTORTION_ENERGY_FACTOR,
     MAX_SHEAR_FACTOR,
@@ -91,6 +98,7 @@ from ._laminate import (
     reduced_stiffness,
     transformed_stiffness,
 )
+from ._layer_fit_stress import layer_fit_stress_capacity
 from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share, interface_torque
 from ._materials import (
     Material,
@@ -145,7 +153,7 @@ from ._sleeve_diagnoses import (
     describe_sleeve_flag,
     has_sleeve_error,
 )
-from ._stack_fits import layer_fit_stress_capacity, stack_fit_pressures
+from ._stack_fits import stack_fit_pressures
 from ._stock import StockResult, StockStatus, round_up_to_stock
 from ._whirl import (
     WHIRL_SPEED_RATIO_LIMIT,
@@ -296,6 +304,11 @@ __all__ = [
     "REFERENCE_TEMPERATURE",
     "FrictionGuide",
     "FRICTION_GUIDANCE",
+    "Adhesive",
+    "ADHESIVE_DESIGN_FACTOR",
+    "ADHESIVE_SOURCE",
+    "adhesive_library",
+    "find_adhesive",
     "FRICTION_GUIDANCE_SOURCE",
     "interference_at_temperature",
     "fit_pressure",

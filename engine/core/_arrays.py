@@ -95,3 +95,14 @@ def gather_layer_flags(
     for slot in range(layer_flags.shape[1]):
         result |= layer_flags[:, slot]
     return result
+
+
+def nan_to_zero(value: NDArray[np.float64]) -> NDArray[np.float64]:
+    """``np.nan_to_num(value, nan=0.0)`` as a new array, faster where no infinity is present.
+
+    nan_to_num clears NaN by a masked copy, slow where NaN and numbers alternate at random
+    (a catalogue's blank cells); a select does the same without branching.
+    """
+    if np.isinf(value).any():
+        return np.nan_to_num(value, nan=0.0)
+    return np.where(np.isnan(value), 0.0, value)

@@ -113,8 +113,10 @@ def _per_slot(section, got: InterfaceRating | None, name: str, flags: str
         return np.full(section.sum_gj.shape, np.inf)
     values = getattr(got, name)
     out = np.where(np.isnan(values), np.inf, values)
-    out[interface_errors(getattr(got, flags), InterfaceFlag)] = np.nan
-    out[section.unused] = np.nan
+    # Masked writes only where some element is masked: the check is cheap, the write is not.
+    for blank in (interface_errors(getattr(got, flags), InterfaceFlag), section.unused):
+        if blank.any():
+            np.copyto(out, np.nan, where=blank)
     return out
 
 

@@ -16,16 +16,16 @@ codes and standards and have a qualified engineer review.
 from __future__ import annotations
 
 from dataclasses import dataclass, fields
+from types import SimpleNamespace
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import as_float, frozen_view
 from ._fits import REFERENCE_TEMPERATURE
-from ._load_path import DEFAULT_LOAD_PATH, LoadPath, interface_share
+from ._interface_rows import RowInputs, rate_rows
+from ._load_path import DEFAULT_LOAD_PATH
 from ._section import LayerStack
-from ._sleeve_diagnoses import InterfaceFlag
-from ._stack_fits import _fit_stress, _shape_factors, _solve
 
 __all__ = ["InterfaceRating", "rate_interfaces"]
 
@@ -97,41 +97,13 @@ def _part(value: ArrayLike, n_parts: int) -> NDArray[np.float64]:
     return np.broadcast_to(as_float(value), (n_parts,))
 
 
-def _smallest(
-    columns: list[NDArray[np.float64] | None], failed: NDArray[np.bool_] | None, n_parts: int
-) -> tuple[NDArray[np.float64], NDArray[np.int16]]:
-    """Smallest capacity per part over the slots (NaN and None skipped); NaN where failed."""
-    limit = np.full(n_parts, np.inf)
-    slot = np.full(n_parts, -1, dtype=np.int16)
-    # Arithmetic rather than masked copies: a random mask costs a masked copy ~20x a plain op.
-    with np.errstate(invalid="ignore"):
-        for k, column in enumerate(columns):
-            if column is None:
-                continue
-            wins = column < limit
-            np.fmin(limit, column, out=limit)
-            slot += wins * (np.int16(k) - slot)
-    if failed is not None and failed.any():
-        limit[failed] = np.nan
-        slot[failed] = -1
-    return limit, slot
+_DTYPES = {"fit_stress_face": np.int8, "interface_flags": np.int32, "layer_fit_flags": np.int32,
+           "slip_slot": np.int16, "bond_slot": np.int16, "fit_stress_slot": np.int16}
+_PER_PART = {"slip_limit", "slip_slot", "bond_limit", "bond_slot", "fit_stress_limit",
+             "fit_stress_slot"}
 
-
-def _flag(words: NDArray[np.int32], where: NDArray[np.bool_], flag: InterfaceFlag) -> None:
-    if where.any():
-        words |= where * np.int32(flag)
-
-
-def _one_or_nan(keep: NDArray[np.bool_]) -> NDArray[np.float64]:
-    """1.0 where ``keep``, NaN elsewhere: a factor that blanks values without a masked copy."""
-    return np.array([np.nan, 1.0])[keep.view(np.uint8)]
-
-
-def _positive(value: NDArray[np.float64]) -> NDArray[np.bool_]:
-    """Positive and finite (NaN fails both comparisons)."""
-    ok = value > 0
-    ok &= value < np.inf
-    return ok
+#: Rows rated together: 2^16 parts of a few layers keep a block's temporaries in the cache.
+BLOCK_ROWS = 1 << 16
 
 
 def rate_interfaces(
@@ -191,188 +163,26 @@ def rate_interfaces(
     InterfaceRating
     """
     shape = stack.outer_diameter.shape
-    n_parts, n_layers = shape
-    do, di, g = (_grid(v, shape) for v in (stack.outer_diameter, stack.inner_diameter,
-                                           stack.shear_modulus))
-    mask = stack.present
-    full = bool(mask.all())
-    if share is None or sum_stiffness is None:
-        with np.errstate(invalid="ignore"):
-            gj = np.where(mask, g * np.pi / 32.0 * (do**4 - di**4), 0.0)
-            sum_gj = gj.sum(axis=1)
-            share_array = gj / sum_gj[:, np.newaxis]
-    else:
-        share_array, sum_gj = _grid(share, shape), _part(sum_stiffness, n_parts)
-    path = _part(load_path, n_parts)
-    ishare = interface_share(share_array, mask, path)
-    known = np.isin(path, [int(p) for p in LoadPath])
-
-    e, nu, sy, alpha, fs = (_grid(v, shape) for v in (
-        youngs_modulus, poisson_ratio, yield_strength, expansion_coefficient, factor_of_safety))
-    delta0, length, mu = (_grid(v, shape) for v in (interference, fit_length, friction))
-    tau_bond, bond_len = _grid(bond_allowable, shape), _grid(bond_length, shape)
-    heat = _part(operating_temperature, n_parts) - _part(reference_temperature, n_parts)
-
-    def grid(fill: float, dtype: type = np.float64) -> NDArray:
-        return np.full(shape, fill, dtype=dtype, order="F")
-
-    grip, slip, bond = (grid(np.nan) for _ in range(3))
-    flags, layer_flags = grid(0, np.int32), grid(0, np.int32)
-    # Column by column: a handful of slots, many parts.
-    exists: list[NDArray[np.bool_] | None] = [None]
-    fitted: list[NDArray[np.bool_] | None] = [None]
-    bonded: list[NDArray[np.bool_] | None] = [None]
-    for k in range(1, n_layers):
-        both = np.ones(n_parts, dtype=bool) if full else mask[:, k] & mask[:, k - 1]
-        exists.append(both)
-        fitted.append(both & ~np.isnan(delta0[:, k]))
-        bonded.append(both & ~np.isnan(tau_bond[:, k]))
-        _flag(flags[:, k], both & ~known, InterfaceFlag.LOAD_PATH_UNKNOWN)
-    has_fit = np.zeros(n_parts, dtype=bool)
-    for k in range(1, n_layers):
-        has_fit |= fitted[k]
-    all_fit = bool(has_fit.all())
-    rows = slice(None) if all_fit else np.flatnonzero(has_fit)
-    if not all_fit:
-        delta, pressure, fit_cap = (grid(np.nan) for _ in range(3))
-        face = grid(-1, np.int8)
-    cold_part = np.zeros(n_parts, dtype=bool)
-
-    if all_fit or rows.size:
-        pick = (lambda a: a) if all_fit else (lambda a: a[rows])  # noqa: E731
-        r_do, r_di, r_mask = pick(do), pick(di), pick(mask)
-        n_rows = r_do.shape[0]
-        factors = _shape_factors(r_do, r_di)
-        # Every interface of the part moves with temperature, fitted or just touching.
-        r_heat = pick(heat)
-        heated = ~np.isnan(r_heat)
-        any_heat = bool(heated.any())
-        r_heat = np.nan_to_num(r_heat, nan=0.0) if any_heat else r_heat
-        r_delta = np.empty((n_rows, n_layers), order="F")
-        r_delta[:, 0] = np.nan
-        missing_part = np.zeros(n_rows, dtype=bool)
-        change = np.empty(n_rows)
-        for k in range(1, n_layers):
-            column = r_delta[:, k]
-            np.copyto(column, pick(delta0[:, k]))
-            np.nan_to_num(column, copy=False, nan=0.0)
-            if any_heat:
-                with np.errstate(invalid="ignore"):
-                    np.subtract(pick(alpha[:, k - 1]), pick(alpha[:, k]), out=change)
-                    change *= r_heat
-                    change *= pick(di[:, k])
-                lost = np.isnan(change)
-                if lost.any():
-                    # A missing coefficient matters only where there is a temperature.
-                    change[lost & ~heated] = 0.0
-                    missing = lost & heated & pick(exists[k])
-                    missing_part |= missing
-                    words = pick(flags[:, k])
-                    _flag(words, missing, InterfaceFlag.EXPANSION_NOT_GIVEN)
-                    if all_fit:
-                        flags[:, k] = words
-                    else:
-                        flags[rows, k] = words
-                column += change
-        r_pressure, _, usable = _solve(r_do, r_di, r_mask, pick(e), pick(nu), r_delta, factors)
-        # A part whose pressures cannot all be worked out has none of them.
-        r_unknown = ~usable | missing_part
-        if r_unknown.any():
-            r_pressure[r_unknown] = np.nan
-        cap, r_face = _fit_stress(factors, r_pressure, r_mask, pick(g), pick(sum_gj), pick(sy),
-                                  pick(fs))
-        if r_unknown.any():
-            cap[r_unknown] = np.nan
-            r_face[r_unknown] = -1
-        if all_fit:
-            delta, pressure, fit_cap, face, cold_part = r_delta, r_pressure, cap, r_face, missing_part
-        else:
-            delta[rows], pressure[rows], fit_cap[rows], face[rows] = r_delta, r_pressure, cap, r_face
-            cold_part[rows] = missing_part
-
-    slip_columns: list[NDArray[np.float64] | None] = [None]
-    bond_columns: list[NDArray[np.float64] | None] = [None]
-    slip_failed = np.zeros(n_parts, dtype=bool)
-    bond_failed = np.zeros(n_parts, dtype=bool)
-    passing, d2, own = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        for k in range(1, n_layers):
-            np.abs(ishare[:, k], out=passing)
-            idle = passing == 0
-            np.multiply(di[:, k], di[:, k], out=d2)
-            fit_k, bond_k = fitted[k], bonded[k]
-            slip_k = bond_k_cap = None
-            if fit_k.any():
-                p = pressure[:, k]
-                good_grip = _positive(length[:, k]) & _positive(mu[:, k])
-                no_pressure = fit_k & np.isnan(p)
-                # Pressures fail together in a part: each fit says why, by the cause.
-                _flag(flags[:, k], no_pressure & cold_part, InterfaceFlag.EXPANSION_NOT_GIVEN)
-                _flag(flags[:, k], (fit_k & ~good_grip) | (no_pressure & ~cold_part),
-                      InterfaceFlag.FIT_INPUT_INVALID)
-                _flag(flags[:, k], fit_k & (p == 0), InterfaceFlag.CONTACT_LOST)
-                torque = grip[:, k]
-                np.multiply(p, length[:, k], out=torque)
-                torque *= d2
-                torque *= mu[:, k]
-                torque *= np.pi / 2.0
-                keep = fit_k & good_grip
-                if not keep.all():
-                    torque *= _one_or_nan(keep)
-                slip_k = slip[:, k]
-                np.divide(torque, passing, out=slip_k)
-                if idle.any():
-                    np.copyto(slip_k, np.inf, where=idle & ~np.isnan(torque))
-                slip_failed |= fit_k & ~(good_grip & ~np.isnan(p) & known)
-            if bond_k.any():
-                np.multiply(tau_bond[:, k], bond_len[:, k], out=own)
-                own *= d2
-                own *= np.pi / 2.0
-                good = _positive(tau_bond[:, k]) & _positive(bond_len[:, k]) & _positive(di[:, k])
-                keep = bond_k & good
-                if not keep.all():
-                    own *= _one_or_nan(keep)
-                bond_k_cap = bond[:, k]
-                np.divide(own, passing, out=bond_k_cap)
-                if idle.any():
-                    np.copyto(bond_k_cap, np.inf, where=idle & ~np.isnan(own))
-                _flag(flags[:, k], bond_k & ~good & known, InterfaceFlag.BOND_INPUT_INVALID)
-                bond_failed |= bond_k & ~(good & known)
-            slip_columns.append(slip_k)
-            bond_columns.append(bond_k_cap)
-
-    fit_columns: list[NDArray[np.float64] | None] = []
-    fit_failed = np.zeros(n_parts, dtype=bool)
-    with np.errstate(invalid="ignore"):
-        for k in range(n_layers):
-            column = fit_cap[:, k]
-            in_fit = has_fit if full else has_fit & mask[:, k]
-            _flag(layer_flags[:, k], in_fit & (column == 0), InterfaceFlag.FIT_OVERSTRESSED)
-            bad = in_fit & np.isnan(column)
-            _flag(layer_flags[:, k], bad, InterfaceFlag.FIT_INPUT_INVALID)
-            fit_failed |= bad
-            fit_columns.append(column)
-    slip_limit, slip_slot = _smallest(slip_columns, slip_failed, n_parts)
-    bond_limit, bond_slot = _smallest(bond_columns, bond_failed, n_parts)
-    fit_limit, fit_slot = _smallest(fit_columns, fit_failed, n_parts)
-    for k in range(1, n_layers):
-        if not fitted[k].all():
-            delta[:, k] *= _one_or_nan(fitted[k])
-    return InterfaceRating(
-        interface_share=ishare,
-        interference=delta,
-        pressure=pressure,
-        slip_torque=grip,
-        slip_capacity=slip,
-        bond_capacity=bond,
-        fit_stress_capacity=fit_cap,
-        fit_stress_face=face,
-        interface_flags=flags,
-        layer_fit_flags=layer_flags,
-        slip_limit=slip_limit,
-        slip_slot=slip_slot,
-        bond_limit=bond_limit,
-        bond_slot=bond_slot,
-        fit_stress_limit=fit_limit,
-        fit_stress_slot=fit_slot,
+    n_parts = shape[0]
+    given = share is not None and sum_stiffness is not None
+    src = RowInputs(
+        do=_grid(stack.outer_diameter, shape), di=_grid(stack.inner_diameter, shape),
+        g=_grid(stack.shear_modulus, shape), mask=np.broadcast_to(stack.present, shape),
+        share=_grid(share, shape) if given else None,
+        sum_gj=_part(sum_stiffness, n_parts) if given else None,
+        path=_part(load_path, n_parts),
+        e=_grid(youngs_modulus, shape), nu=_grid(poisson_ratio, shape),
+        sy=_grid(yield_strength, shape), alpha=_grid(expansion_coefficient, shape),
+        fs=_grid(factor_of_safety, shape), delta0=_grid(interference, shape),
+        length=_grid(fit_length, shape), mu=_grid(friction, shape),
+        tau_bond=_grid(bond_allowable, shape), bond_len=_grid(bond_length, shape),
+        heat=_part(operating_temperature, n_parts) - _part(reference_temperature, n_parts),
     )
+    # Every element of these is written block by block: no fill here.
+    arrays = {item.name: np.empty(shape if item.name not in _PER_PART else (n_parts,),
+                                  dtype=_DTYPES.get(item.name, np.float64), order="F")
+              for item in fields(InterfaceRating)}
+    for first in range(0, n_parts, BLOCK_ROWS):
+        rows = slice(first, first + BLOCK_ROWS)
+        rate_rows(src.rows(rows), SimpleNamespace(**{k: v[rows] for k, v in arrays.items()}))
+    return InterfaceRating(**arrays)

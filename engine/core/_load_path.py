@@ -41,7 +41,8 @@ DEFAULT_LOAD_PATH = LoadPath.THROUGH_CORE
 
 
 def _pass_through(
-    values: ArrayLike, present: ArrayLike, load_path: ArrayLike
+    values: ArrayLike, present: ArrayLike, load_path: ArrayLike,
+    out: NDArray[np.float64] | None = None,
 ) -> NDArray[np.float64]:
     layer = as_float(values)
     if layer.ndim != 2:
@@ -55,21 +56,26 @@ def _pass_through(
     # Column by column (a handful of slots, many parts); absent slots carry nothing.
     columns = [layer[:, k] if full else np.where(mask[:, k], layer[:, k], 0.0)
                for k in range(n_layers)]
-    inside = [np.zeros(n_parts)]
-    for k in range(1, n_layers):
-        inside.append(inside[-1] + columns[k - 1])
-    outside = list(columns)  # outside[k]: slot k and every slot outside it (k >= 1 used)
-    for k in range(n_layers - 2, 0, -1):
-        outside[k] = outside[k + 1] + columns[k]
     codes = (int(LoadPath.THROUGH_CORE), int(LoadPath.THROUGH_OUTER_LAYER),
              int(LoadPath.THROUGH_EVERY_LAYER))
     uniform = n_parts > 0 and bool(np.all(path == path[0]))
-    result = np.full(layer.shape, np.nan, order="F")
+    # One load path for the whole batch (the usual case) needs only its own sums.
+    need = codes if not uniform else (path[0],)
+    inside: list[NDArray[np.float64] | None] = [None] * n_layers
+    if codes[1] in need:
+        inside[0] = np.zeros(n_parts)
+        for k in range(1, n_layers):
+            inside[k] = inside[k - 1] + columns[k - 1]
+    outside: list[NDArray[np.float64] | None] = list(columns)  # slot k and every slot outside it
+    if codes[0] in need:
+        for k in range(n_layers - 2, 0, -1):
+            outside[k] = outside[k + 1] + columns[k]
+    result = np.empty(layer.shape, order="F") if out is None else out
+    result[:, 0] = np.nan
     for k in range(1, n_layers):
         choices = (outside[k], inside[k], 0.0)
         if uniform:
-            if path[0] in codes:
-                result[:, k] = choices[codes.index(path[0])]
+            result[:, k] = choices[codes.index(path[0])] if path[0] in codes else np.nan
         else:
             result[:, k] = np.select([path == code for code in codes], choices, np.nan)
         if not full:
@@ -129,6 +135,8 @@ def interface_share(
     share: ArrayLike,
     present: ArrayLike,
     load_path: ArrayLike = DEFAULT_LOAD_PATH,
+    *,
+    out: NDArray[np.float64] | None = None,
 ) -> NDArray[np.float64]:
     """Torque each interface must pass per unit section torque.
 
@@ -142,6 +150,8 @@ def interface_share(
         ``Rating.share``, or ``torque_share(G*J)``.
     present : (P, L) array_like of bool
     load_path : array_like of LoadPath, broadcast to (P,)
+    out : (P, L) ndarray, optional
+        Where to write the result.
 
     Returns
     -------
@@ -153,4 +163,4 @@ def interface_share(
     >>> interface_share([[0.6, 0.3, 0.1]], [[True] * 3]).round(12).tolist()
     [[nan, 0.4, 0.1]]
     """
-    return _pass_through(share, present, load_path)
+    return _pass_through(share, present, load_path, out)

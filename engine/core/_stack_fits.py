@@ -1,4 +1,4 @@
-"""Fits in a stack of layers: every interface's contact pressure at once, and each layer's stress.
+"""Fits in a stack of layers: the contact pressure of every interface at once.
 
 One shrink fit squeezes everything inside it, so in a part of three or more layers the
 two-cylinder formula (:func:`fit_pressure`) is not enough: a sleeve fitted over a bonded
@@ -20,9 +20,10 @@ from __future__ import annotations
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from ._arrays import as_bool, as_float
+from ._arrays import as_bool, as_float, nan_to_zero
+from ._layer_fit_stress import shape_factors
 
-__all__ = ["stack_fit_pressures", "layer_fit_stress_capacity"]
+__all__ = ["stack_fit_pressures"]
 
 
 def _face_compliances(
@@ -114,26 +115,11 @@ def stack_fit_pressures(
     return pressure, opened
 
 
-def _shape_factors(
-    do: NDArray[np.float64], di: NDArray[np.float64]
-) -> list[tuple[NDArray[np.float64], NDArray[np.float64], NDArray[np.float64]]]:
-    """Per layer slot: ``s = (D_o^2 + D_i^2) / (D_o^2 - D_i^2)``, ``D_o^2`` and ``D_i^2``."""
-    out = []
-    wall = np.empty(do.shape[0])
-    for slot in range(do.shape[1]):
-        do2 = np.multiply(do[:, slot], do[:, slot])
-        di2 = np.multiply(di[:, slot], di[:, slot])
-        s = np.add(do2, di2)
-        np.subtract(do2, di2, out=wall)
-        s /= wall
-        out.append((s, do2, di2))
-    return out
-
-
 def _solve(
     do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
     e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
     factors: list[tuple[NDArray[np.float64], ...]] | None = None,
+    pressure: NDArray[np.float64] | None = None,
 ) -> tuple[NDArray[np.float64], NDArray[np.bool_], NDArray[np.bool_]]:
     """Interface pressures of every part, column by column, and which parts are usable.
 
@@ -142,29 +128,32 @@ def _solve(
     ``c_a,in = D_i (s + nu) / E``, ``c_a,out = D_i (s + 1) / E``, ``c_b,in = D_o (s - 1) / E``,
     ``c_b,out = D_o (s - nu) / E``, the diametral growth of a layer's faces per unit
     pressure). Rows where an interface would pull go to :func:`_solve_with_contact`.
+    ``factors`` are :func:`shape_factors` of ``do, di`` when the caller has them; ``pressure``
+    an (P, L) array to write the pressures into (every element is written).
     """
     n_parts, n_layers = do.shape
-    pressure = np.full((n_parts, n_layers), np.nan, order="F")
+    if pressure is None:
+        pressure = np.full((n_parts, n_layers), np.nan, order="F")
+    else:
+        pressure[:, 0] = np.nan  # the other columns are all written below
     opened = np.zeros((n_parts, n_layers), dtype=bool, order="F")
-    usable = np.ones(n_parts, dtype=bool)
     if n_layers < 2:
-        return pressure, opened, usable
-    factors = _shape_factors(do, di) if factors is None else factors
+        return pressure, opened, np.ones(n_parts, dtype=bool)
+    factors = shape_factors(do, di) if factors is None else factors
     full = bool(mask.all())
     with np.errstate(all="ignore"):
-        scratch = np.empty(n_parts, dtype=bool)
-        for slot in range(n_layers):
-            # NaN fails every comparison, so a missing value is caught here too.
-            checks = ((e[:, slot], 0.0, np.greater), (nu[:, slot], -1.0, np.greater),
-                      (nu[:, slot], 0.5, np.less_equal), (e[:, slot], np.inf, np.less),
-                      (di[:, slot], 0.0, np.greater_equal), (di[:, slot], do[:, slot], np.less))
-            good = np.ones(n_parts, dtype=bool)
-            for value, bound, compare in checks:
-                compare(value, bound, out=scratch)
-                good &= scratch
-            if not full:
-                good |= ~mask[:, slot]
-            usable &= good
+        # NaN fails every comparison, so a missing value is caught here too. Whole blocks
+        # at once: the (P, L) rows are contiguous where a column is not.
+        good = np.greater(e, 0.0)
+        for value, bound, compare in ((nu, -1.0, np.greater), (nu, 0.5, np.less_equal),
+                                      (e, np.inf, np.less), (di, 0.0, np.greater_equal),
+                                      (di, do, np.less)):
+            good &= compare(value, bound)
+        if not full:
+            good |= ~mask
+        usable = good[:, 0].copy()
+        for slot in range(1, n_layers):
+            usable &= good[:, slot]
         diag, lower, upper, rhs = [], [], [], []
         ki, ko = np.empty(n_parts), np.empty(n_parts)
         for k in range(1, n_layers):
@@ -186,7 +175,7 @@ def _solve(
             column = delta[:, k]
             # A copy where rows will be blanked below or NaN cleared, else the caller's column.
             own = not full or bool(np.isnan(column).any())
-            rhs.append(np.nan_to_num(column, nan=0.0) if own else column)
+            rhs.append(nan_to_zero(column) if own else column)
         if not full:
             for k in range(1, n_layers):
                 gone = ~(mask[:, k] & mask[:, k - 1])
@@ -285,136 +274,3 @@ def _solve_with_contact(
         pressure[:, 1:] = np.where(exists, p, np.nan)
         opened[:, 1:] = exists & ~active
     return pressure, opened
-
-
-def layer_fit_stress_capacity(
-    outer_diameter: ArrayLike,
-    inner_diameter: ArrayLike,
-    present: ArrayLike,
-    shear_modulus: ArrayLike,
-    sum_stiffness: ArrayLike,
-    pressure: ArrayLike,
-    yield_strength: ArrayLike,
-    factor_of_safety: ArrayLike = 1.0,
-) -> tuple[NDArray[np.float64], NDArray[np.int8]]:
-    """Section torque at which a layer's fit stresses plus torsion reach ``S_y / FS``.
-
-    Each layer is checked at its inner and outer face, where the fit stresses and the
-    torsional shear are largest: Lamé stresses from the pressures on its two faces
-    (:func:`lame_stresses`) and ``tau = G r T / sum(G J)``, combined by distortion energy
-    (:func:`combined_stress_capacity`). For an interface these faces are the outer member's
-    bore and the inner member's surface.
-
-    Parameters
-    ----------
-    outer_diameter, inner_diameter : (P, L) array_like, m
-    present : (P, L) array_like of bool
-    shear_modulus : (P, L) array_like, Pa
-    sum_stiffness : (P,) array_like, N*m^2
-        ``sum(G J)`` of the section.
-    pressure : (P, L) array_like, Pa
-        Interface pressures at the outer member's slot (:func:`stack_fit_pressures`); NaN
-        where there is no interface counts as none (0).
-    yield_strength : (P, L) array_like, Pa
-    factor_of_safety : array_like, 1
-        Broadcast against (P, L).
-
-    Returns
-    -------
-    capacity : (P, L) ndarray, N*m
-        0 where the fit alone reaches ``S_y / FS``; NaN for absent slots and missing
-        strengths.
-    face : (P, L) ndarray of int8
-        0 where the inner face governs, 1 the outer face; -1 where there is no capacity.
-    """
-    do, di = as_float(outer_diameter), as_float(inner_diameter)
-    shape = do.shape
-    mask = np.broadcast_to(as_bool(present), shape)
-    g, sy, fs = (np.broadcast_to(as_float(v), shape) for v in (shear_modulus, yield_strength,
-                                                               factor_of_safety))
-    pressure = np.broadcast_to(as_float(pressure), shape)
-    return _fit_stress(_shape_factors(do, di), pressure, mask, g,
-                       np.broadcast_to(as_float(sum_stiffness), shape[:1]), sy, fs)
-
-
-_TWO_OVER_ROOT3 = 2.0 / np.sqrt(3.0)
-
-
-def _fit_stress(
-    factors: list[tuple[NDArray[np.float64], ...]],
-    pressure: NDArray[np.float64],
-    mask: NDArray[np.bool_],
-    g: NDArray[np.float64],
-    sum_gj: NDArray[np.float64],
-    sy: NDArray[np.float64],
-    fs: NDArray[np.float64],
-) -> tuple[NDArray[np.float64], NDArray[np.int8]]:
-    """Column by column: with ``s`` the layer's shape factor the Lamé faces are
-    ``sigma_t(a) = p_in s - p_out (s + 1)``, ``sigma_t(b) = p_in (s - 1) - p_out s``,
-    ``sigma_r = -p`` of that face; distortion energy with ``tau = G (D/2) T / sum(G J)``
-    gives ``T = sqrt((S^2 - A) / D^2) 2 sum(G J) / (sqrt(3) G)``, ``A = st^2 + sr^2 - st sr``.
-    """
-    n_parts, n_layers = pressure.shape
-    capacity = np.full((n_parts, n_layers), np.nan, order="F")
-    face = np.full((n_parts, n_layers), -1, dtype=np.int8, order="F")
-    full = bool(mask.all())
-    zero = np.zeros(n_parts)
-
-    def squeeze(slot: int) -> NDArray[np.float64]:
-        if slot <= 0 or slot >= n_layers:
-            return zero
-        column = pressure[:, slot]
-        return np.nan_to_num(column, nan=0.0) if np.isnan(column).any() else column
-
-    with np.errstate(all="ignore"):
-        # Few buffers, reused: fresh memory for every temporary costs more than the sums.
-        hoop, work, limit = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
-        inner, outer = np.empty(n_parts), np.empty(n_parts)
-        outer_wins = np.empty(n_parts, dtype=bool)
-        p_in = zero
-        for slot in range(n_layers):
-            s, do2, di2 = factors[slot]
-            p_out = squeeze(slot + 1)
-            np.divide(sy[:, slot], fs[:, slot], out=limit)
-            strong = (sy[:, slot] > 0) & (fs[:, slot] > 0)
-            if not strong.all():
-                limit[~strong] = np.nan
-            limit *= limit
-            for room, p_face, diameter2 in ((inner, p_in, di2), (outer, p_out, do2)):
-                if room is inner:  # sigma_t(a) = p_in s - p_out (s + 1)
-                    np.multiply(p_in, s, out=hoop)
-                    np.add(s, 1.0, out=work)
-                else:  # sigma_t(b) = p_in (s - 1) - p_out s
-                    np.subtract(s, 1.0, out=hoop)
-                    hoop *= p_in
-                    np.copyto(work, s)
-                work *= p_out
-                hoop -= work
-                # A = st (st - sr) + sr^2 with sr = -p_face.
-                np.add(hoop, p_face, out=work)
-                work *= hoop
-                np.multiply(p_face, p_face, out=hoop)
-                work += hoop
-                np.subtract(limit, work, out=room)
-                np.maximum(room, 0.0, out=room)
-                room /= diameter2
-            # A solid core has no inner face: dividing by its D_i^2 = 0 gives inf, or NaN
-            # where the fit alone yields, and there its outer face, in the same uniform
-            # state, gives 0 anyway; fmin skips that NaN, and a NaN strength is NaN on both.
-            np.less(outer, inner, out=outer_wins)
-            outer_wins |= np.isnan(inner)
-            best = capacity[:, slot]
-            np.fmin(inner, outer, out=best)
-            np.sqrt(best, out=best)
-            best *= sum_gj
-            best /= g[:, slot]
-            best *= _TWO_OVER_ROOT3
-            face[:, slot] = outer_wins
-            p_in = p_out
-        missing = np.isnan(capacity)
-        if not full:
-            missing |= ~mask
-        if missing.any():
-            capacity[missing] = np.nan
-            face[missing] = -1
-    return capacity, face

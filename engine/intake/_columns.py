@@ -13,6 +13,7 @@ from dataclasses import dataclass
 from types import MappingProxyType
 
 import numpy as np
+from twistshare.engine.core import ADHESIVE_DESIGN_FACTOR, adhesive_library, find_adhesive
 from twistshare.engine.units import UnitProblem, describe_kind, parse_value, si_factor, si_offset
 
 from ._grid import SheetGrid, cell_ref
@@ -64,6 +65,31 @@ def header_factor(field: Field, unit: str | None, header: str) -> tuple[float | 
     return (1.0 if field.kind == "dimensionless" else None), None
 
 
+_ADHESIVE_NAMES = ", ".join(repr(name) for name in adhesive_library())
+
+
+def _named_value(raw: str, field: Field) -> tuple[float, str | None, str] | None:
+    """A text naming a built-in library entry of the field's kind: its value, code
+    ``"library"`` (the reader notes where it came from); None otherwise."""
+    if field.named == "adhesive":
+        adhesive = find_adhesive(raw)
+        if adhesive is not None:
+            return adhesive.allowable, None, "library"
+    return None
+
+
+def library_note(raw: str, field: Field) -> str:
+    """What a cell that names a library entry was read as, in words (with its source)."""
+    adhesive = find_adhesive(raw)
+    if field.named != "adhesive" or adhesive is None:
+        return ""
+    return (f"{field.description}: {adhesive.name!r} from the built-in adhesives: "
+            f"{_fmt(adhesive.allowable / 1e6)} MPa, its typical strength "
+            f"{_fmt(adhesive.typical_strength / 1e6)} MPa ({adhesive.test}, typical, from memory) "
+            f"over a design factor of {_fmt(ADHESIVE_DESIGN_FACTOR)} (common practice, from memory); "
+            "use the maker's data for your product, gap and temperature")
+
+
 def cell_value(raw: object, field: Field, unit: str | None, factor: float | None,
                header_issue: str | None = None, *, is_error: bool = False
                ) -> tuple[float, str | None, str]:
@@ -112,9 +138,15 @@ def cell_value(raw: object, field: Field, unit: str | None, factor: float | None
         if kind == "temperature":  # an offset unit: factor is not None here
             v += si_offset(unit, kind)
     elif isinstance(raw, str):
+        named = _named_value(raw, field)
+        if named is not None:
+            return named
         try:
             v = parse_value(raw, kind, unit if factor is not None else None)
         except UnitProblem as exc:
+            if field.named is not None and not any(ch.isdigit() for ch in raw):
+                return math.nan, (f"{quoted(raw)} is neither {describe_kind(kind)} with its unit "
+                                  f"nor a built-in {field.named}: {_ADHESIVE_NAMES}"), "unknown-name"
             return math.nan, f"{quoted(raw)}: {_short(str(exc), raw)}", "unit"
     else:
         return math.nan, f"expected {describe_kind(kind)}, got {raw!r}", "not-a-number"
@@ -204,7 +236,7 @@ def read_numeric(
                     math.nan, None, "empty")
             got = [memo[x] for x in raw_col]
             values[:] = [g[0] for g in got]
-            slow = [i for i, g in enumerate(got) if g[1] is not None or g[2] == "empty"]
+            slow = [i for i, g in enumerate(got) if g[1] is not None or g[2] in ("empty", "library")]
             values[slow] = math.nan
     for i in slow:
         r = rows[i]
@@ -242,6 +274,10 @@ def read_numeric(
                         *tag(r), code=code, values=(raw,))
             )
             continue
+        if code == "library":
+            findings.append(Problem(Severity.NOTE, grid.name, cell_ref(r, col),
+                                    f"{who(r)}: {library_note(raw, field)}", *tag(r),
+                                    code="library-value", values=(raw,)))
         values[i] = v
     return NumericColumn(values, bad, empty)
 

@@ -14,7 +14,15 @@ from __future__ import annotations
 import math
 
 import numpy as np
-from twistshare.engine.core import DEFAULT_LOAD_PATH, InterfaceFlag, Rating, describe_sleeve_flag, has_sleeve_error
+from twistshare.engine.core import (
+    DEFAULT_LOAD_PATH,
+    Adhesive,
+    InterfaceFlag,
+    Rating,
+    describe_sleeve_flag,
+    find_adhesive,
+    has_sleeve_error,
+)
 from twistshare.engine.core._interface_criteria import has_interfaces, interface_rating
 
 from ._columns import read_numeric, read_text
@@ -30,6 +38,7 @@ from ._words import LOAD_PATH_CHOICES, load_path_from_text, quoted, where_text
 __all__ = ["read_interface_inputs", "interface_problems"]
 
 _LAYER_KEYS = tuple(f.key for f in INTERFACE_FIELDS)
+_ZERO_CELSIUS = 273.15
 _MATERIAL_KEYS = ("youngs_modulus", "poisson_ratio", "yield_strength", "expansion_coefficient",
                   "factor_of_safety")
 
@@ -44,6 +53,7 @@ def read_interface_inputs(parts, grid: SheetGrid, spot: TableSpot, materials: Ma
     error = parts.input_error
     layer_values = {k: np.full((P, L), np.nan) for k in _LAYER_KEYS}
     found = False
+    named: list[tuple[int, int, Adhesive, str, str]] = []  # bond cells naming an adhesive class
     if layers_spot is not None and layers_grid is not None and parts.source_part is not None:
         lrows = list(layers_spot.data_rows)
         src_p, src_j = np.asarray(parts.source_part), np.asarray(parts.source_slot)
@@ -58,6 +68,12 @@ def read_interface_inputs(parts, grid: SheetGrid, spot: TableSpot, materials: Ma
                                header_seen)
             layer_values[key][src_p[keep], src_j[keep]] = got.values[keep]
             error[src_p[keep & got.bad]] = True
+            if key == "bond_allowable":
+                for k, text in enumerate(read_text(layers_grid, col.index, lrows)):
+                    adhesive = find_adhesive(text) if text and keep[k] else None
+                    if adhesive is not None:
+                        named.append((int(src_p[k]), int(src_j[k]), adhesive, layers_grid.name,
+                                      cell_ref(lrows[k], col.index)))
             for k in np.flatnonzero(keep).tolist():
                 parts.layer_cells[(int(src_p[k]), int(src_j[k]), key)] = (
                     layers_grid.name, cell_ref(lrows[k], col.index))
@@ -75,6 +91,11 @@ def read_interface_inputs(parts, grid: SheetGrid, spot: TableSpot, materials: Ma
                 parts.layer_cells.column((j, key), col.index)
                 if j < L:
                     layer_values[key][:, j] = got.values
+                if key == "bond_allowable" and j < L:
+                    for i, text in enumerate(read_text(grid, col.index, rows)):
+                        adhesive = find_adhesive(text) if text else None
+                        if adhesive is not None:
+                            named.append((i, j, adhesive, grid.name, cell_ref(rows[i], col.index)))
                 stray = ~got.empty & ~got.bad
                 if j == 0 or j >= L:
                     stray &= True
@@ -93,6 +114,27 @@ def read_interface_inputs(parts, grid: SheetGrid, spot: TableSpot, materials: Ma
     parts.inputs.update(layer_values)
     _part_inputs(parts, grid, spot, rows, findings, header_seen)
     _material_inputs(parts, materials)
+    _adhesives_too_hot(parts, named, findings)
+
+
+def _adhesives_too_hot(parts, named: list[tuple[int, int, Adhesive, str, str]],
+                       findings: list[Problem]) -> None:
+    """Warn on a bond cell naming an adhesive class whose typical upper service temperature is
+    below the part's operating temperature: its room-temperature allowable does not hold there."""
+    hot = parts.inputs.get("operating_temperature")
+    if hot is None:
+        return
+    for i, j, adhesive, sheet, cell in named:
+        if not hot[i] > adhesive.max_temperature:  # NaN (not given) is not hot
+            continue
+        findings.append(Problem(
+            Severity.WARNING, sheet, cell,
+            f"{where_text(parts.ids[i], j + 1)}: the operating temperature "
+            f"{hot[i] - _ZERO_CELSIUS:g} °C is above the typical upper service temperature of "
+            f"{adhesive.name} (about {adhesive.max_temperature - _ZERO_CELSIUS:g} °C; typical, from "
+            "memory): its room-temperature allowable does not hold there; give the maker's "
+            "strength at that temperature instead", part=parts.ids[i], layer=j + 1,
+            code="adhesive-too-hot"))
 
 
 def _part_inputs(parts, grid: SheetGrid, spot: TableSpot, rows: list[int], findings: list[Problem],

@@ -79,6 +79,8 @@ class Field:
     description: str
     blank: Blank = Blank.NOT_GIVEN
     plausible: Plausible | None = None
+    # "adhesive": the cell may name a built-in adhesive class instead (its allowable is used)
+    named: str | None = None
 
     @property
     def needs_unit(self) -> bool:
@@ -87,9 +89,9 @@ class Field:
 
 
 def _f(key: str, kind: str, description: str, *labels: str, blank: Blank = Blank.NOT_GIVEN,
-       plausible: Plausible | None = None) -> Field:
+       plausible: Plausible | None = None, named: str | None = None) -> Field:
     return Field(key, kind, tuple(header_key(label) for label in labels), description, blank,
-                 plausible)
+                 plausible, named)
 
 
 _GPA, _MPA, _MM = 1e9, 1e6, 1e-3
@@ -228,9 +230,10 @@ INTERFACE_FIELDS: tuple[Field, ...] = (
        plausible=Plausible(0.01, 0.8, "", 1.0)),
     _f("bond_length", "length", "bond length", "bond length", "bonded length",
        plausible=Plausible(1e-3, 5.0, "mm", _MM)),
-    # blank: not bonded
+    # blank: not bonded; a cell may name a built-in adhesive class (`adhesive_library`)
     _f("bond_allowable", "stress", "allowable average bond shear", "bond allowable",
-       "bond allowable shear", "allowable bond shear", plausible=Plausible(0.1e6, 100e6, "MPa", _MPA)),
+       "bond allowable shear", "allowable bond shear", "adhesive",
+       plausible=Plausible(0.1e6, 100e6, "MPa", _MPA), named="adhesive"),
 )
 
 LAYER_FIELDS: tuple[Field, ...] = (

@@ -27,9 +27,11 @@ CONVENTION_MATERIAL_HEADERS = {
 CONVENTION_PART_HEADERS = {
     "Part", "Length [mm]", "Torque [N·m]", "Power [kW]", "Speed [rpm]", "Service factor",
     "Twist limit [deg]", "Twist limit per length [deg/m]", "Bearing span [mm]",
+    "Load path", "Operating temperature [°C]",
 }
 CONVENTION_LAYER_GROUP = re.compile(
-    r"^Layer ([1-9]) (material|outer diameter \[mm\]|inner diameter \[mm\]|Kt)$")
+    r"^Layer ([1-9]) (material|outer diameter \[mm\]|inner diameter \[mm\]|Kt"
+    r"|interference \[mm\]|fit length \[mm\]|friction|bond allowable \[MPa\]|bond length \[mm\])$")
 CONVENTION_LAYER_HEADERS = ["Part", "Layer", "Material", "Outer diameter [mm]",
                             "Inner diameter [mm]", "Kt"]
 

@@ -182,3 +182,14 @@ def test_summary_draws_the_torque_twist_curve_of_the_charted_part(tmp_path):
     with zipfile.ZipFile(tmp_path / "out.xlsx") as z:
         charts = [z.read(n).decode() for n in z.namelist() if n.startswith("xl/charts/chart")]
     assert any("Torque against twist" in c for c in charts)
+
+
+def test_readme_adhesives_are_the_engines():
+    # the README's table shows the library's figures (typical, from memory)
+    from pathlib import Path
+
+    from twistshare.engine.core import adhesive_library
+    readme = (Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8")
+    for a in adhesive_library().values():
+        assert (f"| {a.name} | {a.typical_strength / 1e6:g} | {a.test} | {a.allowable / 1e6:.1f} | "
+                f"{a.max_temperature - 273.15:g} | {a.notes} |") in readme
