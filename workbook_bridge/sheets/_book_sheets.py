@@ -31,10 +31,10 @@ def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, 
     chosen = _worked_parts(result, worked)
     parts = result.parts
     if parts is not None and parts.count:
-        rows, widths, col_styles = results_rows(result, display, first_errors(result.problems))
-        res = writer.add_sheet(RESULTS_SHEET, rows, column_widths=widths, column_styles=col_styles,
-                               tab_color="FF1F3A4D", header_height=32)
-        writer.set_print_titles(res, columns=2, rows=1)  # part id and status on every printed page
+        laid = results_rows(result, display, first_errors(result.problems))
+        writer.add_sheet(RESULTS_SHEET, laid.rows, column_widths=laid.widths, column_styles=laid.styles,
+                         tab_color="FF1F3A4D", header_height=laid.header_height, row_heights=laid.row_heights,
+                         print_setup=laid.print_setup)
     if result.sizing is not None and parts is not None and parts.count:
         zrows, zwidths, zstyles = sizing_rows(result, display)
         writer.add_sheet(SIZING_SHEET, zrows, column_widths=zwidths, column_styles=zstyles,
