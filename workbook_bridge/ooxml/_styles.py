@@ -54,6 +54,7 @@ _CATALOG = MappingProxyType({
     "fixed4": StyleSpec(number_format="0.0000"),
     "fixed5": StyleSpec(number_format="0.00000"),
     "fixed6": StyleSpec(number_format="0.000000"),
+    "upto4": StyleSpec(number_format="0.0###"),  # an input as typed, to four decimals at most
     "sci": StyleSpec(number_format="0.000E+00"),
     "caution_line": StyleSpec(italic=True, color="FF5A3E00", fill="FFFFF4D6"),
     "percent": StyleSpec(number_format="0.0%"),

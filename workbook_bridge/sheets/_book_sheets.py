@@ -6,15 +6,16 @@ from collections.abc import Sequence
 
 from twistshare.engine.intake import BookRating, Display, Problem, Severity
 
-from ..ooxml import BookWriter
+from ..ooxml import BookWriter, PrintSetup
 from ._charts import add_charts
 from ._comments import fill_library_values, first_errors
-from ._materials_sheet import MATERIALS_SHEET, materials_rows
+from ._layout import fit_text_rows
+from ._materials_sheet import MATERIALS_SHEET, add_materials_sheet
 from ._results import RESULTS_SHEET, lowest_margins, results_rows
 from ._sizing_sheet import SIZING_SHEET, sizing_rows
-from ._summary import SUMMARY_SHEET, summary_rows
+from ._summary import SUMMARY_SHEET, SUMMARY_WIDTHS, summary_rows
 from ._warnings import WARNINGS_SHEET, add_warnings_sheet
-from ._worked import worked_rows, worked_sheet_name
+from ._worked import WORKED_WIDTHS, worked_rows, worked_sheet_name
 
 __all__ = ["add_rating_sheets", "RESULT_SHEETS", "RESULT_SHEET_PREFIX"]
 
@@ -40,18 +41,21 @@ def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, 
         writer.add_sheet(SIZING_SHEET, zrows, column_widths=zwidths, column_styles=zstyles,
                          tab_color="FF1F3A4D", header_height=32)
     srows, layout = summary_rows(result, display, profile_part)
-    summ = writer.add_sheet(SUMMARY_SHEET, srows, column_widths=[30, 40, 18, 16, 34],
-                            freeze_header=False, tab_color="FF1F3A4D", print_fit_one_page=True)
+    printed, merged, heights = fit_text_rows(srows, SUMMARY_WIDTHS)
+    summ = writer.add_sheet(SUMMARY_SHEET, printed, column_widths=list(SUMMARY_WIDTHS), freeze_header=False,
+                            tab_color="FF1F3A4D", row_heights=heights, merged_cells=merged,
+                            print_setup=PrintSetup(fit_height=1))
     add_warnings_sheet(writer, result.problems)
     if result.materials is not None and result.materials.by_name:
-        writer.add_sheet(MATERIALS_SHEET, materials_rows(result.materials, display),
-                         column_widths=[30, 9, 10, 14, 38, 14, 14, 10, 8, 60], header_height=32)
+        add_materials_sheet(writer, result.materials, display)
     add_charts(writer, summ, srows, layout, display)
     fill_library_values(writer, result)
     for i in chosen:
-        writer.add_sheet(worked_sheet_name(result.parts.ids[i]), worked_rows(result, i),
-                         column_widths=[30, 26, 12, 12, 10, 10, 8, 14, 14, 11, 14, 16, 20, 40],
-                         freeze_header=False, print_fit_width=True)
+        wrows, wmerged, wheights = fit_text_rows(worked_rows(result, i), WORKED_WIDTHS)
+        writer.add_sheet(worked_sheet_name(result.parts.ids[i]), wrows, column_widths=list(WORKED_WIDTHS),
+                         freeze_header=False, row_heights=wheights, merged_cells=wmerged,
+                         column_styles=[None] + ["upto4"] * 6,
+                         print_setup=PrintSetup(orientation="landscape"))
 
 
 def _worked_parts(result: BookRating, wanted: Sequence[str] | None) -> list[int]:

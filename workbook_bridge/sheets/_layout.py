@@ -16,11 +16,11 @@ from ..ooxml import Cell, PrintSetup, column_points
 from ..ooxml._print_setup import PRINTABLE_HEIGHT_PT, PRINTABLE_WIDTH_PT
 
 __all__ = ["SIGNIFICANT", "number_style", "number_chars", "wrapped_lines", "text_height", "column_width",
-           "header_height", "row_heights", "banded_setup", "text_chars"]
+           "header_height", "row_heights", "banded_setup", "text_chars", "fit_text_rows"]
 
 SIGNIFICANT = 4  # digits shown of a column's largest value (the cell keeps full precision)
 _LINE_PT = 14.5   # one line of 11 pt text
-_TEXT_PX, _BOLD_PX = 6.0, 6.6
+_TEXT_PX, _BOLD_PX = 5.7, 6.6
 
 
 def number_style(values: Iterable[float] | np.ndarray, significant: int = SIGNIFICANT) -> str:
@@ -150,3 +150,52 @@ def banded_setup(widths: Sequence[float], bands: Sequence[int], *, title_columns
             scale = min(scale, tall)
     return PrintSetup(orientation=orientation, fit_width=None, scale=max(int(scale), smallest),
                       title_rows=title_rows, title_columns=title_columns, column_breaks=tuple(edges[1:-1]))
+
+
+def _with_wrap(cell: object) -> Cell:
+    style = cell.style if isinstance(cell, Cell) else None
+    value = cell.value if isinstance(cell, Cell) else cell
+    return Cell(value, f"{style}+wrap" if style and "wrap" not in style and style != "header" else style or "wrap")
+
+
+def fit_text_rows(rows: Sequence[Sequence[object]], widths: Sequence[float]) -> tuple[list[list], list[str], dict[int, float]]:
+    """A sheet of blocks sized for print: a line of text alone on its row is merged across every
+    column and wrapped (so it never runs past the page or under a chart), a text too long for
+    its column is wrapped in it, and each such row and every header row is as tall as its
+    wrapped text; returns (rows, merged ranges, row heights by 1-based row)."""
+    span, last = sum(widths), len(widths)
+    from ..ooxml._xmltext import column_letters
+
+    out: list[list] = []
+    merged: list[str] = []
+    heights: dict[int, float] = {}
+    for n, row in enumerate(rows, start=1):
+        row = list(row)
+        filled = [c for c in row if c is not None and c != ""]
+        first = row[0] if row else None
+        value = first.value if isinstance(first, Cell) else first
+        if len(filled) == 1 and isinstance(value, str) and len(value) > widths[0] * 0.9 and last > 1:
+            style = first.style if isinstance(first, Cell) else None
+            out.append([_with_wrap(first)])
+            merged.append(f"A{n}:{column_letters(last)}{n}")
+            lines = wrapped_lines(value, span, bold=style in ("title", "header"))
+            if lines > 1 or style == "title":
+                heights[n] = text_height(lines) + (4.0 if style == "title" else 0.0)
+            continue
+        most = 1
+        for c, cell in enumerate(row[:last]):
+            v = cell.value if isinstance(cell, Cell) else cell
+            if not isinstance(v, str):
+                continue
+            bold = isinstance(cell, Cell) and cell.style == "header"
+            lines = wrapped_lines(v, widths[c], bold=bold)
+            free = all(x is None or x == "" for x in row[c + 1:])
+            if free and not bold and wrapped_lines(v, sum(widths[c:]) - 1) == 1:
+                continue  # runs on over the empty cells to its right, within the page
+            if lines > 1 or len(v) > widths[c]:
+                row[c] = _with_wrap(cell)
+                most = max(most, lines)
+        if most > 1:
+            heights[n] = text_height(most)
+        out.append(row)
+    return out, merged, heights

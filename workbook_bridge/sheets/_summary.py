@@ -16,7 +16,7 @@ from ._cells import finite_or_none as _f
 from ._results import READING_THE_RESULTS, criteria_checked, criterion_counts, lowest_margins
 from ._sizing_sheet import sizing_summary_rows
 
-__all__ = ["SummaryLayout", "summary_rows", "SUMMARY_SHEET"]
+__all__ = ["SummaryLayout", "summary_rows", "SUMMARY_SHEET", "SUMMARY_WIDTHS"]
 
 SUMMARY_SHEET = "Twistshare summary"
 
@@ -159,3 +159,8 @@ def _curve_rows(book, i: int, rows: list[list], display: Display) -> tuple[int, 
     for a, b in zip(np.asarray(twist[0]), np.asarray(torque[0])):
         rows.append([Styled(_f(a / pf), "fixed3"), Styled(_f(b / tf), "fixed1")])
     return start, len(rows) - 1
+
+
+
+#: Widths of the summary's five columns (characters); the charts sit to the right of them.
+SUMMARY_WIDTHS = (30.0, 40.0, 18.0, 16.0, 34.0)
