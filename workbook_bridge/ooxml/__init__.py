@@ -14,6 +14,7 @@ from ._output_place import check_output_name, check_output_place, keep_previous,
 from ._package import Limits
 from ._print_setup import FOOTER, PrintSetup, column_points
 from ._safety import HUGE_ROWS, DefinedName, ExternalLink, PackageInfo, SheetInfo, TableInfo, inspect_package
+from ._sheet_selection import write_sheet_selection
 from ._styles import STYLE_NAMES
 from ._writer import BookWriter, SheetHandle, WriteReport
 
@@ -21,5 +22,5 @@ __all__ = [
     "BarChart", "BookWriter", "Cell", "Formula", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
     "OoxmlError", "PackageInfo", "PackageRefused", "PrintSetup", "FOOTER", "column_points", "STYLE_NAMES", "ScatterChart", "SeriesData",
     "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
-    "atomic_file", "backup_path", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
+    "atomic_file", "backup_path", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book", "write_sheet_selection",
 ]

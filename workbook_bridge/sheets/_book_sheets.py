@@ -25,10 +25,11 @@ RESULT_SHEET_PREFIX = "Twistshare "
 
 
 def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, profile_part: str | None,
-                      worked: Sequence[str] | None = None) -> None:
+                      worked: Sequence[str] | None = None) -> tuple[str, ...]:
     """The results, sizing (when a part asks), summary, warnings and materials sheets, the charts,
     the library fill-ins, and a worked calculation for each part in `worked` (default: the lowest
-    margin)."""
+    margin). Returns the names of the sheets a printed report holds, in its order: the summary,
+    the worked calculations, the warnings."""
     chosen = _worked_parts(result, worked)
     parts = result.parts
     if parts is not None and parts.count:
@@ -45,17 +46,20 @@ def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, 
     summ = writer.add_sheet(SUMMARY_SHEET, printed, column_widths=list(SUMMARY_WIDTHS), freeze_header=False,
                             tab_color="FF1F3A4D", row_heights=heights, merged_cells=merged,
                             print_setup=PrintSetup(fit_height=1))
-    add_warnings_sheet(writer, result.problems)
+    warnings_sheet = add_warnings_sheet(writer, result.problems)
     if result.materials is not None and result.materials.by_name:
         add_materials_sheet(writer, result.materials, display)
     add_charts(writer, summ, srows, layout, display)
     fill_library_values(writer, result)
+    report = [summ.name]
     for i in chosen:
         wrows, wmerged, wheights = fit_text_rows(worked_rows(result, i), WORKED_WIDTHS)
-        writer.add_sheet(worked_sheet_name(result.parts.ids[i]), wrows, column_widths=list(WORKED_WIDTHS),
+        worked_sheet = writer.add_sheet(worked_sheet_name(result.parts.ids[i]), wrows, column_widths=list(WORKED_WIDTHS),
                          freeze_header=False, row_heights=wheights, merged_cells=wmerged,
                          column_styles=[None] + ["upto4"] * 6,
                          print_setup=PrintSetup(orientation="landscape"))
+        report.append(worked_sheet.name)
+    return tuple(report) + (warnings_sheet,)
 
 
 def _worked_parts(result: BookRating, wanted: Sequence[str] | None) -> list[int]:

@@ -25,9 +25,10 @@ def warnings_rows(findings: list[Problem]) -> list[list]:
     return rows
 
 
-def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> None:
+def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> str:
     """The caution, then the problems as rows: every cell read from the top, messages wrapped in
-    their column and each row as tall as its message; the header row repeats on every printed page."""
+    their column and each row as tall as its message; the header row repeats on every printed page.
+    Returns the sheet's name."""
     cautions = caution_rows()
     table = warnings_rows(findings)
     widths = [column_width(h, text_chars(r[c] for r in table[1:]) if c != 3 else 2, lines=1)
@@ -45,6 +46,6 @@ def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> None:
                 heights[n] = text_height(lines)
     rows = [[Styled(r[0].value, r[0].style if n == 1 else "caution_line+wrap")] + [None] * (span - 1) if r else r
             for n, r in enumerate(cautions, start=1)] + table
-    writer.add_sheet(WARNINGS_SHEET, rows, column_widths=widths, freeze_header=False,
-                     column_styles=["top"] * 5 + ["wrap"], row_heights=heights, merged_cells=merged,
-                     print_setup=PrintSetup(title_rows=(header_row, header_row)))
+    return writer.add_sheet(WARNINGS_SHEET, rows, column_widths=widths, freeze_header=False,
+                            column_styles=["top"] * 5 + ["wrap"], row_heights=heights, merged_cells=merged,
+                            print_setup=PrintSetup(title_rows=(header_row, header_row))).name
