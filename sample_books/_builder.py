@@ -125,7 +125,9 @@ def _wide_row(part: _Part) -> tuple[Cell, ...]:
 
 def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) -> None:
     ws = wb.create_sheet("Read me", 0)
-    ws.column_dimensions["A"].width = 110
+    # 80 characters: one portrait page wide at about full size (LibreOffice does not shrink this
+    # one-column sheet to fit a page, so it must fit as it is)
+    ws.column_dimensions["A"].width = 80
     lines: list[tuple[str, Font | None]] = [(title, _TITLE_FONT), ("", None),
                                             (_INVENTED_NOTE, None), ("", None)]
     lines += [(text, None) for text in about]
@@ -141,8 +143,8 @@ def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) 
         if font is not None:
             ws.cell(row=ws.max_row, column=1).font = font
         ws.cell(row=ws.max_row, column=1).alignment = Alignment(wrap_text=True, vertical="top")
-        if len(text) > 100:  # wrapped: as many lines as it takes at about 1.15 characters a width unit
-            ws.row_dimensions[ws.max_row].height = 14.5 * -(-len(text) // 115) + 3
+        if len(text) > 80:  # wrapped: as many lines as it takes at about 1.1 characters a width unit
+            ws.row_dimensions[ws.max_row].height = 14.5 * -(-len(text) // 86) + 3
     _print_setup(ws, landscape=False, pages_wide=1)
 
 

@@ -9,6 +9,7 @@ groups the parts use are written. The sample books' own sheets are set up for pr
 from __future__ import annotations
 
 import math
+import re
 import zipfile
 from pathlib import Path
 
@@ -50,7 +51,8 @@ class TestEverySheetHasAPageSetup:
         for ws in ours:
             assert ws.page_setup.orientation in ("portrait", "landscape"), ws.title
             assert "&P" in ws.oddFooter.right.text, ws.title  # page numbers
-            if ws.title == "Twistshare results":
+            if ws.title in ("Twistshare results", "Twistshare summary"):  # printed at a scale, with breaks
+                assert not _fits(ws) and 40 <= ws.page_setup.scale <= 100, ws.title
                 continue
             assert _fits(ws) and ws.page_setup.fitToWidth == 1, ws.title  # one page wide
 
@@ -66,9 +68,19 @@ class TestEverySheetHasAPageSetup:
         for b in breaks:
             assert header[b - 1] == "Twist-limit capacity [N·m]" or header[b - 1].endswith("utilisation with Kt [%]")
 
-    def test_summary_prints_on_one_page(self, book):
+    def test_summary_charts_sit_inside_the_page_and_no_break_cuts_one(self, book, rated):
         ws = book["Twistshare summary"]
-        assert ws.page_setup.fitToWidth == 1 and ws.page_setup.fitToHeight == 1
+        breaks = [b.id for b in ws.row_breaks.brk]
+        assert len(breaks) == 1
+        with zipfile.ZipFile(rated) as z:
+            drawings = [z.read(n).decode() for n in z.namelist() if n.startswith("xl/drawings/drawing")]
+        anchors = [(int(a), int(b), int(c), int(d)) for xml in drawings for a, b, c, d in re.findall(
+            r"<xdr:from><xdr:col>(\d+)</xdr:col>.*?<xdr:row>(\d+)</xdr:row>.*?<xdr:to><xdr:col>(\d+)</xdr:col>"
+            r".*?<xdr:row>(\d+)</xdr:row>", xml)]
+        assert len(anchors) == 3
+        for c1, r1, c2, r2 in anchors:  # zero-based: columns A..E are 0..4, a chart ends before column F
+            assert 0 <= c1 < c2 <= 5
+            assert all((r1 + 1 > b) == (r2 > b) for b in breaks), (r1, r2, breaks)
 
     def test_warnings_header_repeats(self, book):
         ws = book["Twistshare warnings"]

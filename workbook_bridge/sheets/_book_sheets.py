@@ -9,7 +9,7 @@ from twistshare.engine.intake import BookRating, Display, Problem, Severity
 from ..ooxml import BookWriter, PrintSetup
 from ._charts import add_charts
 from ._comments import fill_library_values, first_errors
-from ._layout import fit_text_rows
+from ._layout import fit_text_rows, paged_setup
 from ._materials_sheet import MATERIALS_SHEET, add_materials_sheet
 from ._results import RESULTS_SHEET, lowest_margins, results_rows
 from ._sizing_sheet import SIZING_SHEET, sizing_rows
@@ -45,7 +45,8 @@ def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, 
     printed, merged, heights = fit_text_rows(srows, SUMMARY_WIDTHS)
     summ = writer.add_sheet(SUMMARY_SHEET, printed, column_widths=list(SUMMARY_WIDTHS), freeze_header=False,
                             tab_color="FF1F3A4D", row_heights=heights, merged_cells=merged,
-                            print_setup=PrintSetup(fit_height=1))
+                            print_setup=paged_setup(SUMMARY_WIDTHS, heights, len(printed),
+                                                    [layout.page_break] if layout.page_break else []))
     warnings_sheet = add_warnings_sheet(writer, result.problems)
     if result.materials is not None and result.materials.by_name:
         add_materials_sheet(writer, result.materials, display)

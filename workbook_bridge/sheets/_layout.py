@@ -16,7 +16,8 @@ from ..ooxml import Cell, PrintSetup, column_points
 from ..ooxml._print_setup import PRINTABLE_HEIGHT_PT, PRINTABLE_WIDTH_PT
 
 __all__ = ["SIGNIFICANT", "number_style", "number_chars", "wrapped_lines", "text_height", "column_width",
-           "header_height", "row_heights", "banded_setup", "text_chars", "fit_text_rows"]
+           "header_height", "row_heights", "banded_setup", "paged_setup", "one_page_if_readable", "text_chars",
+           "fit_text_rows"]
 
 SIGNIFICANT = 4  # digits shown of a column's largest value (the cell keeps full precision)
 _LINE_PT = 14.5   # one line of 11 pt text
@@ -70,9 +71,9 @@ def _per_line(width: float, bold: bool) -> float:
     return max((7.0 * width + 5.0 - 6.0) / (_BOLD_PX if bold else _TEXT_PX), 1.0)
 
 
-def wrapped_lines(text: str, width: float, *, bold: bool = False) -> int:
-    """Lines `text` takes wrapped at word boundaries in a column `width` characters wide."""
-    room = _per_line(width, bold)
+def wrapped_lines(text: str, width: float, *, bold: bool = False, size: float = 11.0) -> int:
+    """Lines `text` (of `size` points) takes wrapped at word boundaries in a column `width` characters wide."""
+    room = max(_per_line(width, bold) * 11.0 / size, 1.0)
     lines = 0
     for paragraph in str(text).split("\n"):
         used, count = 0.0, 1
@@ -178,9 +179,10 @@ def fit_text_rows(rows: Sequence[Sequence[object]], widths: Sequence[float]) -> 
             style = first.style if isinstance(first, Cell) else None
             out.append([_with_wrap(first)])
             merged.append(f"A{n}:{column_letters(last)}{n}")
-            lines = wrapped_lines(value, span, bold=style in ("title", "header"))
-            if lines > 1 or style == "title":
-                heights[n] = text_height(lines) + (4.0 if style == "title" else 0.0)
+            title = style == "title"
+            lines = wrapped_lines(value, span, bold=style in ("title", "header"), size=14.0 if title else 11.0)
+            if lines > 1 or title:
+                heights[n] = round(text_height(lines) * (14.0 / 11.0 if title else 1.0), 1)
             continue
         most = 1
         for c, cell in enumerate(row[:last]):
@@ -189,13 +191,43 @@ def fit_text_rows(rows: Sequence[Sequence[object]], widths: Sequence[float]) -> 
                 continue
             bold = isinstance(cell, Cell) and cell.style == "header"
             lines = wrapped_lines(v, widths[c], bold=bold)
-            free = all(x is None or x == "" for x in row[c + 1:])
+            free = all(x is None or x == "" for x in row[c + 1:last])
             if free and not bold and wrapped_lines(v, sum(widths[c:]) - 1) == 1:
                 continue  # runs on over the empty cells to its right, within the page
+            if free and not bold and c < last - 1:  # wrapped across the empty cells to its right
+                row[c] = _with_wrap(cell)
+                merged.append(f"{column_letters(c + 1)}{n}:{column_letters(last)}{n}")
+                most = max(most, wrapped_lines(v, sum(widths[c:])))
+                break
             if lines > 1 or len(v) > widths[c]:
                 row[c] = _with_wrap(cell)
                 most = max(most, lines)
         if most > 1:
             heights[n] = text_height(most)
+            # the row's other texts read from the top, beside the wrapped one
+            row = [Cell(c, "top") if isinstance(c, str) and c else c for c in row]
         out.append(row)
     return out, merged, heights
+
+
+def paged_setup(widths: Sequence[float], heights: dict[int, float], rows: int, breaks: Sequence[int], *,
+                orientation: str = "portrait", default_pt: float = 15.0, smallest: int = 40) -> PrintSetup:
+    """A sheet of blocks printed one page wide with a page break after each row in `breaks`: at
+    the largest scale (per cent, at least `smallest`) at which every column fits the page width
+    and each page's rows fit its height (so no chart is cut by a break of the printer's own)."""
+    wide = 100.0 * PRINTABLE_WIDTH_PT[orientation] / (sum(column_points(w) for w in widths) * 1.04)
+    edges = [0] + sorted(b for b in set(breaks) if 0 < b < rows) + [rows]
+    tallest = max(sum(heights.get(r, default_pt) for r in range(a + 1, b + 1)) for a, b in zip(edges, edges[1:]))
+    tall = 100.0 * PRINTABLE_HEIGHT_PT[orientation] / (tallest * 1.04)
+    return PrintSetup(orientation=orientation, fit_width=None, scale=max(int(min(wide, tall, 100.0)), smallest),
+                      row_breaks=tuple(edges[1:-1]))
+
+
+def one_page_if_readable(widths: Sequence[float], heights: dict[int, float], rows: int, *, title_rows=None,
+                         orientation: str = "portrait", default_pt: float = 15.0, smallest: int = 42) -> PrintSetup:
+    """Fitted one page wide, and one page tall as well where that still prints at `smallest` per cent or more."""
+    wide = 100.0 * PRINTABLE_WIDTH_PT[orientation] / (sum(column_points(w) for w in widths) * 1.04)
+    total = sum(heights.get(r, default_pt) for r in range(1, rows + 1))
+    tall = 100.0 * PRINTABLE_HEIGHT_PT[orientation] / (total * 1.04)
+    return PrintSetup(orientation=orientation, fit_height=1 if min(wide, tall) >= smallest else 0,
+                      title_rows=title_rows)

@@ -4,15 +4,15 @@ from __future__ import annotations
 
 from twistshare.engine.intake import Problem, Severity
 
-from ..ooxml import BookWriter, PrintSetup
+from ..ooxml import BookWriter
 from ._cells import Styled, caution_rows
-from ._layout import column_width, row_heights, text_chars, text_height, wrapped_lines
+from ._layout import column_width, one_page_if_readable, row_heights, text_chars, text_height, wrapped_lines
 
 __all__ = ["warnings_rows", "add_warnings_sheet", "WARNINGS_SHEET"]
 
 WARNINGS_SHEET = "Twistshare warnings"
 _HEADERS = ("Sheet", "Cell", "Part", "Layer", "Severity", "Message")
-_MESSAGE_WIDTH = 90.0  # characters
+_MESSAGE_WIDTH = 100.0  # characters
 _SEVERITY_STYLE = {Severity.ERROR: "fail+top", Severity.WARNING: "warn+top", Severity.NOTE: "top"}
 
 
@@ -48,4 +48,5 @@ def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> str:
             for n, r in enumerate(cautions, start=1)] + table
     return writer.add_sheet(WARNINGS_SHEET, rows, column_widths=widths, freeze_header=False,
                             column_styles=["top"] * 5 + ["wrap"], row_heights=heights, merged_cells=merged,
-                            print_setup=PrintSetup(title_rows=(header_row, header_row))).name
+                            print_setup=one_page_if_readable(widths, heights, len(rows),
+                                                             title_rows=(header_row, header_row))).name
