@@ -58,7 +58,7 @@ def number_chars(values: Iterable[float] | np.ndarray, style: str) -> int:
 def text_chars(values: Iterable[object]) -> int:
     """Length of the longest text among `values` (``Cell`` values unwrapped; numbers skipped)."""
     longest = 0
-    for v in values:
+    for v in set(values):  # catalogues repeat a few texts thousands of times
         if isinstance(v, Cell):
             v = v.value
         if isinstance(v, str) and len(v) > longest:
