@@ -29,6 +29,7 @@ class StyleSpec:
     number_format: str | None = None
     wrap: bool | None = None
     vertical: str | None = None       # "top", "center"
+    indent: int | None = None         # left indent in steps (keeps a text off the number beside it)
 
     def merged(self, other: "StyleSpec") -> "StyleSpec":
         """This spec with every field ``other`` sets taken from ``other``."""
@@ -47,6 +48,7 @@ _CATALOG = MappingProxyType({
     "number": StyleSpec(number_format="0.000"),
     "wrap": StyleSpec(wrap=True, vertical="top"),
     "top": StyleSpec(vertical="top"),
+    "indent": StyleSpec(indent=1),
     "fixed0": StyleSpec(number_format="0"),
     "fixed1": StyleSpec(number_format="0.0"),
     "fixed2": StyleSpec(number_format="0.00"),
@@ -175,8 +177,9 @@ class StyleBook:
                     sides.append(f"<{p}{side}/>")
             border_id = self._entry("borders", f"<{p}border>{''.join(sides)}<{p}diagonal/></{p}border>")
         align = ""
-        if spec.wrap or spec.vertical:
-            align = (f"<{p}alignment" + (f' vertical="{spec.vertical}"' if spec.vertical else "")
+        if spec.wrap or spec.vertical or spec.indent:
+            align = (f"<{p}alignment" + (f' horizontal="left" indent="{spec.indent}"' if spec.indent else "")
+                     + (f' vertical="{spec.vertical}"' if spec.vertical else "")
                      + (' wrapText="1"' if spec.wrap else "") + "/>")
         xf = (f'<{p}xf numFmtId="{fmt_id}" fontId="{font_id}" fillId="{fill_id}" borderId="{border_id}"'
               + (' xfId="0"' if self._has_style_xfs else "")

@@ -355,6 +355,7 @@ class BookWriter:
         actual = unique_sheet_name(name, self._taken_names())
         if tab_color is not None and not (len(tab_color) == 8 and all(c in "0123456789abcdefABCDEF" for c in tab_color)):
             raise WriteRefused(f"tab_color must be 8 hex digits ARGB such as 'FF1F3A4D': {tab_color!r}")
+        merged_xml = merge_cells_xml(list(merged_cells))  # a bad range is refused before any row is written
         col_attrs = [self._style_attr(s) for s in (column_styles or ())]
         body = tempfile.TemporaryFile(prefix="twistshare-rows-")
         try:
@@ -368,11 +369,6 @@ class BookWriter:
         if print_setup is None:
             print_setup = PrintSetup(fit_height=1) if print_fit_one_page else \
                 PrintSetup(orientation="landscape") if print_fit_width else PrintSetup()
-        try:
-            merged_xml = merge_cells_xml(list(merged_cells))
-        except ValueError:
-            body.close()
-            raise
         head = sheet_head(tab_color=tab_color.upper() if tab_color else None,
                           page_setup_pr=page_setup_pr_xml(print_setup), freeze_header=freeze_header,
                           column_widths=column_widths, dimension=dimension)

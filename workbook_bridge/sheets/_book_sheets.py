@@ -39,8 +39,10 @@ def add_rating_sheets(writer: BookWriter, result: BookRating, display: Display, 
                          print_setup=laid.print_setup)
     if result.sizing is not None and parts is not None and parts.count:
         zrows, zwidths, zstyles = sizing_rows(result, display)
+        zrows, zmerged, zheights = fit_text_rows(zrows, zwidths)
         writer.add_sheet(SIZING_SHEET, zrows, column_widths=zwidths, column_styles=zstyles,
-                         tab_color="FF1F3A4D", header_height=32)
+                         tab_color="FF1F3A4D", row_heights=zheights, merged_cells=zmerged,
+                         print_setup=PrintSetup(orientation="landscape", title_rows=(1, 1), title_columns=1))
     srows, layout = summary_rows(result, display, profile_part)
     printed, merged, heights = fit_text_rows(srows, SUMMARY_WIDTHS)
     summ = writer.add_sheet(SUMMARY_SHEET, printed, column_widths=list(SUMMARY_WIDTHS), freeze_header=False,

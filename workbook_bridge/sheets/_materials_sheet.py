@@ -63,6 +63,10 @@ def add_materials_sheet(writer: BookWriter, materials: MaterialSet, display: Dis
         else:
             chars.append(text_chars(values))
     styles[-1] = "wrap"
+    for c in range(1, len(headers)):  # a text right of a number is kept off it
+        if c not in _NUMBER_COLUMNS and c - 1 in _NUMBER_COLUMNS:
+            styles[c] += "+indent"
+            chars[c] += 2
     widths = [column_width(h, n, maximum=_PROBLEM_WIDTH if h == "Problem" else 40.0) for h, n in zip(headers, chars)]
     heights = row_heights(body, widths, [len(headers) - 1], first_row=2)
     # a filled value keeps its mark; its number format is the column's

@@ -57,7 +57,7 @@ class ResultsLayout:
     rows : iterable of rows
         Header first, then one row per part.
     widths, styles : list
-        Per column: width in characters, number style name (None for text).
+        Per column: width in characters, style name (a number format, top-aligned or wrapped text).
     header_height : float
         Points: room for the most wrapped header.
     row_heights : dict of int to float
@@ -133,8 +133,10 @@ def results_rows(book, display: Display, first_error: dict[str, str]) -> Results
     def text(head: str, values: list) -> None:
         header.append(head)
         cols.append(values)
-        styles.append("wrap" if head in _WRAP_AT else "top")
-        chars.append(text_chars(values))
+        style = "wrap" if head in _WRAP_AT else "top"
+        after_number = bool(styles) and styles[-1] is not None and styles[-1].startswith(("fixed", "sci"))
+        styles.append(style + "+indent" if after_number else style)  # kept off the number on its left
+        chars.append(text_chars(values) + (2 if after_number else 0))
 
     margin = get("margin") * 100
     fails = rated & (margin < 0)
