@@ -57,16 +57,59 @@ _HEADER_FILL = PatternFill("solid", fgColor="DCE6EE")
 _TITLE_FONT = Font(bold=True, size=14)
 
 
-def _write_table(ws: Worksheet, headers: tuple[str, ...], rows: list[tuple[Cell, ...]]) -> None:
+def _chars(value: Cell) -> int:
+    """Characters a value shows with (numbers as Python writes them)."""
+    return 0 if value is None else len(value if isinstance(value, str) else f"{value:g}" if isinstance(value, float) else str(value))
+
+
+def _header_lines(header: str, width: float) -> int:
+    """Lines a bold header takes wrapped in a column `width` characters wide (about 1.05 characters a width unit)."""
+    room, lines, used = max(width * 1.05 - 1, 1), 1, 0
+    for word in header.split():
+        need = len(word) if used == 0 else used + 1 + len(word)
+        if need > room and used:
+            lines, used = lines + 1, len(word)
+        else:
+            used = need
+    return lines
+
+
+def _print_setup(ws: Worksheet, *, landscape: bool, pages_wide: int, title_rows: str | None = None,
+                 title_columns: str | None = None) -> None:
+    """Fit to `pages_wide` pages across, as many down as it takes, with the titles repeated on each page."""
+    ws.page_setup.orientation = "landscape" if landscape else "portrait"
+    ws.page_setup.fitToWidth = pages_wide
+    ws.page_setup.fitToHeight = 0
+    ws.sheet_properties.pageSetUpPr.fitToPage = True
+    ws.page_margins.left = ws.page_margins.right = 0.45
+    ws.oddFooter.left.text, ws.oddFooter.right.text = "&A", "page &P of &N"
+    if title_rows:
+        ws.print_title_rows = title_rows
+    if title_columns:
+        ws.print_title_cols = title_columns
+
+
+def _write_table(ws: Worksheet, headers: tuple[str, ...], rows: list[tuple[Cell, ...]], pages_wide: int = 1) -> None:
     ws.append(list(headers))
+    wrap = Alignment(wrap_text=True, vertical="center")
     for cell in ws[1]:
         cell.font = _HEADER_FONT
         cell.fill = _HEADER_FILL
+        cell.alignment = wrap
     for row in rows:
         ws.append(list(row))
     ws.freeze_panes = "B2"
+    lines = 1
     for i, header in enumerate(headers, start=1):
-        ws.column_dimensions[get_column_letter(i)].width = max(10, min(34, len(header) + 2))
+        content = max((_chars(r[i - 1]) for r in rows if i - 1 < len(r)), default=0)
+        longest_word = max((len(w) for w in header.split()), default=0)
+        width = max(7.0, content * 1.1 + 2, longest_word * 1.1 + 2, len(header) * 1.1 / 4 + 2)
+        while _header_lines(header, width) > 4:
+            width += 1
+        ws.column_dimensions[get_column_letter(i)].width = round(width, 1)
+        lines = max(lines, _header_lines(header, width))
+    ws.row_dimensions[1].height = 14.5 * lines + 3
+    _print_setup(ws, landscape=True, pages_wide=pages_wide, title_rows="1:1", title_columns="A:A")
 
 
 def _write_materials(wb: Workbook) -> None:
@@ -86,7 +129,9 @@ def _wide_row(part: _Part) -> tuple[Cell, ...]:
 
 def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) -> None:
     ws = wb.create_sheet("Read me", 0)
-    ws.column_dimensions["A"].width = 110
+    # 80 characters: one portrait page wide at about full size (LibreOffice does not shrink this
+    # one-column sheet to fit a page, so it must fit as it is)
+    ws.column_dimensions["A"].width = 80
     lines: list[tuple[str, Font | None]] = [(title, _TITLE_FONT), ("", None),
                                             (_INVENTED_NOTE, None), ("", None)]
     lines += [(text, None) for text in about]
@@ -102,6 +147,9 @@ def _write_read_me(wb: Workbook, title: str, about: tuple[str, ...], book: str) 
         if font is not None:
             ws.cell(row=ws.max_row, column=1).font = font
         ws.cell(row=ws.max_row, column=1).alignment = Alignment(wrap_text=True, vertical="top")
+        if len(text) > 80:  # wrapped: as many lines as it takes at about 1.1 characters a width unit
+            ws.row_dimensions[ws.max_row].height = 14.5 * -(-len(text) // 86) + 3
+    _print_setup(ws, landscape=False, pages_wide=1)
 
 
 def _new_workbook() -> Workbook:
@@ -159,7 +207,7 @@ def write_catalogue(path: str | Path) -> Path:
     """
     wb = _new_workbook()
     _write_materials(wb)
-    _write_table(wb.create_sheet("Parts"), _wide_part_headers(), [_wide_row(p) for p in _PARTS])
+    _write_table(wb.create_sheet("Parts"), _wide_part_headers(), [_wide_row(p) for p in _PARTS], pages_wide=2)
     _write_read_me(wb, "Marrowby Pump & Drive: parts catalogue (sample book)", (
         "Sheets: 'Materials' (one row per material; library materials named with their "
         "properties left blank for the tool to fill in) and 'Parts' (one row per part; "
@@ -317,6 +365,7 @@ def _fill_cell_functions_sheet(ws: Worksheet) -> None:
     ws.column_dimensions["A"].width = 44
     for col in "BCDEFGH":
         ws.column_dimensions[col].width = 24
+    _print_setup(ws, landscape=True, pages_wide=1)
 
 
 def write_cell_functions_book(path: str | Path) -> Path:

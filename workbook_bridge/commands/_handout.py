@@ -17,8 +17,8 @@ from pathlib import Path
 from twistshare.engine.errors import BookUnusable
 from twistshare.engine.intake import cell_ref, parse_ref
 
-from ..ooxml import BookWriter, Cell, OoxmlError
-from ..sheets import caution_rows
+from ..ooxml import BookWriter, Cell, OoxmlError, PrintSetup
+from ..sheets import caution_rows, fit_text_rows
 from ._formula_eval import FormulaCell, NotEvaluable, evaluate_formula, find_our_formulas
 from ._office_values import OfficeAnswer, ask_libreoffice
 from ._output import EXIT_OK, EXIT_PART_ERRORS, check_output_name, check_output_place, fail, prepare, say, write_book
@@ -240,7 +240,11 @@ def run_handout(book_path: Path, out: Path, *, quiet: bool = False) -> int:
                      "cell's comment keeps its formula."],
                     [_summary_line(not_computed, for_office, answer)], [],
                     [Cell(h, "header") for h in ("Sheet", "Cell", "Formula (as text)", "Value", "Value from")]]
-            writer.add_sheet(HANDOUT_SHEET, rows + log, column_widths=[18, 8, 60, 16, 48], freeze_header=False)
+            widths = (18.0, 8.0, 60.0, 16.0, 48.0)
+            printed, merged, heights = fit_text_rows(rows + log, widths)
+            writer.add_sheet(HANDOUT_SHEET, printed, column_widths=list(widths), freeze_header=False,
+                             merged_cells=merged, row_heights=heights,
+                             print_setup=PrintSetup(orientation="landscape", title_rows=(len(rows), len(rows))))
             previous = write_book(writer, out, False)
     except (OoxmlError, BookUnusable) as exc:
         return fail(str(exc))

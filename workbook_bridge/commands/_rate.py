@@ -12,6 +12,7 @@ from ..ooxml import BookWriter, OoxmlError, WriteRefused
 from ..sheets import add_rating_sheets, add_warnings_sheet, write_comments
 from ._output import EXIT_OK, EXIT_PART_ERRORS, EXIT_PARTS_FAIL, fail, open_for_rating, say, write_book
 from ._progress import Progress
+from ._report_pdf import EXIT_NO_PDF, check_pdf_request, write_report_pdf
 from ._rerate import RatingSource, rating_source
 from ._terminal import part_records, terminal_table, write_records
 
@@ -44,11 +45,16 @@ def _exit_code(result: BookRating) -> int:
 
 def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str = "book", quiet: bool = False,
              profile_part: str | None = None, results_file: Path | None = None, exit_if_failing: bool = False,
-             lenient: bool = False, worked: list[str] | None = None) -> int:
-    """Rate every part of `book_path` and write the rated copy to `out`; the exit code.
+             lenient: bool = False, worked: list[str] | None = None, pdf: Path | None = None,
+             pdf_timeout: float = 180.0) -> int:
+    """Rate every part of `book_path` and write the rated copy to `out` (and the report to `pdf`); the exit code.
 
     A rated copy (it holds twistshare's ownership record) is re-rated: our earlier sheets,
     comments and marks are taken out first, every other member is kept byte for byte."""
+    if pdf is not None:
+        why = check_pdf_request(pdf, book_path, out, pdf_timeout)
+        if why:
+            return fail(why)
     progress = Progress(["check package", "read tables", "rate", "write"], enabled=None if not quiet else False)
     try:
         with rating_source(book_path) as source:
@@ -59,7 +65,7 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
             progress.step("write")
             display = Display(result.system if units == "book" else units)
             with BookWriter(source.path) as writer:
-                add_rating_sheets(writer, result, display, profile_part, worked)
+                report_sheets = add_rating_sheets(writer, result, display, profile_part, worked)
                 write_comments(writer, result, result.problems)
                 previous = _write(writer, source, out, in_place)
     except (OoxmlError, BookUnusable) as exc:
@@ -77,6 +83,16 @@ def run_rate(book_path: Path, out: Path, *, in_place: bool = False, units: str =
         if table:
             say(table)
     _report(result, out, quiet, "rate")
+    if pdf is not None:
+        from ..hosts.calc import CalcHostError
+
+        try:
+            line = write_report_pdf(out, pdf, report_sheets, timeout=pdf_timeout)
+            if not quiet:
+                say(line)
+        except (CalcHostError, OoxmlError) as exc:
+            say(f"twistshare: the rated copy {out} is written, the PDF report is not: {exc}")
+            return EXIT_NO_PDF
     code = _exit_code(result)
     if lenient and code == EXIT_PART_ERRORS:
         code = EXIT_OK

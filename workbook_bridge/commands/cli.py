@@ -2,7 +2,8 @@
 
 Exit codes: 0 every part rated; 1 some parts had errors (the output is still written);
 2 the input is unusable (nothing written), with a one-line reason; 3 (``rate --exit-if-failing``)
-every part rated, but some fail their demand. ``recalc``: 1 means some cells show an error or a
+every part rated, but some fail their demand; 4 (``rate --pdf``) the rated copy is written but the
+PDF report is not (LibreOffice failed or ran out of time). ``recalc``: 1 means some cells show an error or a
 ``⚠`` message in the copy written.
 """
 
@@ -58,6 +59,12 @@ def _parser() -> argparse.ArgumentParser:
                    "(the results sheet's headers, units and words)")
     r.add_argument("--exit-if-failing", action="store_true",
                    help="exit 3 when every input was read but some parts fail their demand (margin below 0)")
+    r.add_argument("--pdf", type=Path, default=None, metavar="FILE.pdf",
+                   help="also print the report to a PDF: the summary, the worked calculations and the warnings, "
+                   "in that order (needs LibreOffice; exit 4 when the rated copy is written but the PDF is not)")
+    r.add_argument("--pdf-timeout", type=float, default=180.0, metavar="S",
+                   help="seconds LibreOffice may take to print the PDF, its start included (default 180); "
+                   "it is stopped when they are up")
     book_command("check", "validate the tables only: warnings as comments in a copy, a report here",
                  "-checked")
     book_command("handout", "a values-only copy for people without the add-in: every formula calling a "
@@ -149,7 +156,8 @@ def _run(args: argparse.Namespace) -> int:
     if args.command == "rate":
         code = run_rate(args.book, out, in_place=args.in_place, units=args.units, quiet=args.quiet,
                         profile_part=args.profile_part, results_file=args.results,
-                        exit_if_failing=args.exit_if_failing, lenient=args.lenient, worked=args.worked)
+                        exit_if_failing=args.exit_if_failing, lenient=args.lenient, worked=args.worked,
+                        pdf=args.pdf, pdf_timeout=args.pdf_timeout)
     else:
         code = run_check(args.book, out, in_place=args.in_place, quiet=args.quiet)
     return EXIT_OK if (args.lenient and code == EXIT_PART_ERRORS) else code

@@ -12,14 +12,17 @@ from ._errors import OoxmlError, PackageRefused, WriteRefused
 from ._naming import backup_path
 from ._output_place import check_output_name, check_output_place, keep_previous, write_book
 from ._package import Limits
+from ._print_setup import FOOTER, PrintSetup, column_points
 from ._safety import HUGE_ROWS, DefinedName, ExternalLink, PackageInfo, SheetInfo, TableInfo, inspect_package
+from ._sheet_selection import write_sheet_selection
 from ._styles import STYLE_NAMES
 from ._unrate import RESAVED_ADVICE, StripReport, find_record, read_record, strip_ours
 from ._writer import BookWriter, SheetHandle, WriteReport
 
 __all__ = [
     "BarChart", "BookWriter", "Cell", "Formula", "DefinedName", "ExternalLink", "HUGE_ROWS", "Limits",
-    "OoxmlError", "PackageInfo", "PackageRefused", "STYLE_NAMES", "ScatterChart", "SeriesData",
+    "OoxmlError", "PackageInfo", "PackageRefused", "PrintSetup", "FOOTER", "column_points", "STYLE_NAMES", "ScatterChart", "SeriesData",
     "SheetHandle", "SheetInfo", "TableInfo", "WriteRefused", "WriteReport", "inspect_package",
-    "atomic_file", "backup_path", "RESAVED_ADVICE", "StripReport", "find_record", "read_record", "strip_ours", "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book",
+    "atomic_file", "backup_path", "RESAVED_ADVICE", "StripReport", "find_record", "read_record", "strip_ours",
+    "range_ref", "check_output_name", "check_output_place", "keep_previous", "write_book", "write_sheet_selection",
 ]

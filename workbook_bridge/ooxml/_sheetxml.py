@@ -19,23 +19,27 @@ _AFTER_LEGACY = ("legacyDrawingHF", "drawingHF", "picture", "oleObjects", "contr
 _AFTER_DRAWING = ("legacyDrawing",) + _AFTER_LEGACY
 
 
-def sheet_head(*, tab_color: str | None, fit_one_page: bool | str | None, freeze_header: bool,
+def sheet_head(*, tab_color: str | None, page_setup_pr: str, freeze_header: bool | int,
                column_widths: Sequence[float | None] | None, dimension: str | None) -> str:
-    """Everything of a new worksheet before its rows (ends with '<sheetData>')."""
+    """Everything of a new worksheet before its rows (ends with '<sheetData>').
+
+    ``page_setup_pr`` is the ``<pageSetUpPr>`` element or ''; ``freeze_header`` True keeps row 1
+    in view, a number n keeps rows 1 to n.
+    """
     parts = [XML_DECL, f'<worksheet xmlns="{NS_MAIN}" xmlns:r="{NS_REL}">']
-    if tab_color or fit_one_page:
+    if tab_color or page_setup_pr:
         parts.append("<sheetPr>")
         if tab_color:
             parts.append(f'<tabColor rgb="{tab_color}"/>')
-        if fit_one_page:
-            parts.append('<pageSetUpPr fitToPage="1"/>')
+        parts.append(page_setup_pr)
         parts.append("</sheetPr>")
     if dimension:
         parts.append(f'<dimension ref="{dimension}"/>')
-    if freeze_header:
+    frozen = int(freeze_header)
+    if frozen:
         parts.append('<sheetViews><sheetView workbookViewId="0">'
-                     '<pane ySplit="1" topLeftCell="A2" activePane="bottomLeft" state="frozen"/>'
-                     '<selection pane="bottomLeft" activeCell="A2" sqref="A2"/></sheetView></sheetViews>')
+                     f'<pane ySplit="{frozen}" topLeftCell="A{frozen + 1}" activePane="bottomLeft" state="frozen"/>'
+                     f'<selection pane="bottomLeft" activeCell="A{frozen + 1}" sqref="A{frozen + 1}"/></sheetView></sheetViews>')
     else:
         parts.append('<sheetViews><sheetView workbookViewId="0"/></sheetViews>')
     parts.append('<sheetFormatPr defaultRowHeight="15"/>')
@@ -48,14 +52,13 @@ def sheet_head(*, tab_color: str | None, fit_one_page: bool | str | None, freeze
     return "".join(parts)
 
 
-def sheet_tail(*, fit_one_page: bool | str | None, drawing_rel: str | None, legacy_rel: str | None) -> str:
-    """Everything of a new worksheet after its rows (starts with '</sheetData>')."""
-    parts = ["</sheetData>",
-             '<pageMargins left="0.5" right="0.5" top="0.6" bottom="0.6" header="0.3" footer="0.3"/>']
-    if fit_one_page == "width":  # every column across, as many pages down as it takes
-        parts.append('<pageSetup orientation="landscape" fitToWidth="1" fitToHeight="0"/>')
-    elif fit_one_page:
-        parts.append('<pageSetup orientation="portrait" fitToWidth="1" fitToHeight="1"/>')
+def sheet_tail(*, print_setup_xml: str, drawing_rel: str | None, legacy_rel: str | None,
+               merged_cells_xml: str = "") -> str:
+    """Everything of a new worksheet after its rows (starts with '</sheetData>').
+
+    ``merged_cells_xml`` and ``print_setup_xml`` come from `_print_setup`, already in schema order.
+    """
+    parts = ["</sheetData>", merged_cells_xml, print_setup_xml]
     if drawing_rel:
         parts.append(f'<drawing r:id="{drawing_rel}"/>')
     if legacy_rel:

@@ -29,6 +29,7 @@ class StyleSpec:
     number_format: str | None = None
     wrap: bool | None = None
     vertical: str | None = None       # "top", "center"
+    indent: int | None = None         # left indent in steps (keeps a text off the number beside it)
 
     def merged(self, other: "StyleSpec") -> "StyleSpec":
         """This spec with every field ``other`` sets taken from ``other``."""
@@ -46,8 +47,16 @@ _CATALOG = MappingProxyType({
     "warn": StyleSpec(color="FF7A4E00", fill="FFFCEBC4"),
     "number": StyleSpec(number_format="0.000"),
     "wrap": StyleSpec(wrap=True, vertical="top"),
+    "top": StyleSpec(vertical="top"),
+    "indent": StyleSpec(indent=1),
+    "fixed0": StyleSpec(number_format="0"),
     "fixed1": StyleSpec(number_format="0.0"),
+    "fixed2": StyleSpec(number_format="0.00"),
     "fixed3": StyleSpec(number_format="0.000"),
+    "fixed4": StyleSpec(number_format="0.0000"),
+    "fixed5": StyleSpec(number_format="0.00000"),
+    "fixed6": StyleSpec(number_format="0.000000"),
+    "upto4": StyleSpec(number_format="0.0###"),  # an input as typed, to four decimals at most
     "sci": StyleSpec(number_format="0.000E+00"),
     "caution_line": StyleSpec(italic=True, color="FF5A3E00", fill="FFFFF4D6"),
     "percent": StyleSpec(number_format="0.0%"),
@@ -168,8 +177,9 @@ class StyleBook:
                     sides.append(f"<{p}{side}/>")
             border_id = self._entry("borders", f"<{p}border>{''.join(sides)}<{p}diagonal/></{p}border>")
         align = ""
-        if spec.wrap or spec.vertical:
-            align = (f"<{p}alignment" + (f' vertical="{spec.vertical}"' if spec.vertical else "")
+        if spec.wrap or spec.vertical or spec.indent:
+            align = (f"<{p}alignment" + (f' horizontal="left" indent="{spec.indent}"' if spec.indent else "")
+                     + (f' vertical="{spec.vertical}"' if spec.vertical else "")
                      + (' wrapText="1"' if spec.wrap else "") + "/>")
         xf = (f'<{p}xf numFmtId="{fmt_id}" fontId="{font_id}" fillId="{fill_id}" borderId="{border_id}"'
               + (' xfId="0"' if self._has_style_xfs else "")

@@ -62,6 +62,7 @@ from ._opc import (
     tag_attributes,
 )
 from ._package import Limits, Package
+from ._print_setup import PrintSetup, merge_cells_xml, page_setup_pr_xml, print_titles_ref, print_xml
 from ._record_plan import RecordPlan
 from ._safety import PackageInfo, SheetInfo, read_package_info
 from ._sheetxml import (
@@ -150,7 +151,8 @@ class _NewSheet:
     handle: SheetHandle
     body: BinaryIO
     head: str
-    fit_one_page: str | None  # "page", "width" or None
+    print_setup: PrintSetup | None
+    merged_xml: str = ""
     comments: dict[str, str] = field(default_factory=dict)
     author: str = "twistshare"
     charts: list[tuple[tuple[int, int], tuple[int, int], ScatterChart | BarChart]] = field(default_factory=list)
@@ -314,9 +316,10 @@ class BookWriter:
     def add_sheet(self, name: str, rows: Iterable[Sequence[Any]], *,
                   column_widths: Sequence[float | None] | None = None,
                   column_styles: Sequence[str | None] | None = None,
-                  freeze_header: bool = True, tab_color: str | None = None,
+                  freeze_header: bool | int = True, tab_color: str | None = None,
                   print_fit_one_page: bool = False, header_height: float | None = None,
-                  print_fit_width: bool = False, row_heights: Mapping[int, float] | None = None) -> SheetHandle:
+                  print_fit_width: bool = False, row_heights: Mapping[int, float] | None = None,
+                  print_setup: PrintSetup | None = None, merged_cells: Sequence[str] = ()) -> SheetHandle:
         """Add a worksheet after the book's own sheets, streaming ``rows`` into it.
 
         Parameters
@@ -330,14 +333,19 @@ class BookWriter:
             Widths in characters, column A first (None keeps the default).
         column_styles : sequence of str, optional
             Style name for plain values of each column (a ``Cell`` style overrides it).
-        freeze_header : bool
-            Keep row 1 in view when scrolling.
+        freeze_header : bool or int
+            Keep row 1 in view when scrolling (a number n: rows 1 to n).
         tab_color : str, optional
             ARGB hex such as 'FF1F3A4D'.
         print_fit_one_page : bool
-            Scale the sheet to print on one page.
+            Scale the sheet to print on one page (shorthand for a ``PrintSetup``).
         print_fit_width : bool
             Print landscape with every column on the page width (as many pages down as needed).
+        print_setup : PrintSetup, optional
+            How the sheet prints (orientation, fit or scale and breaks, repeated titles, footer);
+            overrides the two shorthands. Without any, the sheet prints portrait, one page wide.
+        merged_cells : sequence of str
+            Ranges such as 'A3:E3' merged into one cell (long wrapped texts across a table's width).
         row_heights : mapping of int to float, optional
             Heights in points by 1-based row number (room for wrapped text).
         header_height : float, optional
@@ -358,6 +366,7 @@ class BookWriter:
         actual = unique_sheet_name(name, self._taken_names())
         if tab_color is not None and not (len(tab_color) == 8 and all(c in "0123456789abcdefABCDEF" for c in tab_color)):
             raise WriteRefused(f"tab_color must be 8 hex digits ARGB such as 'FF1F3A4D': {tab_color!r}")
+        merged_xml = merge_cells_xml(list(merged_cells))  # a bad range is refused before any row is written
         col_attrs = [self._style_attr(s) for s in (column_styles or ())]
         body = tempfile.TemporaryFile(prefix="twistshare-rows-")
         try:
@@ -368,11 +377,15 @@ class BookWriter:
             raise
         part = free_part("xl/worksheets/sheet{}.xml", self._used)
         dimension = f"A1:{column_letters(widest)}{last_row}" if widest and last_row else None
-        fit = "page" if print_fit_one_page else "width" if print_fit_width else None
-        head = sheet_head(tab_color=tab_color.upper() if tab_color else None, fit_one_page=fit,
-                          freeze_header=freeze_header, column_widths=column_widths, dimension=dimension)
+        if print_setup is None:
+            print_setup = PrintSetup(fit_height=1) if print_fit_one_page else \
+                PrintSetup(orientation="landscape") if print_fit_width else PrintSetup()
+        head = sheet_head(tab_color=tab_color.upper() if tab_color else None,
+                          page_setup_pr=page_setup_pr_xml(print_setup), freeze_header=freeze_header,
+                          column_widths=column_widths, dimension=dimension)
         handle = SheetHandle(actual, part, last_row, widest)
-        self._new.append(_NewSheet(handle, body, head, fit))
+        self._new.append(_NewSheet(handle, body, head, print_setup, merged_xml,
+                                   print_titles=print_titles_ref(actual, print_setup)))
         return handle
 
     def _new_sheet(self, sheet: SheetHandle | str) -> _NewSheet | None:
@@ -718,7 +731,8 @@ class BookWriter:
                 plan.added.append((vml_part, new_vml(new.comments, block)))
                 overrides.append((comments_part, CT.COMMENTS))
                 overrides.append((vml_part, CT.VML))
-            tail = sheet_tail(fit_one_page=new.fit_one_page, drawing_rel=drawing_rel, legacy_rel=legacy_rel)
+            tail = sheet_tail(print_setup_xml=print_xml(new.print_setup), drawing_rel=drawing_rel,
+                              legacy_rel=legacy_rel, merged_cells_xml=new.merged_xml)
             sheet_parts.append((new.handle.part, (new.head.encode("utf-8"), new.body, tail.encode("utf-8"))))
             if sheet_rels:
                 plan.added.append((rels_path_of(new.handle.part), new_rels(sheet_rels).encode("utf-8")))

@@ -7,6 +7,7 @@ copy. No physics here: every number comes from the engine's rating, every word f
 from ._book_sheets import RESULT_SHEET_PREFIX, RESULT_SHEETS, add_rating_sheets
 from ._cells import CAUTIONS, Styled, caution_rows, finite_or_none
 from ._comments import comment_map, fill_library_values, first_errors, write_comments
+from ._layout import fit_text_rows
 from ._materials_sheet import MATERIALS_SHEET, materials_rows
 from ._results import (
     READING_THE_RESULTS,
@@ -25,5 +26,5 @@ __all__ = [
     "MATERIALS_SHEET", "add_rating_sheets", "add_warnings_sheet", "write_comments", "comment_map",
     "first_errors", "fill_library_values", "results_rows", "summary_rows", "SummaryLayout",
     "warnings_rows", "materials_rows", "lowest_margins", "criterion_counts", "criteria_checked", "READING_THE_RESULTS", "finite_or_none",
-    "CAUTIONS", "Styled", "caution_rows", "SIZING_SHEET", "sizing_rows", "sizing_summary_rows",
+    "CAUTIONS", "Styled", "caution_rows", "fit_text_rows", "SIZING_SHEET", "sizing_rows", "sizing_summary_rows",
 ]

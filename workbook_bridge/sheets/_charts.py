@@ -18,7 +18,7 @@ def _col_values(rows: list[list], first: int, last: int, col: int) -> list:
 
 
 def add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Display) -> None:
-    """Both charts, beside the summary blocks they draw (`SummaryLayout`)."""
+    """The charts, where the summary's layout puts them (`SummaryLayout`): below or beside the blocks they draw."""
     tu, _ = display.unit("torque")
     su, _ = display.unit("stress")
     lu, _ = display.unit("length")
@@ -34,7 +34,7 @@ def add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Dis
                                names, cap),
                     SeriesData("Demand", summ.range_ref(1, a + 1, b + 1), summ.range_ref(4, a + 1, b + 1), names, dem)),
         )
-        writer.add_chart(summ, (6, 1), (15, 22), chart)
+        writer.add_chart(summ, *layout.margins_chart, chart)
     if layout.profile is not None:
         a, b = layout.profile
         xs = [float("nan") if v is None else v for v in _col_values(srows, a, b, 0)]
@@ -48,7 +48,7 @@ def add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Dis
                     SeriesData("Allowable ÷ Kt", summ.range_ref(1, a + 1, b + 1),
                                summ.range_ref(3, a + 1, b + 1), xs, lims)),
         )
-        writer.add_chart(summ, (6, 23), (15, 44), chart)
+        writer.add_chart(summ, *layout.profile_chart, chart)
     if getattr(layout, "curve", None) is not None:
         a, b = layout.curve
         pu, _ = display.unit("angle_per_length")
@@ -60,4 +60,4 @@ def add_charts(writer: BookWriter, summ, srows: list[list], layout, display: Dis
             series=(SeriesData("Torque", summ.range_ref(1, a + 1, b + 1), summ.range_ref(2, a + 1, b + 1),
                                xs, ys),),
         )
-        writer.add_chart(summ, (6, 45), (15, 66), chart)
+        writer.add_chart(summ, *layout.curve_chart, chart)

@@ -16,7 +16,7 @@ from ._cells import finite_or_none as _f
 from ._results import READING_THE_RESULTS, criteria_checked, criterion_counts, lowest_margins
 from ._sizing_sheet import sizing_summary_rows
 
-__all__ = ["SummaryLayout", "summary_rows", "SUMMARY_SHEET"]
+__all__ = ["SummaryLayout", "summary_rows", "SUMMARY_SHEET", "SUMMARY_WIDTHS"]
 
 SUMMARY_SHEET = "Twistshare summary"
 
@@ -29,6 +29,11 @@ class SummaryLayout:
     profile: tuple[int, int] | None
     profile_part: str | None
     curve: tuple[int, int] | None = None  # the chosen part's torque–twist curve
+    # where each chart sits: (column, row) of its top left and of the cell it ends before, 1-based
+    margins_chart: tuple[tuple[int, int], tuple[int, int]] | None = None
+    profile_chart: tuple[tuple[int, int], tuple[int, int]] | None = None
+    curve_chart: tuple[tuple[int, int], tuple[int, int]] | None = None
+    page_break: int | None = None  # a printed page ends after this row (1-based)
 
 
 def summary_rows(book, display: Display, profile_part: str | None = None) -> tuple[list[list], SummaryLayout]:
@@ -80,7 +85,8 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
         for text, count in checked:
             rows.append([text, count])
         rows.append([])
-    margins_block = None
+    margins_block = margins_chart = profile_chart = None
+    page_break = None
     low = lowest_margins(book, 10)
     if low:
         rows.append([Styled("Ten lowest margins", "header"), Styled("Margin [%]", "header"),
@@ -96,6 +102,10 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
                          governs_text(r.governing_criterion[i], gl, mat)])
         margins_block = (start, len(rows) - 1)
         rows.append([])
+        # the chart of these margins below them, across the five columns
+        margins_chart = ((1, len(rows) + 1), (6, len(rows) + 1 + _CHART_ROWS))
+        rows.extend([] for _ in range(_CHART_ROWS + 1))
+        page_break = len(rows)
     if book.materials is not None and book.materials.by_name:
         rows.append([Styled("Material", "header"), Styled("Allowable rule used", "header"),
                      Styled(f"Allowable shear [{su}]", "header")])
@@ -135,9 +145,16 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             rows.append([Styled(_f(rad / lf), "fixed3"), Styled(_f(st / sf), "fixed1"),
                          Styled(_f(lim / sf), "fixed1")])
         profile_block = (start, len(rows) - 1)
+        # the chart beside its few rows of data, in the fourth and fifth columns
+        profile_chart = ((4, start), (6, start + _CHART_ROWS))
+        rows.extend([] for _ in range(start + _CHART_ROWS - len(rows)))
     curve_block = _curve_rows(book, chosen, rows, display) if chosen is not None else None
+    curve_chart = None
+    if curve_block is not None:
+        first = curve_block[0]  # beside its data, in the third to fifth columns
+        curve_chart = ((3, first), (6, max(first + _CHART_ROWS, curve_block[1] + 2)))
     return rows, SummaryLayout(margins_block, profile_block, parts.ids[chosen] if chosen is not None else None,
-                               curve_block)
+                               curve_block, margins_chart, profile_chart, curve_chart, page_break)
 
 
 def _curve_rows(book, i: int, rows: list[list], display: Display) -> tuple[int, int] | None:
@@ -159,3 +176,9 @@ def _curve_rows(book, i: int, rows: list[list], display: Display) -> tuple[int, 
     for a, b in zip(np.asarray(twist[0]), np.asarray(torque[0])):
         rows.append([Styled(_f(a / pf), "fixed3"), Styled(_f(b / tf), "fixed1")])
     return start, len(rows) - 1
+
+
+
+#: Widths of the summary's five columns (characters); the charts sit among them.
+SUMMARY_WIDTHS = (30.0, 36.0, 15.0, 15.0, 34.0)
+_CHART_ROWS = 18  # rows a chart takes

@@ -2,39 +2,51 @@
 
 from __future__ import annotations
 
-import math
-
 from twistshare.engine.intake import Problem, Severity
 
 from ..ooxml import BookWriter
 from ._cells import Styled, caution_rows
+from ._layout import column_width, one_page_if_readable, row_heights, text_chars, text_height, wrapped_lines
 
 __all__ = ["warnings_rows", "add_warnings_sheet", "WARNINGS_SHEET"]
 
 WARNINGS_SHEET = "Twistshare warnings"
-_MESSAGE_WIDTH = 110  # characters
+_HEADERS = ("Sheet", "Cell", "Part", "Layer", "Severity", "Message")
+_MESSAGE_WIDTH = 100.0  # characters
+_SEVERITY_STYLE = {Severity.ERROR: "fail+top", Severity.WARNING: "warn+top", Severity.NOTE: "top"}
 
 
 def warnings_rows(findings: list[Problem]) -> list[list]:
     """Header and one row per problem, errors first."""
-    rows: list[list] = [[Styled(h, "header") for h in ("Sheet", "Cell", "Part", "Layer", "Severity", "Message")]]
+    rows: list[list] = [[Styled(h, "header") for h in _HEADERS]]
     order = {Severity.ERROR: 0, Severity.WARNING: 1, Severity.NOTE: 2}
     for f in sorted(findings, key=lambda f: order[f.severity]):
-        style = "fail" if f.severity is Severity.ERROR else "warn" if f.severity is Severity.WARNING else "note"
-        rows.append([f.sheet, f.cell, f.part, f.layer, Styled(f.severity.value, style), f.message])
+        rows.append([f.sheet, f.cell, f.part, f.layer, Styled(f.severity.value, _SEVERITY_STYLE[f.severity]), f.message])
     return rows
 
 
-
-
-def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> None:
-    """The problems as rows; messages wrap in their column, each row as tall as its message."""
-    rows = caution_rows() + warnings_rows(findings)
-    heights = {}
-    for n, row in enumerate(rows, start=1):
-        msg = row[5] if len(row) > 5 and isinstance(row[5], str) else None
-        if msg and len(msg) > _MESSAGE_WIDTH:
-            heights[n] = 15.0 * math.ceil(len(msg) / (_MESSAGE_WIDTH * 0.95))
-    writer.add_sheet(WARNINGS_SHEET, rows, column_widths=[12, 7, 13, 6, 8, _MESSAGE_WIDTH],
-                     freeze_header=False, print_fit_width=True, column_styles=[None] * 5 + ["wrap"],
-                     row_heights=heights)
+def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> str:
+    """The caution, then the problems as rows: every cell read from the top, messages wrapped in
+    their column and each row as tall as its message; the header row repeats on every printed page.
+    Returns the sheet's name."""
+    cautions = caution_rows()
+    table = warnings_rows(findings)
+    widths = [column_width(h, text_chars(r[c] for r in table[1:]) if c != 3 else 2, lines=1)
+              for c, h in enumerate(_HEADERS[:-1])]
+    widths.append(_MESSAGE_WIDTH)
+    header_row = len(cautions) + 1
+    heights = row_heights(table[1:], widths, [5], first_row=header_row + 1)
+    # the caution lines run across the table's width: merged, wrapped, as tall as they need
+    merged, span = [], len(_HEADERS)
+    for n, row in enumerate(cautions, start=1):
+        if row and isinstance(row[0].value, str) and n > 1:
+            merged.append(f"A{n}:F{n}")
+            lines = wrapped_lines(row[0].value, sum(widths))
+            if lines > 1:
+                heights[n] = text_height(lines)
+    rows = [[Styled(r[0].value, r[0].style if n == 1 else "caution_line+wrap")] + [None] * (span - 1) if r else r
+            for n, r in enumerate(cautions, start=1)] + table
+    return writer.add_sheet(WARNINGS_SHEET, rows, column_widths=widths, freeze_header=False,
+                            column_styles=["top"] * 5 + ["wrap"], row_heights=heights, merged_cells=merged,
+                            print_setup=one_page_if_readable(widths, heights, len(rows),
+                                                             title_rows=(header_row, header_row))).name

@@ -24,9 +24,11 @@ from ..ooxml import Cell, Formula
 from ._cells import Styled, caution_rows
 from ._cells import finite_or_none as _f
 
-__all__ = ["worked_rows", "worked_sheet_name", "WORKED_PREFIX"]
+__all__ = ["worked_rows", "worked_sheet_name", "WORKED_PREFIX", "WORKED_WIDTHS"]
 
 WORKED_PREFIX = "Twistshare calc "
+#: Column widths (characters): labels, values, then the layer table's columns.
+WORKED_WIDTHS = (30.0, 24.0, 10.0, 10.0, 9.0, 9.0, 6.0, 14.0, 14.0, 11.0, 12.0, 14.0, 18.0)
 _SOURCE = "twist compatibility of concentric layers that twist as one (common practice); Roark's Formulas for Stress and Strain, torsion of circular sections"
 
 

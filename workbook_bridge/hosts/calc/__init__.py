@@ -5,6 +5,7 @@
   list of functions (`_specs._function_specs`); ``undo=True`` takes out exactly that.
 - `recalculate` recomputes every formula of a book in headless LibreOffice on a private profile
   and writes a copy whose formula cells hold the new values; the book is never touched.
+- `export_pdf` prints a book's visible sheets to a PDF with LibreOffice's own converter.
 - `computed_values` gives the values of chosen cells after such a recalculation (for the
   values-only copy), and which cells could not be computed.
 
@@ -22,7 +23,8 @@ _PUBLIC = {
     "default_profile": "_profile", "SetupReport": "_profile", "RecalcReport": "_recalc",
     "ComputedValues": "_recalc", "BookRefused": "_errors", "CalcHostError": "_errors",
     "LibreOfficeMissing": "_errors", "LibreOfficeTimeout": "_errors", "LibreOfficeFailed": "_errors",
-    "ProfileRefused": "_errors", "DEFAULT_TIMEOUT": "_recalc",
+    "ProfileRefused": "_errors", "DEFAULT_TIMEOUT": "_recalc", "export_pdf": "_pdf", "PDF_TIMEOUT": "_pdf",
+    "find_soffice": "_office",
 }
 
 __all__ = list(_PUBLIC)
