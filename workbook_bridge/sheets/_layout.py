@@ -16,7 +16,7 @@ from ..ooxml import Cell, PrintSetup, column_points
 from ..ooxml._print_setup import PRINTABLE_HEIGHT_PT, PRINTABLE_WIDTH_PT
 
 __all__ = ["SIGNIFICANT", "number_style", "number_chars", "wrapped_lines", "text_height", "column_width",
-           "header_height", "row_heights", "banded_setup", "paged_setup", "one_page_if_readable", "text_chars",
+           "header_height", "row_heights", "banded_setup", "paged_setup", "one_page_if_readable", "one_page_scale", "text_chars",
            "fit_text_rows"]
 
 SIGNIFICANT = 4  # digits shown of a column's largest value (the cell keeps full precision)
@@ -226,8 +226,14 @@ def paged_setup(widths: Sequence[float], heights: dict[int, float], rows: int, b
 def one_page_if_readable(widths: Sequence[float], heights: dict[int, float], rows: int, *, title_rows=None,
                          orientation: str = "portrait", default_pt: float = 15.0, smallest: int = 42) -> PrintSetup:
     """Fitted one page wide, and one page tall as well where that still prints at `smallest` per cent or more."""
+    fits = one_page_scale(widths, heights, rows, orientation=orientation, default_pt=default_pt) >= smallest
+    return PrintSetup(orientation=orientation, fit_height=1 if fits else 0, title_rows=title_rows)
+
+
+def one_page_scale(widths: Sequence[float], heights: dict[int, float], rows: int, *,
+                   orientation: str = "portrait", default_pt: float = 15.0) -> float:
+    """The scale, per cent, at which the sheet prints on one page (its width and its height both fit)."""
     wide = 100.0 * PRINTABLE_WIDTH_PT[orientation] / (sum(column_points(w) for w in widths) * 1.04)
     total = sum(heights.get(r, default_pt) for r in range(1, rows + 1))
     tall = 100.0 * PRINTABLE_HEIGHT_PT[orientation] / (total * 1.04)
-    return PrintSetup(orientation=orientation, fit_height=1 if min(wide, tall) >= smallest else 0,
-                      title_rows=title_rows)
+    return min(wide, tall)
