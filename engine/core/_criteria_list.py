@@ -149,6 +149,7 @@ def governing_of(
     capacity = np.full(n_parts, np.nan)
     criterion = np.full(n_parts, int(Criterion.NONE), dtype=np.int8)
     layer = np.full(n_parts, -1, dtype=np.int16)
+    holes: NDArray[np.bool_] | None = np.ones(n_parts, bool)  # parts no criterion has a number for yet
     with np.errstate(invalid="ignore"):
         for code, values in capacities:
             # Few layer slots, many parts: a loop over slots beats argmin along a short axis.
@@ -159,9 +160,14 @@ def governing_of(
                     # No limit anywhere in it (only +inf and NaN): it could win only where
                     # nothing else does, and such parts end as NONE below in any case.
                     continue
-                # Strictly smaller takes over; NaN never wins.
+                # Strictly smaller takes over; NaN never wins; a number fills a hole.
                 wins = column < capacity
-                wins |= np.isnan(capacity) & ~np.isnan(column)
+                if holes is not None:
+                    fills = holes & ~np.isnan(column)
+                    wins |= fills
+                    holes &= ~fills
+                    if not holes.any():
+                        holes = None  # the common case after the first criterion: no more NaN checks
                 np.copyto(capacity, column, where=wins)
                 np.copyto(criterion, int(code), where=wins)
                 np.copyto(layer, slot, where=wins)
