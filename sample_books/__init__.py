@@ -4,7 +4,9 @@ Written as new workbooks, reproducibly (fixed timestamps), from `_scenario`'s in
 Every number is invented demo data: none describes a real part or material.
 """
 
-from ._builder import write_all, write_catalogue, write_catalogue_long, write_cell_functions_book
+from ._books import write_all
+from ._builder import write_catalogue, write_catalogue_long
+from ._cell_functions_book import write_cell_functions_book
 from ._scenario import (
     CATALOGUE_FILE,
     CATALOGUE_LONG_FILE,

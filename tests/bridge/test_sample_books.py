@@ -13,7 +13,7 @@ import pytest
 from openpyxl.worksheet.formula import ArrayFormula
 from twistshare.engine.core import material_library
 from twistshare.engine.units import parse_value
-from twistshare.sample_books import _builder as sb
+from twistshare import sample_books as sb
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 BOOKS = (sb.CATALOGUE_FILE, sb.CATALOGUE_LONG_FILE, sb.CELL_FUNCTIONS_FILE)
