@@ -51,27 +51,12 @@ if TYPE_CHECKING:  # the list imports these functions
 __all__ = ["combined_stress_capacity", "whirl_capacity", "buckling_capacity", "whirl_of"]
 
 
-# "No limit" is the same array for every criterion of a section that sets none (most parts of
-# a catalogue give no speed, span or bending load): made once per section, not once per criterion.
 def _no_limit_layers(section: Section) -> NDArray[np.float64]:
-    out = section.shared.get("no_limit_layers")
-    if out is None:
-        out = np.full(section.gj.shape, np.inf)
-        if section.unused.any():
-            np.copyto(out, np.nan, where=section.unused)
-        out.flags.writeable = False
-        section.shared["no_limit_layers"] = out
-    return out
+    return section.no_limit(per_layer=True)
 
 
 def _no_limit_parts(section: Section) -> NDArray[np.float64]:
-    out = section.shared.get("no_limit_parts")
-    if out is None:
-        out = np.full(section.sum_gj.shape, np.inf)
-        out[np.isnan(section.sum_gj)] = np.nan
-        out.flags.writeable = False
-        section.shared["no_limit_parts"] = out
-    return out
+    return section.no_limit()
 
 
 def combined_stress_capacity(section: Section) -> NDArray[np.float64]:

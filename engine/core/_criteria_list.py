@@ -58,6 +58,27 @@ class Section:
     # stress), kept for this one section only.
     shared: dict[str, object] = field(default_factory=dict, compare=False, repr=False)
 
+    def no_limit(self, per_layer: bool = False) -> NDArray[np.float64]:
+        """What a criterion that sets no limit returns: +inf per part (or per used slot), NaN
+        where the part is not rated (or the slot unused). One read-only array per section,
+        shared by every such criterion, so the governing minimum can pass over it."""
+        key = "no_limit_layers" if per_layer else "no_limit_parts"
+        out = self.shared.get(key)
+        if out is None:
+            out = np.full(self.gj.shape if per_layer else self.sum_gj.shape, np.inf)
+            if per_layer:
+                if self.unused.any():
+                    np.copyto(out, np.nan, where=self.unused)
+            else:
+                out[np.isnan(self.sum_gj)] = np.nan
+            out.flags.writeable = False
+            self.shared[key] = out
+        return out
+
+    def sets_no_limit(self, values: NDArray[np.float64]) -> bool:
+        """Whether `values` is this section's `no_limit` array (a criterion that sets no limit)."""
+        return any(values is self.shared.get(k) for k in ("no_limit_layers", "no_limit_parts"))
+
     def input(self, key: str, per_layer: bool = False) -> NDArray[np.float64] | None:
         """A further input by name, or None where the caller gave none."""
         value = self.inputs.get(key)

@@ -110,7 +110,7 @@ def _per_slot(section, got: InterfaceRating | None, name: str, flags: str
     Without any interface input: one +inf per part, no per-slot work.
     """
     if got is None:
-        return np.full(section.sum_gj.shape, np.inf)
+        return section.no_limit()
     values = getattr(got, name)
     out = np.where(np.isnan(values), np.inf, values)
     # Masked writes only where some element is masked: the check is cheap, the write is not.

@@ -226,7 +226,9 @@ def rate(
         twist_angle = theta * duty.length
         twist_capacity = np.minimum(capacities[Criterion.TWIST_ANGLE], capacities[Criterion.TWIST_PER_LENGTH])
 
-        governing, criterion, layer = governing_of(tuple(capacities.items()), n_parts)
+        # A criterion that sets no limit for any part cannot change the minimum: passed over.
+        governing, criterion, layer = governing_of(
+            tuple((code, v) for code, v in capacities.items() if not section.sets_no_limit(v)), n_parts)
         if invalid is not None:
             governing[invalid] = nan
             criterion[invalid] = int(Criterion.NONE)
