@@ -36,6 +36,7 @@ import argparse
 import json
 import os
 import re
+import shlex
 import shutil
 import sqlite3
 import subprocess
@@ -50,25 +51,74 @@ TE, TI, TB = "tests/engine/", "tests/intake/", "tests/bridge/"
 
 # (target name, package, module, test files): each module with the tests that concern it.
 TARGETS: list[tuple[str, str, str, list[str]]] = [
-    ("units", "units", "engine/units.py", [TE + "test_units_spellings.py", TE + "test_units.py"]),
+    # the core, in the order rate() leans on it
     ("core_demand", "core", "engine/core/_demand.py", [TE + "test_demand.py"]),
     ("core_section", "core", "engine/core/_section.py", [TE + "test_section.py"]),
     ("core_compatibility", "core", "engine/core/_compatibility.py", [TE + "test_compatibility.py"]),
     ("core_capacity", "core", "engine/core/_capacity.py", [TE + "test_capacity.py"]),
     ("core_governing", "core", "engine/core/_governing.py", [TE + "test_governing.py"]),
     ("core_allowables", "core", "engine/core/_allowables.py", [TE + "test_allowables.py"]),
+    ("core_combined", "core", "engine/core/_combined.py", [TE + "test_combined.py"]),
+    ("core_laminate", "core", "engine/core/_laminate.py", [TE + "test_laminate.py", TE + "test_materials_laminate.py"]),
+    ("core_fits", "core", "engine/core/_fits.py", [TE + "test_fits.py"]),
+    ("core_stack_fits", "core", "engine/core/_stack_fits.py", [TE + "test_stack_fits.py"]),
+    ("core_interfaces", "core", "engine/core/_interfaces.py", [TE + "test_interfaces.py"]),
+    ("core_interface_criteria", "core", "engine/core/_interface_criteria.py",
+     [TE + "test_interface_criteria.py", TE + "test_interfaces.py"]),
+    ("core_load_path", "core", "engine/core/_load_path.py", [TE + "test_load_path.py", TE + "test_bond.py"]),
+    ("core_bond", "core", "engine/core/_bond.py", [TE + "test_bond.py"]),
+    ("core_plastic", "core", "engine/core/_plastic.py", [TE + "test_plastic.py"]),
+    ("core_plastic_unloading", "core", "engine/core/_plastic_unloading.py", [TE + "test_plastic.py"]),
+    ("core_bending", "core", "engine/core/_bending.py", [TE + "test_bending.py"]),
+    ("core_whirl", "core", "engine/core/_whirl.py", [TE + "test_whirl.py"]),
+    ("core_buckling", "core", "engine/core/_buckling.py", [TE + "test_buckling.py"]),
+    ("core_beyond_torsion_criteria", "core", "engine/core/_beyond_torsion_criteria.py",
+     [TE + "test_beyond_torsion_criteria.py", TE + "test_combined.py"]),
+    ("core_sizing", "core", "engine/core/_sizing.py", [TE + "test_sizing.py"]),
+    ("core_stock", "core", "engine/core/_stock.py", [TE + "test_sizing.py"]),
+    ("core_restoring", "core", "engine/core/_restoring.py", [TE + "test_sizing.py"]),
+    ("core_shafting_code", "core", "engine/core/_shafting_code.py", [TE + "test_shafting_code.py"]),
+    ("core_criteria", "core", "engine/core/_criteria.py", [TE + "test_criteria.py", TE + "test_rating.py"]),
     ("core_criteria_list", "core", "engine/core/_criteria_list.py", [TE + "test_criteria.py", TE + "test_rating.py"]),
-    ("core_rating", "core", "engine/core/_rating.py", [TE + "test_rating.py"]),
+    ("core_rating", "core", "engine/core/_rating.py", [TE + "test_rating.py", TE + "test_core_api.py"]),
+    ("core_rating_flags", "core", "engine/core/_rating_flags.py", [TE + "test_rating.py", TE + "test_diagnoses.py"]),
+    ("core_diagnoses", "core", "engine/core/_diagnoses.py", [TE + "test_diagnoses.py"]),
+    ("core_sleeve_diagnoses", "core", "engine/core/_sleeve_diagnoses.py",
+     [TE + "test_interfaces.py", TE + "test_diagnoses.py"]),
+    ("core_duty", "core", "engine/core/_duty.py", [TE + "test_rating.py", TE + "test_core_api.py"]),
+    ("core_arrays", "core", "engine/core/_arrays.py", [TE + "test_core_api.py", TE + "test_rating.py"]),
+    ("core_radius", "core", "engine/core/_radius.py", [TE + "test_cells.py", "-k", "stress or radius"]),
     ("core_materials", "core", "engine/core/_materials.py",
      [TE + "test_materials.py", TE + "test_materials_laminate.py"]),
+    ("core_material_library", "core", "engine/core/_material_library.py", [TE + "test_materials.py"]),
+    # the intake, below both front ends
     ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py"]),
-    ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
     ("intake_schema", "intake", "engine/intake/_schema.py", [TI + "test_schema.py"]),
-    ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
-    ("intake_materials", "intake", "engine/intake/_materials.py", [TI + "test_front_ends_agree.py", TB + "test_materials_rules.py"]),
     ("intake_parts", "intake", "engine/intake/_parts.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("intake_layers", "intake", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("intake_materials", "intake", "engine/intake/_materials.py",
+     [TI + "test_front_ends_agree.py", TB + "test_materials_rules.py"]),
+    ("intake_problems", "intake", "engine/intake/_problems.py", [TI + "test_beyond_torsion.py", TB + "test_comments.py"]),
+    ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
+    ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
+    ("intake_loads", "intake", "engine/intake/_loads.py", [TI + "test_front_ends_agree.py", TI + "test_beyond_torsion.py"]),
+    ("intake_interface_inputs", "intake", "engine/intake/_interface_inputs.py",
+     [TI + "test_beyond_torsion.py", TI + "test_front_ends_agree.py"]),
+    ("intake_plastic_inputs", "intake", "engine/intake/_plastic_inputs.py", [TI + "test_front_ends_agree.py"]),
+    ("intake_flag_words", "intake", "engine/intake/_flag_words.py", [TI + "test_beyond_torsion.py", TB + "test_comments.py"]),
+    ("intake_wording", "intake", "engine/intake/_wording.py", [TI + "test_words.py", TE + "test_cells.py"]),
+    ("intake_layup", "intake", "engine/intake/_layup.py", [TI + "test_layup.py"]),
+    ("intake_wound_layers", "intake", "engine/intake/_wound_layers.py", [TI + "test_layup.py", TI + "test_front_ends_agree.py"]),
+    ("intake_sizing_input", "intake", "engine/intake/_sizing_input.py", [TI + "test_sizing_input.py"]),
+    ("intake_book", "intake", "engine/intake/_book.py", [TI + "test_beyond_torsion.py", TB + "test_materials_rules.py"]),
+    ("intake_grid", "intake", "engine/intake/_grid.py", [TI + "test_beyond_torsion.py", TI + "test_front_ends_agree.py"]),
+    ("intake_tables", "intake", "engine/intake/_tables.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("intake_table_checks", "intake", "engine/intake/_table_checks.py", [TB + "test_bad_cells.py"]),
+    ("intake_cellrefs", "intake", "engine/intake/_cellrefs.py", [TI + "test_beyond_torsion.py", TB + "test_comments.py"]),
+    # units: the shared registry and its engineers' spellings
+    ("units", "units", "engine/units.py", [TE + "test_units_spellings.py", TE + "test_units.py"]),
+    # the bridge paths: a duty read into torques, part-level findings placed on cells, comments
     ("bridge_duty", "bridge", "engine/intake/_duty.py", [TI + "test_duty.py"]),
-    ("bridge_layers", "bridge", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [TB + "test_comments.py", TB + "test_rate_command.py"]),
 ]
 
@@ -110,12 +160,13 @@ def run_target(name: str, package: str, module: str, tests: list[str], lines: tu
     """Run mutmut on one module with its tests; the module's text is restored afterwards.
 
     `lines` (first, last), 1-based: mutate only those lines (the result records the range)."""
-    tests = [t for t in tests if (ROOT / t).exists()]
+    # a file, a node id (file::test) or pytest options such as "-k", "expr" (quoted for mutmut's shlex)
+    tests = [t for t in tests if not t.endswith(".py") or (ROOT / t).exists()]
     cache = ROOT / ".mutmut-cache"
     if cache.exists():
         cache.unlink()
     source = (ROOT / module).read_text()
-    runner = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(tests)
+    runner = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(map(shlex.quote, tests))
     cmd = ["mutmut", "run", "--paths-to-mutate", module, "--tests-dir", "tests", "--runner", runner,
            "--test-time-multiplier", "3", "--test-time-base", "10", "--no-progress", "--simple-output"]
     if lines is not None:
