@@ -6,6 +6,7 @@ import math
 import numpy as np
 import pytest
 from twistshare.engine.core import (
+    AllowableRule,
     LayerFlag,
     LayerStack,
     interface_gaps,
@@ -137,6 +138,50 @@ class TestLayerStack:
         assert stack.take(2).outer_diameter.shape == (1, 2)
         assert stack.take(-1).outer_diameter.shape == (1, 2)
         assert stack.take([0, 3]).n_parts == 2
+
+
+    def test_from_layers_puts_each_sequence_in_its_field(self):
+        """Each input lands in its own field, unchanged (values written here, all different)."""
+        stack = LayerStack.from_layers([0.04, 0.05], [0.01, 0.04], [79e9, 40e9], [100e6, 50e6], [1.5, 1.2],
+                                       [AllowableRule.DISTORTION_ENERGY, AllowableRule.GIVEN])
+        assert stack.outer_diameter.tolist() == [[0.04, 0.05]]
+        assert stack.inner_diameter.tolist() == [[0.01, 0.04]]
+        assert stack.shear_modulus.tolist() == [[79e9, 40e9]]
+        assert stack.allowable_shear.tolist() == [[100e6, 50e6]]
+        assert stack.stress_concentration.tolist() == [[1.5, 1.2]]
+        assert stack.allowable_rule.tolist() == [[int(AllowableRule.DISTORTION_ENERGY), int(AllowableRule.GIVEN)]]
+        assert stack.present.tolist() == [[True, True]]
+
+    def test_from_layers_message_names_the_shape(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack.from_layers([[0.04, 0.05]], [0.0, 0.04], [79e9, 40e9], [1e8, 1e8])
+        assert str(info.value) == ("LayerStack.from_layers takes one part: sequences of one value per "
+                                   "layer; got shape (1, 2)")
+
+    def test_shape_mismatch_message_word_for_word(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack(**_two_layer(inner_diameter=[[0.0, 0.04, 0.05]]))
+        assert str(info.value) == "LayerStack.inner_diameter has shape (1, 3); expected (1, 2) like outer_diameter"
+
+    def test_int8_rule_is_taken_as_a_view(self):
+        """The constructor takes views, not copies (the class's Notes): an int8 rule array too."""
+        rule = np.zeros((1, 2), dtype=np.int8)
+        stack = LayerStack(**_two_layer(allowable_rule=rule))
+        assert np.shares_memory(stack.allowable_rule, rule)
+
+    def test_from_arrays_defaults_and_given_presence(self):
+        """No stress concentration unless given (Kt = 1 means none, common practice); a given
+        `present` mask is used as given, even over a number."""
+        stack = LayerStack.from_arrays([0.04, 0.05], [0.0, 0.04], 79e9, 100e6, present=[True, False])
+        assert stack.stress_concentration.tolist() == [[1.0, 1.0]]
+        assert stack.present.tolist() == [[True, False]]
+        assert stack.allowable_rule.tolist() == [[int(AllowableRule.GIVEN)] * 2]
+
+    def test_from_arrays_broadcast_message_lists_every_shape(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack.from_arrays(np.ones((3, 2)), np.ones((2, 2)), 79e9, 1e8, present=np.ones((3, 2), bool))
+        assert str(info.value) == ("LayerStack inputs do not broadcast together: "
+                                   "(3, 2), (2, 2), (), (), (), (3, 2)")
 
 
 class TestInterfaceGaps:

@@ -7,6 +7,7 @@ Run as a script (not collected by pytest, not run in CI; needs the ``mutation`` 
     python tests/perf/mutation_score.py --only units    # targets whose name contains 'units'
     python tests/perf/mutation_score.py --report        # summarise the saved results only
     python tests/perf/mutation_score.py --only units --lines 191:284   # mutate only those lines
+    python tests/perf/mutation_score.py --only units --again   # re-test last run's survivors only
 
 The tool is mutmut 2.5 (``mutmut run --paths-to-mutate ... --runner ...``). mutmut 3 was
 tried first: it copies the sources into ``mutants/`` and recognises a mutant by the module name
@@ -38,9 +39,11 @@ import os
 import re
 import shlex
 import shutil
+import signal
 import sqlite3
 import subprocess
 import sys
+import time
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -156,15 +159,55 @@ def _line_patch(module: str, lines: tuple[int, int]) -> Path:
     return patch
 
 
-def run_target(name: str, package: str, module: str, tests: list[str], lines: tuple[int, int] | None = None) -> dict:
+_STALL_SECONDS = 240  # no mutant finished for this long: mutmut's worker process is gone
+_RESTARTS = 3
+
+
+def _tested(cache: Path) -> int:
+    try:
+        con = sqlite3.connect(f"file:{cache}?mode=ro", uri=True, timeout=1)
+        try:
+            return con.execute("SELECT count(*) FROM Mutant WHERE status != 'untested'").fetchone()[0]
+        finally:
+            con.close()
+    except sqlite3.Error:
+        return -1
+
+
+def _run_watched(cmd: list[str], cache: Path) -> bool:
+    """Run mutmut; True when it ended by itself. mutmut 2 waits for ever when its worker process
+    dies, so a run that finishes no mutant for `_STALL_SECONDS` is stopped (the statuses so far
+    are in its cache, and the next run resumes from them)."""
+    proc = subprocess.Popen(cmd, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
+                            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, start_new_session=True)
+    done, since = _tested(cache), time.monotonic()
+    while proc.poll() is None:
+        time.sleep(5)
+        now = _tested(cache)
+        if now != done:
+            done, since = now, time.monotonic()
+        elif time.monotonic() - since > _STALL_SECONDS:
+            os.killpg(proc.pid, signal.SIGTERM)
+            proc.wait()
+            return False
+    return True
+
+
+def run_target(name: str, package: str, module: str, tests: list[str], lines: tuple[int, int] | None = None,
+               again: bool = False) -> dict:
     """Run mutmut on one module with its tests; the module's text is restored afterwards.
 
-    `lines` (first, last), 1-based: mutate only those lines (the result records the range)."""
+    `lines` (first, last), 1-based: mutate only those lines (the result records the range).
+    `again`: start from the target's saved cache, so that mutmut re-tests only the mutants not
+    killed last time (it re-tests them when a test file has changed; killed ones stay killed)."""
     # a file, a node id (file::test) or pytest options such as "-k", "expr" (quoted for mutmut's shlex)
     tests = [t for t in tests if not t.endswith(".py") or (ROOT / t).exists()]
     cache = ROOT / ".mutmut-cache"
     if cache.exists():
         cache.unlink()
+    saved = RESULTS / f"{name}.mutmut-cache"
+    if again and saved.exists() and lines is None:
+        shutil.copy(saved, cache)
     source = (ROOT / module).read_text()
     runner = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(map(shlex.quote, tests))
     cmd = ["mutmut", "run", "--paths-to-mutate", module, "--tests-dir", "tests", "--runner", runner,
@@ -173,8 +216,12 @@ def run_target(name: str, package: str, module: str, tests: list[str], lines: tu
         cmd += ["--use-patch-file", str(_line_patch(module, lines))]
     print(f"== {name}: {module} against {' '.join(tests)}", flush=True)
     try:
-        subprocess.run(cmd, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
-                       stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        for _attempt in range(_RESTARTS + 1):
+            if _run_watched(cmd, cache):
+                break
+            (ROOT / module).write_text(source)  # it may have stopped with a mutant written in
+            Path(str(ROOT / module) + ".bak").unlink(missing_ok=True)
+            print("   mutmut made no progress (its worker died): restarted from its cache", flush=True)
     finally:
         if (ROOT / module).read_text() != source:
             (ROOT / module).write_text(source)
@@ -230,6 +277,8 @@ def main() -> None:
     parser.add_argument("--only", action="append", default=[], help="run only targets whose name contains this")
     parser.add_argument("--report", action="store_true", help="only summarise the saved results")
     parser.add_argument("--lines", help="FIRST:LAST, mutate only these lines of each target run")
+    parser.add_argument("--again", action="store_true",
+                        help="re-test only the mutants that survived the target's last run (after new tests)")
     args = parser.parse_args()
     if shutil.which("mutmut") is None:
         sys.exit("mutmut is not installed: pip install -e '.[mutation]'")
@@ -238,7 +287,7 @@ def main() -> None:
             if args.only and not any(o in name for o in args.only):
                 continue
             lines = tuple(int(x) for x in args.lines.split(":")) if args.lines else None
-            run_target(name, package, module, tests, lines)
+            run_target(name, package, module, tests, lines, again=args.again)
     print(json.dumps(report()))
 
 
