@@ -208,8 +208,16 @@ def run_target(name: str, package: str, module: str, tests: list[str], lines: tu
     saved = RESULTS / f"{name}.mutmut-cache"
     if again and saved.exists() and lines is None:
         shutil.copy(saved, cache)
+        con = sqlite3.connect(cache)
+        with con:
+            con.execute("UPDATE Mutant SET status = 'untested' WHERE status NOT IN (%s)"
+                        % ", ".join("?" * len(_STATUS_KILLED)), sorted(_STATUS_KILLED))
+        con.close()
     source = (ROOT / module).read_text()
-    runner = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(map(shlex.quote, tests))
+    pytest = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(map(shlex.quote, tests))
+    # mutmut 2 counts only exit status 1 as "killed": a mutant that breaks an import (pytest's
+    # status 2, a collection error) would pass as a survivor, so every failure is made status 1.
+    runner = "sh -c " + shlex.quote(pytest + " || exit 1")
     cmd = ["mutmut", "run", "--paths-to-mutate", module, "--tests-dir", "tests", "--runner", runner,
            "--test-time-multiplier", "3", "--test-time-base", "10", "--no-progress", "--simple-output"]
     if lines is not None:
