@@ -34,13 +34,11 @@ intake, >= 0.90 units and bridge.
 from __future__ import annotations
 
 import argparse
+import difflib
+import hashlib
 import json
 import os
 import re
-import shlex
-import shutil
-import signal
-import sqlite3
 import subprocess
 import sys
 import time
@@ -125,9 +123,6 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [TB + "test_comments.py", TB + "test_rate_command.py"]),
 ]
 
-_STATUS_KILLED = {"ok_killed", "bad_timeout", "ok_suspicious"}  # a timeout is a detected change
-
-
 def _equivalents() -> set[tuple[str, int, str]]:
     """(file, line, diff) listed as equivalent: table rows ``| `file` | line | `old` → `new` | reason |``."""
     if not EQUIVALENTS.exists():
@@ -140,116 +135,101 @@ def _equivalents() -> set[tuple[str, int, str]]:
     return found
 
 
-def _diff(mutant_id: int) -> str:
-    out = subprocess.run(["mutmut", "show", str(mutant_id)], cwd=ROOT, capture_output=True, text=True).stdout
-    old = [ln[1:].strip() for ln in out.splitlines() if ln.startswith("-") and not ln.startswith("---")]
-    new = [ln[1:].strip() for ln in out.splitlines() if ln.startswith("+") and not ln.startswith("+++")]
+def _diff(original: str, mutated: str) -> str:
+    """The changed lines, stripped: "old -> new" (several lines joined by " / ")."""
+    old, new = [], []
+    for line in difflib.unified_diff(original.splitlines(), mutated.splitlines(), lineterm="", n=0):
+        if line.startswith("-") and not line.startswith("---"):
+            old.append(line[1:].strip())
+        elif line.startswith("+") and not line.startswith("+++"):
+            new.append(line[1:].strip())
     return " / ".join(old) + " -> " + " / ".join(new)
 
 
-def _line_patch(module: str, lines: tuple[int, int]) -> Path:
-    """A unified diff that shows lines[0]..lines[1] (1-based, inclusive) of `module` as added,
-    so that mutmut's ``--use-patch-file`` mutates only those lines."""
-    text = (ROOT / module).read_text().splitlines()
-    first, last = lines
-    body = "".join(f"+{line}\n" for line in text[first - 1:last])
-    patch = RESULTS / "lines.patch"
-    RESULTS.mkdir(parents=True, exist_ok=True)
-    patch.write_text(f"--- a/{module}\n+++ b/{module}\n@@ -{first - 1},0 +{first},{last - first + 1} @@\n{body}")
-    return patch
+def _mutants(module: str, source: str, lines: tuple[int, int] | None) -> list:
+    """mutmut's mutation ids for the module (its operators, our runner), optionally within lines."""
+    from mutmut import Context, list_mutations
+
+    ids = list_mutations(Context(source=source, filename=module))
+    if lines is not None:
+        ids = [m for m in ids if lines[0] <= m.line_number + 1 <= lines[1]]
+    return ids
 
 
-_STALL_SECONDS = 240  # no mutant finished for this long: mutmut's worker process is gone
-_RESTARTS = 3
+def _mutated(module: str, source: str, mutation_id) -> str:
+    from mutmut import Context, mutate
+
+    return mutate(Context(source=source, filename=module, mutation_id=mutation_id))[0]
 
 
-def _tested(cache: Path) -> int:
+def _tests_fail(command: list[str], timeout: float) -> str:
+    """'killed' (any failing status: a collection error counts), 'timeout', or 'survived'."""
     try:
-        con = sqlite3.connect(f"file:{cache}?mode=ro", uri=True, timeout=1)
-        try:
-            return con.execute("SELECT count(*) FROM Mutant WHERE status != 'untested'").fetchone()[0]
-        finally:
-            con.close()
-    except sqlite3.Error:
-        return -1
-
-
-def _run_watched(cmd: list[str], cache: Path) -> bool:
-    """Run mutmut; True when it ended by itself. mutmut 2 waits for ever when its worker process
-    dies, so a run that finishes no mutant for `_STALL_SECONDS` is stopped (the statuses so far
-    are in its cache, and the next run resumes from them)."""
-    proc = subprocess.Popen(cmd, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
-                            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, start_new_session=True)
-    done, since = _tested(cache), time.monotonic()
-    while proc.poll() is None:
-        time.sleep(5)
-        now = _tested(cache)
-        if now != done:
-            done, since = now, time.monotonic()
-        elif time.monotonic() - since > _STALL_SECONDS:
-            os.killpg(proc.pid, signal.SIGTERM)
-            proc.wait()
-            return False
-    return True
+        done = subprocess.run(command, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
+                              stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, timeout=timeout)
+    except subprocess.TimeoutExpired:
+        return "timeout"
+    return "survived" if done.returncode == 0 else "killed"
 
 
 def run_target(name: str, package: str, module: str, tests: list[str], lines: tuple[int, int] | None = None,
                again: bool = False) -> dict:
-    """Run mutmut on one module with its tests; the module's text is restored afterwards.
+    """Run every mutant of one module against its tests; the module's text is restored afterwards.
 
     `lines` (first, last), 1-based: mutate only those lines (the result records the range).
-    `again`: start from the target's saved cache, so that mutmut re-tests only the mutants not
-    killed last time (it re-tests them when a test file has changed; killed ones stay killed)."""
-    # a file, a node id (file::test) or pytest options such as "-k", "expr" (quoted for mutmut's shlex)
+    `again`: re-test only the mutants that survived the target's saved run (after new tests);
+    the others keep their status. Needs the module's text unchanged since that run."""
+    # a file, a node id (file::test) or pytest options such as "-k", "expr"
     tests = [t for t in tests if not t.endswith(".py") or (ROOT / t).exists()]
-    cache = ROOT / ".mutmut-cache"
-    if cache.exists():
-        cache.unlink()
-    saved = RESULTS / f"{name}.mutmut-cache"
-    if again and saved.exists() and lines is None:
-        shutil.copy(saved, cache)
-        con = sqlite3.connect(cache)
-        with con:
-            con.execute("UPDATE Mutant SET status = 'untested' WHERE status NOT IN (%s)"
-                        % ", ".join("?" * len(_STATUS_KILLED)), sorted(_STATUS_KILLED))
-        con.close()
-    source = (ROOT / module).read_text()
-    pytest = f"{sys.executable} -m pytest -x -q -p no:cacheprovider --no-header -W ignore " + " ".join(map(shlex.quote, tests))
-    # mutmut 2 counts only exit status 1 as "killed": a mutant that breaks an import (pytest's
-    # status 2, a collection error) would pass as a survivor, so every failure is made status 1.
-    runner = "sh -c " + shlex.quote(pytest + " || exit 1")
-    cmd = ["mutmut", "run", "--paths-to-mutate", module, "--tests-dir", "tests", "--runner", runner,
-           "--test-time-multiplier", "3", "--test-time-base", "10", "--no-progress", "--simple-output"]
-    if lines is not None:
-        cmd += ["--use-patch-file", str(_line_patch(module, lines))]
+    path = ROOT / module
+    source = path.read_text()
+    command = [sys.executable, "-m", "pytest", "-x", "-q", "-p", "no:cacheprovider", "--no-header", "-W", "ignore",
+               *tests]
+    saved = RESULTS / f"{name}.json"
+    previous = json.loads(saved.read_text()) if again and saved.exists() else None
+    if previous is not None and previous.get("source_sha") != _sha(source):
+        print(f"== {name}: the module changed since its saved run; running every mutant", flush=True)
+        previous = None
     print(f"== {name}: {module} against {' '.join(tests)}", flush=True)
-    try:
-        for _attempt in range(_RESTARTS + 1):
-            if _run_watched(cmd, cache):
-                break
-            (ROOT / module).write_text(source)  # it may have stopped with a mutant written in
-            Path(str(ROOT / module) + ".bak").unlink(missing_ok=True)
-            print("   mutmut made no progress (its worker died): restarted from its cache", flush=True)
-    finally:
-        if (ROOT / module).read_text() != source:
-            (ROOT / module).write_text(source)
-    con = sqlite3.connect(cache)
-    rows = con.execute("SELECT m.id, m.status, l.line_number, l.line FROM Mutant m JOIN Line l ON m.line = l.id").fetchall()
-    con.close()
+    start = time.monotonic()
+    if _tests_fail(command, 600) != "survived":
+        print("   the tests fail on the unmutated module: target skipped", flush=True)
+        return {}
+    baseline = time.monotonic() - start
+    timeout = 3 * baseline + 10
+    ids = _mutants(module, source, lines if previous is None else None)
+    wanted = None
+    if previous is not None:
+        wanted = {(s["line"], s["index"]) for s in previous["survivors"]}
     survivors = []
-    for mid, status, line_number, _line in rows:
-        if status not in _STATUS_KILLED:
-            survivors.append({"target": name, "file": module, "line": line_number + 1, "status": status,
-                              "diff": _diff(mid)})
-    result = {"target": name, "package": package, "module": module, "tests": tests, "total": len(rows),
-              "lines": list(lines) if lines else None, "survivors": survivors}
+    try:
+        for mutation_id in ids:
+            key = (mutation_id.line_number + 1, mutation_id.index)
+            if wanted is not None and key not in wanted:
+                continue
+            mutated = _mutated(module, source, mutation_id)
+            path.write_text(mutated)
+            status = _tests_fail(command, timeout)
+            path.write_text(source)
+            if status == "survived":
+                survivors.append({"target": name, "file": module, "line": key[0], "index": key[1],
+                                  "status": status, "diff": _diff(source, mutated)})
+    finally:
+        if path.read_text() != source:
+            path.write_text(source)
+    total = previous["total"] if previous is not None else len(ids)
+    scope = previous.get("lines") if previous is not None else (list(lines) if lines else None)
+    result = {"target": name, "package": package, "module": module, "tests": tests, "total": total,
+              "lines": scope, "source_sha": _sha(source), "date": time.strftime("%Y-%m-%d"),
+              "survivors": survivors}
     RESULTS.mkdir(parents=True, exist_ok=True)
-    (RESULTS / f"{name}.json").write_text(json.dumps(result, indent=1))
-    shutil.move(str(cache), str(RESULTS / f"{name}.mutmut-cache"))
-    print(f"   {len(rows) - len(survivors)}/{len(rows)} killed", flush=True)
-    if not rows:
-        print("   no mutants: mutmut failed (for --lines, is whatthepatch installed?)", flush=True)
+    saved.write_text(json.dumps(result, indent=1))
+    print(f"   {total - len(survivors)}/{total} killed ({time.monotonic() - start:.0f} s)", flush=True)
     return result
+
+
+def _sha(text: str) -> str:
+    return hashlib.sha256(text.encode()).hexdigest()
 
 
 def report() -> dict:
@@ -264,8 +244,8 @@ def report() -> dict:
         tally[0] += killed_or_equivalent
         tally[1] += r["total"]
         scope = f" lines {r['lines'][0]}-{r['lines'][1]}" if r.get("lines") else ""
-        print(f"{r['target']:<24} {killed_or_equivalent:>4}/{r['total']:<4} "
-              f"{killed_or_equivalent / max(r['total'], 1):6.1%}  ({r['module']}{scope})")
+        print(f"{r['target']:<30} {killed_or_equivalent:>4}/{r['total']:<4} "
+              f"{killed_or_equivalent / max(r['total'], 1):6.1%}  {r.get('date', '')}  ({r['module']}{scope})")
         left.extend(alive)
     print()
     scores = {}
@@ -288,7 +268,9 @@ def main() -> None:
     parser.add_argument("--again", action="store_true",
                         help="re-test only the mutants that survived the target's last run (after new tests)")
     args = parser.parse_args()
-    if shutil.which("mutmut") is None:
+    try:
+        import mutmut  # noqa: F401
+    except ImportError:
         sys.exit("mutmut is not installed: pip install -e '.[mutation]'")
     if not args.report:
         for name, package, module, tests in TARGETS:
