@@ -9,18 +9,22 @@ Run as a script (not collected by pytest, not run in CI; needs the ``mutation`` 
     python tests/perf/mutation_score.py --only units --lines 191:284   # mutate only those lines
     python tests/perf/mutation_score.py --only units --again   # re-test last run's survivors only
 
-The tool is mutmut 2.5 (``mutmut run --paths-to-mutate ... --runner ...``). mutmut 3 was
-tried first: it copies the sources into ``mutants/`` and recognises a mutant by the module name
-derived from the file path (``engine.units``), while this repository installs its folders under
-another name (``engine/`` is ``twistshare.engine``), so its trampolines never switch a mutant
-on. mutmut 2 writes each mutant into the source file in place, runs the given test command and
-restores the file, which works with any package layout (run it in a clean worktree: the module
-is rewritten while it runs).
+The mutants are mutmut 2.5's (its operators: numbers, strings, comparisons, and/or, argument
+and keyword swaps), generated with its ``list_mutations``/``mutate``; this script runs them
+itself, one at a time: it writes the mutant into the source file in place, runs the target's
+tests, restores the file (run it in a clean worktree: the module is rewritten while it runs).
+mutmut 3 was tried first: it copies the sources into ``mutants/`` and recognises a mutant by the
+module name derived from the file path (``engine.units``), while this repository installs its
+folders under another name (``engine/`` is ``twistshare.engine``), so its trampolines never
+switch a mutant on. ``mutmut run`` itself (2.5) was used until its worker process kept dying on
+the shared machine (the run then waits for ever), and it counts only pytest's exit status 1 as
+a kill, so a mutant that breaks an import passed as a survivor; here any failing status kills.
 
 Each target is one module and the few fast test files that concern it (the machine is shared:
 never the whole suite per mutant). Each mutant's run is stopped after ``3 x baseline + 10 s``.
 The per-target results are kept in ``out/mutation/<target>.json`` (git-ignored), so one target
-can be rerun and the summary rebuilt with ``--report``.
+can be rerun and the summary rebuilt with ``--report``; ``--again`` re-tests only the saved
+survivors of a target whose module is unchanged (after adding tests).
 
 Prints, per package, killed / total and the score, then every surviving mutant (file, line,
 the changed line), and last one JSON line with ``score_core``, ``score_intake``, ``score_units``,
