@@ -1,5 +1,6 @@
 """Combined bending and torsion per layer: equivalent stresses and the capacity with M held."""
 
+import dataclasses
 import doctest
 import math
 
@@ -272,7 +273,7 @@ def test_capacity_divides_by_the_stress_concentration():
 def test_a_small_positive_strength_is_still_a_strength():
     """Sy/FS = 0.8 Pa is positive and finite: no strength error (the rule is "> 0")."""
     result = _tube(0.05, 0.0, 0.0, 100.0, MAX_SHEAR, sy=1.2, fs=1.5)
-    assert not result.layer_flags[0, 0] & LoadFlag.STRENGTH_NOT_POSITIVE
+    assert result.layer_flags[0, 0] == 0  # no bending: nothing exceeded either
     assert result.valid[0]
 
 
@@ -295,3 +296,50 @@ def test_bending_concentration_two_and_the_inner_radius():
     s_i, t_i = 32 * m * d / den, 16 * t * d / den
     assert result.equivalent_outer[0, 0] == pytest.approx(math.sqrt(s_o**2 + 4 * t_o**2), rel=1e-9)
     assert result.equivalent_inner[0, 0] == pytest.approx(math.sqrt(s_i**2 + 4 * t_i**2), rel=1e-9)
+
+
+def test_given_shear_stresses_are_used_as_given():
+    """No bending, shear given as 50 and 30 MPa: Tresca's sqrt(0 + 4 tau^2) is 100 and 60 MPa."""
+    result = _tube(0.05, 0.03, 0.0, 100.0, MAX_SHEAR, shear_outer=[[50e6]], shear_inner=[[30e6]])
+    assert result.equivalent_outer[0, 0] == pytest.approx(100e6, rel=1e-12)
+    assert result.equivalent_inner[0, 0] == pytest.approx(60e6, rel=1e-12)
+
+
+def test_messages_word_for_word():
+    bending = section_bending([0.05], [0.0], [207e9], 100.0)
+    with pytest.raises(ValueError) as info:
+        combined_stress(bending, [[0.05, 0.06]], [[0.0, 0.05]], 79e9, 100.0, 300e6, 1.5, MAX_SHEAR)
+    assert str(info.value) == "layer inputs have shape (1, 2); expected (1, 1) like the bending result"
+    with pytest.raises(ValueError) as info:
+        _tube(0.05, 0.0, 100.0, 100.0, MAX_SHEAR, shear_outer=[[1e6]])
+    assert str(info.value) == "give both shear_outer and shear_inner, or neither"
+    with pytest.raises(ValueError) as info:
+        _tube(0.05, 0.0, 100.0, 100.0, [[1, 1, 1]])
+    assert str(info.value) == ("rule, stress-concentration factors and shear stresses must broadcast "
+                               "to (1, 1)")
+    with pytest.raises(ValueError, match=r"^torque must hold one value or one per part \(1\)"):
+        _tube(0.05, 0.0, 100.0, [1.0, 2.0], MAX_SHEAR)
+    with pytest.raises(ValueError, match=r"^sum_stiffness must hold one value or one per part \(1\)"):
+        _tube(0.05, 0.0, 100.0, 100.0, MAX_SHEAR, sum_stiffness=[1.0, 2.0])
+
+
+def test_an_absent_slot_adds_no_stiffness():
+    """Slot 2 written but absent: sum(GJ) = G pi D^4 / 32 of the core alone (Roark, solid circle)."""
+    bending = section_bending([[0.05, 0.06]], [[0.0, 0.05]], [[207e9, 207e9]], 100.0,
+                              present=[[True, False]])
+    result = combined_stress(bending, [[0.05, 0.06]], [[0.0, 0.05]], [[79.3e9, 79.3e9]], 100.0,
+                             [[300e6, 300e6]], [[1.5, 1.5]], [[MAX_SHEAR, MAX_SHEAR]], present=[[True, False]])
+    assert result.sum_gj[0] == pytest.approx(79.3e9 * math.pi * 0.05**4 / 32, rel=1e-12)
+
+
+def test_an_unrated_part_has_no_stiffness_shown_and_the_result_is_frozen():
+    result = _tube(0.05, 0.0, 100.0, 100.0, int(AllowableRule.GIVEN))
+    assert np.isnan(result.sum_gj[0])
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        result.valid = None  # type: ignore[misc]
+
+
+def test_n_parts():
+    bending = section_bending([[0.05], [0.04]], [[0.0], [0.0]], [[207e9], [207e9]], [100.0, 50.0])
+    result = combined_stress(bending, [[0.05], [0.04]], [[0.0], [0.0]], 79e9, [100.0, 50.0], 300e6, 1.5, MAX_SHEAR)
+    assert result.n_parts == 2
