@@ -343,3 +343,13 @@ def test_n_parts():
     bending = section_bending([[0.05], [0.04]], [[0.0], [0.0]], [[207e9], [207e9]], [100.0, 50.0])
     result = combined_stress(bending, [[0.05], [0.04]], [[0.0], [0.0]], 79e9, [100.0, 50.0], 300e6, 1.5, MAX_SHEAR)
     assert result.n_parts == 2
+
+
+def test_bending_exactly_at_the_allowable_is_exceeded():
+    """"0 where the normal stress alone *reaches* the allowable" (the capacity's definition): a
+    yield strength equal to the bending stress, FS 1, leaves no room for torque."""
+    bending = section_bending([0.05], [0.0], [207e9], 400.0)
+    sigma = float(bending.normal_outer[0, 0])
+    result = combined_stress(bending, [0.05], [0.0], [79.3e9], 100.0, [sigma], [1.0], [MAX_SHEAR])
+    assert result.capacity[0, 0] == 0.0
+    assert result.layer_flags[0, 0] == LoadFlag.BENDING_ALONE_EXCEEDS
