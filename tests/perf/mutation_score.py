@@ -103,7 +103,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_layers", "intake", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_materials", "intake", "engine/intake/_materials.py",
      [TI + "test_front_ends_agree.py", TB + "test_materials_rules.py"]),
-    ("intake_problems", "intake", "engine/intake/_problems.py", [TI + "test_beyond_torsion.py", TB + "test_comments.py"]),
+    ("intake_problems", "intake", "engine/intake/_problems.py", [TI + "test_problems.py", TI + "test_beyond_torsion.py"]),
     ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
     ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
     ("intake_loads", "intake", "engine/intake/_loads.py", [TI + "test_front_ends_agree.py", TI + "test_beyond_torsion.py"]),
