@@ -393,7 +393,7 @@ def test_corpus_is_large_enough():
     assert len({c.name for c in HANDWRITTEN}) == len(HANDWRITTEN), "case names must be unique"
 
 
-# Refused, but without the advice the class promises: the cell-value parser in engine/units.py
+# Refused, but without the advice the class promises: the cell-value parser in engine/units
 # (not owned here) never reaches the unit check for these spellings.
 XFAIL: dict[str, str] = {}  # cases known to fail, with the reason; none at present
 

@@ -66,6 +66,27 @@ class TestShaftingCode:
         assert allowable_flags(R.SHAFTING_CODE, 300e6, 500e6, factor_of_safety=3.0) == F.FACTOR_OF_SAFETY_IGNORED
 
 
+class TestDefaults:
+    """What a call without the optional inputs means: FS 1 (no safety factor) and no keyway."""
+
+    def test_default_factor_of_safety_is_one(self):
+        # Tresca: 0.5 Sy / 1 = 150 MPa for Sy = 300 MPa (hand arithmetic)
+        assert allowable_shear(R.MAX_SHEAR, 300e6) == pytest.approx(150e6, rel=1e-15)
+        assert allowable_shear(np.array([R.MAX_SHEAR]), np.array([300e6]))[0] == pytest.approx(150e6, rel=1e-15)
+
+    def test_defaults_raise_no_note(self):
+        # the shafting rule ignores an FS other than 1, and a keyway matters only to it
+        assert allowable_flags(R.SHAFTING_CODE, 300e6, 500e6) == 0
+        assert allowable_flags(R.MAX_SHEAR, 300e6, factor_of_safety=2.0) == 0
+        assert allowable_flags(np.array([R.SHAFTING_CODE]), np.array([300e6]), np.array([500e6])).tolist() == [0]
+        assert allowable_flags(np.array([R.MAX_SHEAR]), np.array([300e6]), factor_of_safety=2.0).tolist() == [0]
+
+    def test_a_typical_factor_of_safety_is_noted_as_ignored_by_the_shafting_rule(self):
+        for fs in (2.0, 1.5):
+            assert allowable_flags(R.SHAFTING_CODE, 300e6, 500e6, fs) == F.FACTOR_OF_SAFETY_IGNORED
+        assert allowable_flags(R.SHAFTING_CODE, 300e6, 500e6, 1.0) == 0
+
+
 class TestVectorised:
     def test_array_of_rule_codes(self):
         rules = np.array([R.GIVEN, R.MAX_SHEAR, R.DISTORTION_ENERGY, R.SHAFTING_CODE, 9])
@@ -132,7 +153,7 @@ class TestScalarPathEqualsArrayPath:
            st.one_of(st.just(float("nan")), st.floats(-1e9, 4e9)),
            st.one_of(st.just(float("nan")), st.floats(-1e9, 4e9)),
            # factors of safety as typed (0 and negatives included); no subnormal overflow
-           st.one_of(st.sampled_from([float("nan"), 0.0, -1.0]), st.floats(0.01, 20.0)),
+           st.one_of(st.sampled_from([float("nan"), 0.0, -1.0, 1.0, 2.0]), st.floats(0.01, 20.0)),
            st.sampled_from([True, False, 0.0, 1.0, float("nan")]))
     def test_same_allowable_and_flags(self, rule, sy, su, fs, keyway):
         scalar = allowable_shear(rule, sy, su, fs, keyway)

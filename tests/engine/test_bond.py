@@ -83,3 +83,15 @@ def test_capacity_scales_with_length_and_diameter_squared(allowable, diameter, l
     base = bond_torque_capacity(allowable, diameter, length)
     assert bond_torque_capacity(allowable, diameter, length * factor) == pytest.approx(base * factor, rel=1e-12)
     assert bond_torque_capacity(allowable, diameter * factor, length) == pytest.approx(base * factor**2, rel=1e-12)
+
+
+def test_bond_capacity_when_the_interface_passes_the_whole_torque():
+    """Share 1: T = tau_a 2 pi r^2 L (average bond shear tau = T / (2 pi r^2 L), the thin
+    cylinder in torsion, any mechanics-of-materials text); share 0: no limit. rtol 1e-12."""
+    assert bond_capacity(10e6, 0.05, 0.04, 1.0) == pytest.approx(10e6 * 2 * math.pi * 0.025**2 * 0.04, rel=1e-12)
+    assert bond_capacity(10e6, 0.05, 0.04, 0.0) == math.inf
+
+
+def test_a_bad_bond_input_is_nan_even_where_no_torque_passes():
+    """An unusable allowable (below zero) is reported as NaN, not hidden by a zero share's inf."""
+    assert math.isnan(bond_capacity(-1.0, 0.05, 0.04, 0.0))

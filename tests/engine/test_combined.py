@@ -1,5 +1,6 @@
 """Combined bending and torsion per layer: equivalent stresses and the capacity with M held."""
 
+import dataclasses
 import doctest
 import math
 
@@ -159,6 +160,8 @@ class TestFlags:
         (int(AllowableRule.SHAFTING_CODE), 300e6, 1.5, LoadFlag.RULE_NOT_COMBINABLE),
         (MAX_SHEAR, np.nan, 1.5, LoadFlag.STRENGTH_NOT_POSITIVE),
         (MAX_SHEAR, 300e6, 0.0, LoadFlag.STRENGTH_NOT_POSITIVE),
+        (MAX_SHEAR, 0.0, 1.5, LoadFlag.STRENGTH_NOT_POSITIVE),      # Sy/FS = 0: not positive
+        (MAX_SHEAR, np.inf, 1.5, LoadFlag.STRENGTH_NOT_POSITIVE),   # Sy/FS infinite: not a strength
     ])
     def test_errors_leave_the_part_unrated(self, rule, sy, fs, flag):
         result = _tube(0.05, 0.0, 100.0, 100.0, rule, sy=sy, fs=fs)
@@ -255,3 +258,98 @@ def test_capacity_function_broadcasts_like_a_ufunc():
     result = combined_capacity(np.array([0.0, 100e6, 300e6]), 200e6, 1e4, 80e9, 0.05, 1)
     assert result.shape == (3,)
     assert result[2] == 0.0 and result[0] > result[1] > 0
+
+
+def test_capacity_divides_by_the_stress_concentration():
+    """Torsion alone on a solid 25 mm bar: tau = 16 T / (pi D^3) (Roark's Formulas for Stress and
+    Strain, solid circular section), so with Kt at the surface T = pi D^3 (0.5 S) / (16 Kt)
+    for Tresca (0.5 S); Kt 2 halves it. rtol 1e-12."""
+    g, d = 79.3e9, 0.025
+    gj = g * math.pi / 32 * d**4
+    got = combined_capacity(0.0, 200e6, gj, g, d, 1, stress_concentration=2.0)
+    assert got == pytest.approx(math.pi * d**3 * 0.5 * 200e6 / (16 * 2.0), rel=1e-12)
+
+
+def test_a_small_positive_strength_is_still_a_strength():
+    """Sy/FS = 0.8 Pa is positive and finite: no strength error (the rule is "> 0")."""
+    result = _tube(0.05, 0.0, 0.0, 100.0, MAX_SHEAR, sy=1.2, fs=1.5)
+    assert result.layer_flags[0, 0] == 0  # no bending: nothing exceeded either
+    assert result.valid[0]
+
+
+@pytest.mark.parametrize("kb", [0.5, np.inf])
+def test_bending_concentration_below_one_or_infinite_is_refused(kb):
+    result = _tube(0.05, 0.0, 100.0, 100.0, MAX_SHEAR, bending_concentration=kb)
+    assert result.layer_flags[0, 0] & LoadFlag.CONCENTRATION_BELOW_ONE
+    assert not result.valid[0]
+
+
+def test_bending_concentration_two_and_the_inner_radius():
+    """Hollow tube D 50, d 30 mm, M 400 N*m, T 600 N*m, bending Kt 2 at the outer surface:
+    sigma = 32 M r/(pi (D^4 - d^4)) * 2, tau = 16 T D/(pi (D^4 - d^4)) (any mechanics-of-
+    materials text), Tresca sqrt(sigma^2 + 4 tau^2); at the inner radius nominal stresses
+    with d in place of D. rtol 1e-9."""
+    D, d, m, t = 0.05, 0.03, 400.0, 600.0
+    den = math.pi * (D**4 - d**4)
+    result = _tube(D, d, m, t, MAX_SHEAR, bending_concentration=2.0)
+    s_o, t_o = 2 * 32 * m * D / den, 16 * t * D / den
+    s_i, t_i = 32 * m * d / den, 16 * t * d / den
+    assert result.equivalent_outer[0, 0] == pytest.approx(math.sqrt(s_o**2 + 4 * t_o**2), rel=1e-9)
+    assert result.equivalent_inner[0, 0] == pytest.approx(math.sqrt(s_i**2 + 4 * t_i**2), rel=1e-9)
+
+
+def test_given_shear_stresses_are_used_as_given():
+    """No bending, shear given as 50 and 30 MPa: Tresca's sqrt(0 + 4 tau^2) is 100 and 60 MPa."""
+    result = _tube(0.05, 0.03, 0.0, 100.0, MAX_SHEAR, shear_outer=[[50e6]], shear_inner=[[30e6]])
+    assert result.equivalent_outer[0, 0] == pytest.approx(100e6, rel=1e-12)
+    assert result.equivalent_inner[0, 0] == pytest.approx(60e6, rel=1e-12)
+
+
+def test_messages_word_for_word():
+    bending = section_bending([0.05], [0.0], [207e9], 100.0)
+    with pytest.raises(ValueError) as info:
+        combined_stress(bending, [[0.05, 0.06]], [[0.0, 0.05]], 79e9, 100.0, 300e6, 1.5, MAX_SHEAR)
+    assert str(info.value) == "layer inputs have shape (1, 2); expected (1, 1) like the bending result"
+    with pytest.raises(ValueError) as info:
+        _tube(0.05, 0.0, 100.0, 100.0, MAX_SHEAR, shear_outer=[[1e6]])
+    assert str(info.value) == "give both shear_outer and shear_inner, or neither"
+    with pytest.raises(ValueError) as info:
+        _tube(0.05, 0.0, 100.0, 100.0, [[1, 1, 1]])
+    assert str(info.value) == ("rule, stress-concentration factors and shear stresses must broadcast "
+                               "to (1, 1)")
+    with pytest.raises(ValueError, match=r"^torque must hold one value or one per part \(1\)"):
+        _tube(0.05, 0.0, 100.0, [1.0, 2.0], MAX_SHEAR)
+    with pytest.raises(ValueError, match=r"^sum_stiffness must hold one value or one per part \(1\)"):
+        _tube(0.05, 0.0, 100.0, 100.0, MAX_SHEAR, sum_stiffness=[1.0, 2.0])
+
+
+def test_an_absent_slot_adds_no_stiffness():
+    """Slot 2 written but absent: sum(GJ) = G pi D^4 / 32 of the core alone (Roark, solid circle)."""
+    bending = section_bending([[0.05, 0.06]], [[0.0, 0.05]], [[207e9, 207e9]], 100.0,
+                              present=[[True, False]])
+    result = combined_stress(bending, [[0.05, 0.06]], [[0.0, 0.05]], [[79.3e9, 79.3e9]], 100.0,
+                             [[300e6, 300e6]], [[1.5, 1.5]], [[MAX_SHEAR, MAX_SHEAR]], present=[[True, False]])
+    assert result.sum_gj[0] == pytest.approx(79.3e9 * math.pi * 0.05**4 / 32, rel=1e-12)
+
+
+def test_an_unrated_part_has_no_stiffness_shown_and_the_result_is_frozen():
+    result = _tube(0.05, 0.0, 100.0, 100.0, int(AllowableRule.GIVEN))
+    assert np.isnan(result.sum_gj[0])
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        result.valid = None  # type: ignore[misc]
+
+
+def test_n_parts():
+    bending = section_bending([[0.05], [0.04]], [[0.0], [0.0]], [[207e9], [207e9]], [100.0, 50.0])
+    result = combined_stress(bending, [[0.05], [0.04]], [[0.0], [0.0]], 79e9, [100.0, 50.0], 300e6, 1.5, MAX_SHEAR)
+    assert result.n_parts == 2
+
+
+def test_bending_exactly_at_the_allowable_is_exceeded():
+    """"0 where the normal stress alone *reaches* the allowable" (the capacity's definition): a
+    yield strength equal to the bending stress, FS 1, leaves no room for torque."""
+    bending = section_bending([0.05], [0.0], [207e9], 400.0)
+    sigma = float(bending.normal_outer[0, 0])
+    result = combined_stress(bending, [0.05], [0.0], [79.3e9], 100.0, [sigma], [1.0], [MAX_SHEAR])
+    assert result.capacity[0, 0] == 0.0
+    assert result.layer_flags[0, 0] == LoadFlag.BENDING_ALONE_EXCEEDS

@@ -6,6 +6,7 @@ import math
 import numpy as np
 import pytest
 from twistshare.engine.core import (
+    AllowableRule,
     LayerFlag,
     LayerStack,
     interface_gaps,
@@ -139,6 +140,73 @@ class TestLayerStack:
         assert stack.take([0, 3]).n_parts == 2
 
 
+    def test_from_layers_puts_each_sequence_in_its_field(self):
+        """Each input lands in its own field, unchanged (values written here, all different)."""
+        stack = LayerStack.from_layers([0.04, 0.05], [0.01, 0.04], [79e9, 40e9], [100e6, 50e6], [1.5, 1.2],
+                                       [AllowableRule.DISTORTION_ENERGY, AllowableRule.GIVEN])
+        assert stack.outer_diameter.tolist() == [[0.04, 0.05]]
+        assert stack.inner_diameter.tolist() == [[0.01, 0.04]]
+        assert stack.shear_modulus.tolist() == [[79e9, 40e9]]
+        assert stack.allowable_shear.tolist() == [[100e6, 50e6]]
+        assert stack.stress_concentration.tolist() == [[1.5, 1.2]]
+        assert stack.allowable_rule.tolist() == [[int(AllowableRule.DISTORTION_ENERGY), int(AllowableRule.GIVEN)]]
+        assert stack.present.tolist() == [[True, True]]
+
+    def test_from_layers_message_names_the_shape(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack.from_layers([[0.04, 0.05]], [0.0, 0.04], [79e9, 40e9], [1e8, 1e8])
+        assert str(info.value) == ("LayerStack.from_layers takes one part: sequences of one value per "
+                                   "layer; got shape (1, 2)")
+
+    def test_shape_mismatch_message_word_for_word(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack(**_two_layer(inner_diameter=[[0.0, 0.04, 0.05]]))
+        assert str(info.value) == "LayerStack.inner_diameter has shape (1, 3); expected (1, 2) like outer_diameter"
+
+    def test_int8_rule_is_taken_as_a_view(self):
+        """The constructor takes views, not copies (the class's Notes): an int8 rule array too."""
+        rule = np.zeros((1, 2), dtype=np.int8)
+        stack = LayerStack(**_two_layer(allowable_rule=rule))
+        assert np.shares_memory(stack.allowable_rule, rule)
+
+    def test_from_arrays_defaults_and_given_presence(self):
+        """No stress concentration unless given (Kt = 1 means none, common practice); a given
+        `present` mask is used as given, even over a number."""
+        stack = LayerStack.from_arrays([0.04, 0.05], [0.0, 0.04], 79e9, 100e6, present=[True, False])
+        assert stack.stress_concentration.tolist() == [[1.0, 1.0]]
+        assert stack.present.tolist() == [[True, False]]
+        assert stack.allowable_rule.tolist() == [[int(AllowableRule.GIVEN)] * 2]
+
+    def test_from_arrays_broadcast_message_lists_every_shape(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack.from_arrays(np.ones((3, 2)), np.ones((2, 2)), 79e9, 1e8, present=np.ones((3, 2), bool))
+        assert str(info.value) == ("LayerStack inputs do not broadcast together: "
+                                   "(3, 2), (2, 2), (), (), (), (3, 2)")
+
+
+    def test_from_arrays_puts_each_array_in_its_field(self):
+        """Each input lands in its own field (values written here, all different)."""
+        stack = LayerStack.from_arrays([[0.04, 0.05]], [[0.01, 0.04]], [[79e9, 40e9]], [[100e6, 50e6]],
+                                       [[1.5, 1.2]], allowable_rule=[[2, 1]])
+        assert stack.outer_diameter.tolist() == [[0.04, 0.05]]
+        assert stack.inner_diameter.tolist() == [[0.01, 0.04]]
+        assert stack.shear_modulus.tolist() == [[79e9, 40e9]]
+        assert stack.allowable_shear.tolist() == [[100e6, 50e6]]
+        assert stack.stress_concentration.tolist() == [[1.5, 1.2]]
+        assert stack.allowable_rule.tolist() == [[2, 1]]
+
+    def test_from_arrays_presence_follows_the_outer_diameter(self):
+        """Absent where the outer diameter is NaN, whatever the bore: a solid core's bore of 0
+        does not make an empty slot present, and a blank bore does not make a slot absent."""
+        stack = LayerStack.from_arrays([[np.nan, 0.05]], [[0.0, np.nan]], 79e9, 100e6)
+        assert stack.present.tolist() == [[False, True]]
+
+    def test_from_arrays_refuses_three_dimensions(self):
+        with pytest.raises(ValueError) as info:
+            LayerStack.from_arrays(np.ones((2, 2, 2)), 0.0, 79e9, 1e8)
+        assert str(info.value) == "LayerStack inputs must be at most (parts, layers); got shape (2, 2, 2)"
+
+
 class TestInterfaceGaps:
     def test_signed_sizes_and_flags(self):
         """gap = inner_d[i] - outer_d[i-1]: +0.5 mm gap, -0.3 mm overlap, exact fit."""
@@ -184,3 +252,32 @@ class TestInterfaceGaps:
         gap, flags = interface_gaps(outer, inner, np.array([[True, False]]))
         assert np.isnan(gap).all()
         assert (flags == 0).all()
+
+    def test_a_slot_marked_absent_has_no_gap_even_with_numbers(self):
+        """Presence decides, not the numbers: slot 1 is absent though its diameters are written;
+        slots 0 and 2 are then not neighbours checked here (slot 2 is checked against slot 1)."""
+        outer = np.array([[0.040, 0.050, 0.060]])
+        inner = np.array([[0.0, 0.041, 0.051]])
+        gap, flags = interface_gaps(outer, inner, np.array([[True, False, True]]))
+        assert np.isnan(gap).all()
+        assert (flags == 0).all()
+
+    def test_neighbours_are_the_slot_just_inside(self):
+        """Three slots, the outermost absent: the gap at slot 1 is slot 1's bore less slot 0's
+        outer diameter, 1 mm (values written here)."""
+        outer = np.array([[0.040, 0.050, 0.060]])
+        inner = np.array([[0.0, 0.041, 0.050]])
+        gap, flags = interface_gaps(outer, inner, np.array([[True, True, False]]))
+        assert gap[0, 1] == pytest.approx(0.001, abs=1e-15)
+        assert np.isnan(gap[0, 2])
+        assert flags[0].tolist() == [0, LayerFlag.GAP_BELOW, 0]
+
+    def test_exactly_at_the_tolerance_is_not_flagged(self):
+        """Flags are for sizes *beyond* the tolerance. Binary-exact values: 0.5625 - 0.5 and
+        0.4375 - 0.5 are exactly +-0.0625, the tolerance given."""
+        outer = np.array([[0.5, 1.0], [0.5, 1.0]])
+        inner = np.array([[0.0, 0.5625], [0.0, 0.4375]])
+        _, flags = interface_gaps(outer, inner, np.ones((2, 2), bool), abs_tol=0.0625, rel_tol=0.0)
+        assert flags[:, 1].tolist() == [0, 0]
+        _, flags = interface_gaps(outer, inner, np.ones((2, 2), bool), abs_tol=0.0624, rel_tol=0.0)
+        assert flags[:, 1].tolist() == [LayerFlag.GAP_BELOW, LayerFlag.OVERLAP_BELOW]

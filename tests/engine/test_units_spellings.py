@@ -1,4 +1,4 @@
-"""Every alias and accepted spelling of `engine/units.py`, one by one, for dimension and factor.
+"""Every alias and accepted spelling of `engine/units`, one by one, for dimension and factor.
 
 Oracle: a fresh pint registry of our own (pint's default definitions, not the project's
 registry or alias table), asked for the *canonical* unit written here by hand
@@ -20,7 +20,7 @@ import math
 
 import pint
 import pytest
-from twistshare.engine.units import UnitProblem, parse_value, si_factor, split_header, unit_system
+from twistshare.engine.units import UnitProblem, parse_value, si_factor, si_offset, split_header, unit_system
 
 _PINT = pint.UnitRegistry()  # our own: the oracle must not share the project's definitions
 
@@ -37,7 +37,7 @@ def pint_factor(canonical: str, kind: str) -> float:
     return float(_PINT.Quantity(1.0, canonical).to(_SI[kind]).magnitude)
 
 
-# (alias as typed in engine/units.py, the text it is tested in, kind, canonical pint unit of that text)
+# (alias as typed in engine/units/_spellings.py, the text it is tested in, kind, canonical pint unit of that text)
 ALIASES = [
     # torque written as one word
     ("Nm", "Nm", "torque", "newton * meter"),
@@ -203,7 +203,7 @@ def test_mass_pound_in_a_density(alias):
 
 @pytest.mark.parametrize("alias", MASS_POUNDS)
 def test_mass_pound_refused_in_a_torque(alias):
-    # decision in engine/units.py: a pound of mass is not a force
+    # decision in engine/units: a pound of mass is not a force
     with pytest.raises(UnitProblem):
         si_factor(f"{alias}-in", "torque")
 
@@ -241,3 +241,122 @@ def test_alias_unit_system(alias, text, kind, canonical):
     # US customary: inch, foot, pound-force, psi family, horsepower (NIST SP 811 App. B lists
     # them apart from SI); metric horsepower, rpm and degrees are not US customary (common practice)
     assert unit_system(text) == ("US" if alias in US_ALIASES else "SI")
+
+
+# Every character the reader maps before parsing (engine/units.py `_CHAR_MAP`), each written in a
+# unit once: (the character, the text it is tested in, kind, the canonical pint unit of that text).
+CHARACTERS = [
+    ("·", "N·m", "torque", "newton * meter"),
+    ("⋅", "N⋅m", "torque", "newton * meter"),
+    ("×", "N×m", "torque", "newton * meter"),
+    ("•", "N•m", "torque", "newton * meter"),
+    ("∙", "N∙m", "torque", "newton * meter"),
+    ("・", "kN・m", "torque", "kilonewton * meter"),
+    ("✕", "lbf✕ft", "torque", "pound_force * foot"),
+    ("µ", "µm", "length", "micrometer"),
+    ("μ", "μm", "length", "micrometer"),
+    ("°", "°/ft", "angle_per_length", "degree / foot"),
+    ("º", "º", "angle", "degree"),
+    ("˚", "˚", "angle", "degree"),
+    ("−", "kN−m", "torque", "kilonewton * meter"),
+    ("–", "lbf–in", "torque", "pound_force * inch"),
+    ("‐", "N‐m", "torque", "newton * meter"),
+    ("‑", "N‑mm", "torque", "newton * millimeter"),
+    ("—", "ft—lbf", "torque", "foot * pound_force"),
+    ("\u00a0", "N\u00a0m", "torque", "newton * meter"),
+    ("\u2009", "kN\u2009m", "torque", "kilonewton * meter"),
+    ("\u202f", "N\u202fmm", "torque", "newton * millimeter"),
+    ("\u2007", "lbf\u2007in", "torque", "pound_force * inch"),
+    ("\t", "N\tm", "torque", "newton * meter"),
+    ("⁄", "rev⁄min", "speed", "revolution / minute"),
+    ("∕", "N∕mm²", "stress", "newton / millimeter ** 2"),
+]
+
+# Superscript exponents (`_SUPERSCRIPTS`): each digit and sign in an exponent at least once.
+SUPERSCRIPTS = [
+    ("kg/m³", "density", "kilogram / meter ** 3"),
+    ("kg·m⁻³", "density", "kilogram / meter ** 3"),
+    ("N·mm⁻²", "stress", "newton / millimeter ** 2"),
+    ("N/mm²", "stress", "newton / millimeter ** 2"),
+    ("°·m⁻¹", "angle_per_length", "degree / meter"),
+    ("kg·m⁻⁰³", "density", "kilogram / meter ** 3"),
+    ("N·m¹", "torque", "newton * meter"),
+    ("N·m⁺¹", "torque", "newton * meter"),
+    ("kN·mm⁴·mm⁻⁴·m", "torque", "kilonewton * meter"),
+]
+
+
+@pytest.mark.parametrize("char, text, kind, canonical", CHARACTERS, ids=[repr(c[0]) for c in CHARACTERS])
+def test_mapped_character_in_a_cell_and_a_header(char, text, kind, canonical):
+    assert char in text
+    expected = pint_factor(canonical, kind)
+    assert parse_value(f"2 {text}", kind) == pytest.approx(2 * expected, rel=1e-12)
+    assert _header_factor(text, kind) == pytest.approx(expected, rel=1e-12)
+
+
+def test_every_mapped_character_is_listed_here():
+    from twistshare.engine import units
+
+    assert {chr(c) for c in units._CHAR_MAP} == {c[0] for c in CHARACTERS}
+
+
+@pytest.mark.parametrize("text, kind, canonical", SUPERSCRIPTS, ids=[s[0] for s in SUPERSCRIPTS])
+def test_superscript_exponent_in_a_cell_and_a_header(text, kind, canonical):
+    expected = pint_factor(canonical, kind)
+    assert parse_value(f"2 {text}", kind) == pytest.approx(2 * expected, rel=1e-12)
+    assert _header_factor(text, kind) == pytest.approx(expected, rel=1e-12)
+
+
+# Exponents above 4 are refused (no quantity here needs them); the message names the exponent as
+# read, so each of these superscript digits is checked to be read as its own digit.
+HIGH_SUPERSCRIPTS = [("⁵", 5), ("⁶", 6), ("⁷", 7), ("⁸", 8), ("⁹", 9)]
+
+
+@pytest.mark.parametrize("sup, digit", HIGH_SUPERSCRIPTS)
+def test_high_superscript_read_as_its_digit(sup, digit):
+    with pytest.raises(UnitProblem, match=f"exponent {digit} is not expected"):
+        parse_value(f"2 N·mm{sup}", "torque")
+    with pytest.raises(UnitProblem, match=f"exponent {digit} is not expected"):
+        si_factor(split_header(f"Torque [N·mm{sup}]")[1], "torque")
+
+
+def test_every_superscript_character_is_used_here():
+    used = set("".join(s[0] for s in SUPERSCRIPTS) + "".join(h[0] for h in HIGH_SUPERSCRIPTS))
+    assert set("⁰¹²³⁴⁵⁶⁷⁸⁹⁻⁺") <= used
+
+
+# Temperatures (`_TEMPERATURE_NAMES`): each key once, against pint's offset conversion to kelvin
+# (pint's degree_Celsius, degree_Fahrenheit, kelvin and degree_Rankine definitions).
+TEMPERATURES = [
+    ("degC", "degree_Celsius"), ("C", "degree_Celsius"), ("celsius", "degree_Celsius"),
+    ("Celsius", "degree_Celsius"), ("degc", "degree_Celsius"),
+    ("degF", "degree_Fahrenheit"), ("F", "degree_Fahrenheit"), ("fahrenheit", "degree_Fahrenheit"),
+    ("Fahrenheit", "degree_Fahrenheit"), ("degf", "degree_Fahrenheit"),
+    ("K", "kelvin"), ("kelvin", "kelvin"), ("Kelvin", "kelvin"),
+    ("degR", "degree_Rankine"), ("R", "degree_Rankine"),
+]
+
+
+@pytest.mark.parametrize("text, canonical", TEMPERATURES, ids=[t[0] for t in TEMPERATURES])
+def test_temperature_name_in_a_cell_and_a_header(text, canonical):
+    # 100 of the unit, converted by pint with its offset; and the header's factor and offset
+    # applied to the same number (tolerance 1e-9 K: pint's offset arithmetic, not exact decimals)
+    expected = _PINT.Quantity(100.0, canonical).to("kelvin").magnitude
+    assert parse_value(f"100 {text}", "temperature") == pytest.approx(expected, abs=1e-9)
+    name, unit = split_header(f"Temperature [{text}]")
+    assert name == "Temperature"
+    got = 100.0 * si_factor(unit, "temperature") + si_offset(unit, "temperature")
+    assert got == pytest.approx(expected, abs=1e-9)
+
+
+def test_every_temperature_name_is_listed_here():
+    from twistshare.engine import units
+
+    assert set(units._TEMPERATURE_NAMES) == {t[0] for t in TEMPERATURES}
+
+
+def test_nist_temperature_points():
+    # NIST SP 811 (2008) B.9 / 4.2.1.1: T/K = t/°C + 273.15; T/K = (t/°F + 459.67)/1.8; T/K = (T/°R)/1.8
+    assert parse_value("20 degC", "temperature") == pytest.approx(293.15, abs=1e-9)
+    assert parse_value("68 degF", "temperature") == pytest.approx((68 + 459.67) / 1.8, abs=1e-9)
+    assert parse_value("527.67 degR", "temperature") == pytest.approx(527.67 / 1.8, abs=1e-9)

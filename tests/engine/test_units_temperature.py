@@ -1,4 +1,4 @@
-"""Temperature and expansion-coefficient units (engine/units.py), checked against pint's own
+"""Temperature and expansion-coefficient units (engine/units), checked against pint's own
 offset-aware conversions (pint, the reference library)."""
 
 from __future__ import annotations
