@@ -243,7 +243,7 @@ def test_alias_unit_system(alias, text, kind, canonical):
     assert unit_system(text) == ("US" if alias in US_ALIASES else "SI")
 
 
-# Every character the reader maps before parsing (engine/units.py `_CHAR_MAP`), each written in a
+# Every character the reader maps before parsing (`engine/units/_spellings.py` `_CHAR_MAP`), each written in a
 # unit once: (the character, the text it is tested in, kind, the canonical pint unit of that text).
 CHARACTERS = [
     ("·", "N·m", "torque", "newton * meter"),
