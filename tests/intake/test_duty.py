@@ -145,3 +145,15 @@ def test_no_duty_without_a_torque_column_points_at_the_power_cell():
     result = rate_parts(head, ["P1", 500, None, None, "Core steel", 40])
     (p,) = [p for p in result.problems if p.code == "missing"]
     assert p.cell == "C2"
+
+
+def test_duty_columns_without_a_speed_say_none_was_given():
+    # A duty built without speeds (a cell function's layer block has no duty columns) must say
+    # "not given" as None, which the parts assembly reads as no whirl input at all.
+    import numpy as np
+    from twistshare.engine.intake._cellrefs import CellRefs
+    from twistshare.engine.intake._duty import DutyColumns
+
+    nan = np.full(2, np.nan)
+    duty = DutyColumns(nan, nan, nan, nan, ["none", "none"], np.zeros(2, bool), CellRefs("Layers", []))
+    assert duty.speed is None
