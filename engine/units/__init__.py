@@ -40,7 +40,6 @@ from __future__ import annotations
 
 from ._factors import si_factor, si_offset, unit_system
 from ._kinds import KINDS, UnitProblem, describe_kind, display_unit, registry
-from ._spellings import _ALIASES, _MASS_POUNDS  # noqa: F401  (the spelling tests read the tables)
 from ._values import ERROR_VALUES, error_value_text, parse_value, split_header
 
 __all__ = [

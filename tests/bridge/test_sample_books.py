@@ -11,9 +11,9 @@ from pathlib import Path
 import openpyxl
 import pytest
 from openpyxl.worksheet.formula import ArrayFormula
+from twistshare import sample_books as sb
 from twistshare.engine.core import material_library
 from twistshare.engine.units import parse_value
-from twistshare import sample_books as sb
 
 SAMPLES = Path(__file__).resolve().parents[2] / "sample_books"
 BOOKS = (sb.CATALOGUE_FILE, sb.CATALOGUE_LONG_FILE, sb.CELL_FUNCTIONS_FILE)
