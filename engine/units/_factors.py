@@ -5,6 +5,8 @@ from __future__ import annotations
 
 from functools import lru_cache
 
+import pint
+
 from ._grammar import _check_kind, _describe, _normalise, _parse
 from ._kinds import _SI_TARGET, UnitProblem, _check_kind_name, registry
 from ._spellings import _TEMPERATURE_NAMES, _US_NAMES
@@ -52,9 +54,13 @@ def _factor(text: str, kind: str) -> tuple[float | None, UnitProblem | None]:
     problem = _check_kind(text, parsed, kind)
     if problem is not None:
         return None, problem
-    if kind == "dimensionless":
-        return float(registry().Quantity(1.0, parsed.unit).to("dimensionless").magnitude), None
-    factor = registry().Quantity(1.0, parsed.unit).to(_SI_TARGET[kind]).magnitude
+    target = "dimensionless" if kind == "dimensionless" else _SI_TARGET[kind]
+    try:
+        factor = registry().Quantity(1.0, parsed.unit).to(target).magnitude
+    except pint.errors.PintError:
+        # Offset and logarithmic units (°C inside a product, neper, decibel) have no factor.
+        advice = "write '1/K' (a change of 1 °C is a change of 1 K)" if kind == "expansion" else None
+        return None, UnitProblem(text, kind, "an offset or logarithmic unit inside a product", advice)
     return float(factor), None
 
 
