@@ -12,7 +12,6 @@ from __future__ import annotations
 
 import hashlib
 import os
-import shutil
 import zipfile
 import zlib
 from dataclasses import dataclass
@@ -25,6 +24,7 @@ from ._record import OwnershipRecord, is_record, parse_record, sha256
 from ._safety import read_package_info
 from ._unrate_resaved import plan_resaved
 from ._xmltext import decode_xml
+from ._zipcopy import copy_members
 
 __all__ = ["find_record", "read_record", "strip_ours", "StripReport", "RESAVED_ADVICE"]
 
@@ -185,9 +185,6 @@ def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Li
     PackageRefused
         The book has no ownership record, or no longer matches it (nothing is written).
     """
-    # Late import: the writer module imports this package's pieces, not the other way round.
-    from ._writer import _set_level, _zip_info_like
-
     pkg = Package(source, limits)
     try:
         info = read_package_info(pkg)
@@ -206,19 +203,7 @@ def strip_ours(source: str | os.PathLike, dest: str | os.PathLike, *, limits: Li
         mode = os.stat(source).st_mode
         with atomic_file(dest, mode) as raw, zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
             zout.comment = pkg.zip.comment
-            for name in pkg.names:
-                if name in drop:
-                    continue
-                src = pkg.infos[name]
-                zinfo = _set_level(_zip_info_like(src), 1)
-                if name in replace:
-                    zout.writestr(zinfo, replace[name])
-                    continue
-                try:
-                    with pkg.open_stream(name) as fin, zout.open(zinfo, "w", force_zip64=src.file_size > (1 << 30)) as fout:
-                        shutil.copyfileobj(fin, fout, 1 << 20)
-                except (zipfile.BadZipFile, zlib.error, EOFError) as exc:
-                    raise PackageRefused(pkg.path, f"zip member {name!r} is corrupt ({exc})") from None
+            copy_members(pkg, zout, 1, drop=drop, replace=replace)
         copied = len(pkg.names) - len(drop) - len(replace)
     finally:
         pkg.close()

@@ -27,7 +27,6 @@ import shutil
 import tempfile
 import time
 import zipfile
-import zlib
 from dataclasses import dataclass, field
 from typing import Any, BinaryIO, Iterable, Mapping, Sequence
 
@@ -86,6 +85,7 @@ from ._xmltext import (
     root_prefix,
     split_ref,
 )
+from ._zipcopy import _set_level, copy_members
 
 __all__ = ["BookWriter", "SheetHandle", "WriteReport"]
 
@@ -170,40 +170,10 @@ class _InputSheetEdit:
     marks: list[str] = field(default_factory=list)  # cells fill_cells filled (for the ownership record)
 
 
-def _zip_info_like(src: zipfile.ZipInfo) -> zipfile.ZipInfo:
-    """A fresh ZipInfo with the source member's metadata (name, time, attributes, method)."""
-    info = zipfile.ZipInfo(src.filename, src.date_time)
-    info.compress_type = src.compress_type
-    info.comment = src.comment
-    info.create_system = src.create_system
-    info.external_attr = src.external_attr
-    info.internal_attr = src.internal_attr
-    info.extra = _strip_zip64(src.extra)
-    return info
-
-
-def _strip_zip64(extra: bytes) -> bytes:
-    """Drop the zip64 extra block (zipfile writes its own); keep every other block."""
-    out, i = b"", 0
-    while i + 4 <= len(extra):
-        tag = int.from_bytes(extra[i:i + 2], "little")
-        size = int.from_bytes(extra[i + 2:i + 4], "little")
-        if tag != 0x0001:
-            out += extra[i:i + 4 + size]
-        i += 4 + size
-    return out
-
-
 def _new_info(name: str) -> zipfile.ZipInfo:
     info = zipfile.ZipInfo(name, time.localtime()[:6])
     info.compress_type = zipfile.ZIP_DEFLATED
     info.external_attr = 0o600 << 16
-    return info
-
-
-def _set_level(info: zipfile.ZipInfo, level: int) -> zipfile.ZipInfo:
-    # Python 3.13 names it compress_level; earlier versions only have the private slot.
-    setattr(info, "compress_level" if hasattr(zipfile.ZipInfo, "compress_level") else "_compresslevel", level)
     return info
 
 
@@ -634,15 +604,7 @@ class BookWriter:
         with atomic_file(out, mode) as raw:
             with zipfile.ZipFile(raw, "w", allowZip64=True) as zout:
                 zout.comment = self._pkg.zip.comment
-                for name in self._pkg.names:
-                    if name in plan.removed:
-                        continue
-                    src = self._pkg.infos[name]
-                    info = _set_level(_zip_info_like(src), self._level)
-                    if name in plan.changed:
-                        zout.writestr(info, plan.changed[name])
-                    else:
-                        self._copy_member(zout, name, info, src.file_size)
+                copy_members(self._pkg, zout, self._level, drop=plan.removed, replace=plan.changed)
                 for name, payload in plan.added:
                     info = _set_level(_new_info(name), self._level)
                     if isinstance(payload, bytes):
@@ -656,13 +618,6 @@ class BookWriter:
                             dst.write(head)
                             shutil.copyfileobj(body, dst, _CHUNK)
                             dst.write(tail)
-
-    def _copy_member(self, zout: zipfile.ZipFile, name: str, info: zipfile.ZipInfo, size: int) -> None:
-        try:
-            with self._pkg.open_stream(name) as src, zout.open(info, "w", force_zip64=size > (1 << 30)) as dst:
-                shutil.copyfileobj(src, dst, _CHUNK)
-        except (zipfile.BadZipFile, zlib.error, EOFError) as exc:
-            raise PackageRefused(self._source, f"zip member {name!r} is corrupt ({exc})") from None
 
     # -- planning: every changed and added part, computed before anything is written ----------
     def _plan(self) -> "_Plan":

@@ -14,6 +14,7 @@ import tempfile
 import time
 from pathlib import Path
 
+from ...ooxml import atomic_file
 from ._errors import LibreOfficeFailed, LibreOfficeTimeout
 from ._office import _clean_env, _office_args, _spawn, end_process_group, find_soffice
 
@@ -60,7 +61,6 @@ def export_pdf(book: str | os.PathLike, pdf: str | os.PathLike, *, timeout: floa
             said = log.read_text("utf-8", "replace").strip().splitlines()
             reason = said[-1] if said else f"exit code {process.returncode}"
             raise LibreOfficeFailed(f"LibreOffice ({soffice}) made no PDF of {book.name}: {reason}")
-        partial = pdf.with_name("." + pdf.name + ".partial")
-        shutil.copyfile(made, partial)
-        os.replace(partial, pdf)
+        with atomic_file(pdf, 0o644) as raw, open(made, "rb") as printed:
+            shutil.copyfileobj(printed, raw)
     return time.monotonic() - started
