@@ -24,6 +24,7 @@ from twistshare.engine.core import (
     has_sleeve_error,
 )
 from twistshare.engine.core._interface_criteria import has_interfaces, interface_rating
+from twistshare.engine.units import si_offset
 
 from ._columns import read_numeric, read_text
 from ._grid import SheetGrid, cell_ref
@@ -38,7 +39,7 @@ from ._words import LOAD_PATH_CHOICES, load_path_from_text, quoted, where_text
 __all__ = ["read_interface_inputs", "interface_problems"]
 
 _LAYER_KEYS = tuple(f.key for f in INTERFACE_FIELDS)
-_ZERO_CELSIUS = 273.15
+_ZERO_CELSIUS = si_offset("°C", "temperature")  # K, from the one registry
 _MATERIAL_KEYS = ("youngs_modulus", "poisson_ratio", "yield_strength", "expansion_coefficient",
                   "factor_of_safety")
 

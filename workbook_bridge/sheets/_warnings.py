@@ -45,10 +45,13 @@ def add_warnings_sheet(writer: BookWriter, findings: list[Problem]) -> str:
     narrow = [column_width(h, text_chars(r[c] for r in table[1:]) if c != 3 else 2, lines=1)
               for c, h in enumerate(_HEADERS[:-1])]
     n_rows = len(cautions) + len(table)
-    # Wider messages wrap onto fewer lines but shrink the page: take the best one-page scale.
-    layouts = [_layout(narrow + [width], cautions, table) for width in _MESSAGE_WIDTHS]
-    widths, heights, merged = max(layouts, key=lambda lay: one_page_scale(lay[0], lay[1], n_rows))
-    if one_page_scale(widths, heights, n_rows) < _ONE_PAGE_SMALLEST:
+    # Wider messages wrap onto fewer lines but shrink the page: take the best one-page scale. Every
+    # row is at least one line tall, so a long list cannot fit one page at any width: not tried.
+    widths, heights, merged = None, {}, []
+    if one_page_scale(narrow, {}, n_rows) >= _ONE_PAGE_SMALLEST:  # an upper bound of any layout's
+        layouts = [_layout(narrow + [width], cautions, table) for width in _MESSAGE_WIDTHS]
+        widths, heights, merged = max(layouts, key=lambda lay: one_page_scale(lay[0], lay[1], n_rows))
+    if widths is None or one_page_scale(widths, heights, n_rows) < _ONE_PAGE_SMALLEST:
         widths, heights, merged = _layout(narrow + [_MESSAGE_WIDTH], cautions, table)
     span = len(_HEADERS)
     rows = [[Styled(r[0].value, r[0].style if n == 1 else "caution_line+wrap")] + [None] * (span - 1) if r else r
