@@ -188,16 +188,6 @@ class CombinedStress:
         return int(self.sum_gj.shape[0])
 
 
-def _equivalent(sigma: NDArray[np.float64], tau: NDArray[np.float64],
-                weight: NDArray[np.float64]) -> NDArray[np.float64]:
-    # The batch path squares directly (3x faster than hypot): stresses in Pa are far from
-    # the float range's ends.
-    result = np.multiply(tau, tau)
-    result *= weight
-    result += sigma * sigma
-    return np.sqrt(result, out=result)
-
-
 def combined_stress(
     bending: SectionBending,
     outer_diameter: ArrayLike,

@@ -43,11 +43,29 @@ def si_offset(unit_text: str, kind: str) -> float:
     return got[1]
 
 
+def _per_temperature(text: str) -> str | None:
+    """The temperature unit of ``1/°C``, ``1/degF``, ``1/K`` (pint's name), else None.
+
+    An expansion coefficient is per degree of temperature *change*: a change of 1 °C is 1 K and
+    a change of 1 °F is 5/9 K, whatever the scale's zero, so ``1/°C`` reads as ``1/K`` and
+    ``1/°F`` as 1.8/K (NIST SP 811, from memory: a degree Celsius equals a kelvin in size, a
+    degree Fahrenheit or Rankine is 5/9 K)."""
+    head, slash, tail = text.partition("/")
+    if not slash or head.strip() != "1":
+        return None
+    return _TEMPERATURE_NAMES.get(_normalise(tail).replace(" ", ""))
+
+
 @lru_cache(maxsize=4096)
 def _factor(text: str, kind: str) -> tuple[float | None, UnitProblem | None]:
     if kind == "temperature":
         got, problem = _temperature(text)
         return (None, problem) if problem is not None else (got[0], None)
+    per = _per_temperature(text) if kind == "expansion" else None
+    if per is not None:
+        # the size of one degree in kelvin: pint's temperature-difference unit of the scale
+        step = f"delta_{per}" if per in ("degree_Celsius", "degree_Fahrenheit") else per
+        return 1.0 / float(registry().Quantity(1.0, step).to("kelvin").magnitude), None
     parsed, problem = _parse(text)
     if problem is not None:
         return None, UnitProblem(text, kind, problem.reason, problem.advice)
@@ -59,7 +77,7 @@ def _factor(text: str, kind: str) -> tuple[float | None, UnitProblem | None]:
         factor = registry().Quantity(1.0, parsed.unit).to(target).magnitude
     except pint.errors.PintError:
         # Offset and logarithmic units (°C inside a product, neper, decibel) have no factor.
-        advice = "write '1/K' (a change of 1 °C is a change of 1 K)" if kind == "expansion" else None
+        advice = "write '1/K' or '1/°C'" if kind == "expansion" else None
         return None, UnitProblem(text, kind, "an offset or logarithmic unit inside a product", advice)
     return float(factor), None
 
@@ -125,7 +143,7 @@ def unit_system(unit_text: str) -> str:
 
 @lru_cache(maxsize=1024)
 def _system(unit_text: str) -> tuple[str, UnitProblem | None]:
-    temperature = _TEMPERATURE_NAMES.get(_normalise(unit_text).replace(" ", ""))
+    temperature = _TEMPERATURE_NAMES.get(_normalise(unit_text).replace(" ", "")) or _per_temperature(unit_text)
     if temperature is not None:
         return ("US" if temperature in ("degree_Fahrenheit", "degree_Rankine") else "SI"), None
     parsed, problem = _parse(unit_text)

@@ -38,3 +38,33 @@ def test_expansion_coefficient_per_kelvin():
         UREG.Quantity(11.7e-6, "1/kelvin").to("1/kelvin").magnitude)
     with pytest.raises(UnitProblem):
         parse_value("11.7e-6 1/m", "expansion")
+
+
+@pytest.mark.parametrize("text, per_kelvin", [
+    # an expansion coefficient is per degree of temperature change: NIST SP 811 (from memory) gives
+    # a degree Celsius equal in size to a kelvin and a degree Fahrenheit (and Rankine) as 5/9 K
+    ("1/°C", 1.0), ("1/degC", 1.0), ("1 / °C", 1.0), ("1/C", 1.0),
+    ("1/°F", 9 / 5), ("1/degF", 9 / 5), ("1/degR", 9 / 5), ("1/K", 1.0),
+])
+def test_expansion_coefficient_per_degree_is_per_temperature_change(text, per_kelvin):
+    assert si_factor(text, "expansion") == pytest.approx(per_kelvin, rel=1e-12)
+    # pint's own temperature-difference units agree (the reference library)
+    pint_unit = {"1/°F": "1/delta_degF", "1/degF": "1/delta_degF", "1/degR": "1/degR", "1/K": "1/K"}.get(
+        text, "1/delta_degC")
+    assert si_factor(text, "expansion") == pytest.approx(
+        UREG.Quantity(1.0, pint_unit).to("1/K").magnitude, rel=1e-12)
+    assert parse_value(f"6.5e-6 {text}", "expansion") == pytest.approx(6.5e-6 * per_kelvin, rel=1e-12)
+
+
+@pytest.mark.parametrize("text, system", [("1/°C", "SI"), ("1/K", "SI"), ("1/°F", "US")])
+def test_expansion_per_degree_unit_system(text, system):
+    from twistshare.engine.units import unit_system
+
+    assert unit_system(text) == system
+
+
+@pytest.mark.parametrize("text, kind", [("1/°C", "length"), ("1/°C", "dimensionless"), ("2/°C", "expansion"),
+                                        ("1/°C·s", "expansion")])
+def test_per_degree_is_read_only_as_an_expansion_coefficient(text, kind):
+    with pytest.raises(UnitProblem):
+        si_factor(text, kind)

@@ -11,17 +11,18 @@ Run as a script (not collected by pytest, not run in CI; needs the ``mutation`` 
 
 The mutants are mutmut 2.5's (its operators: numbers, strings, comparisons, and/or, argument
 and keyword swaps), generated with its ``list_mutations``/``mutate``; this script runs them
-itself, one at a time: it writes the mutant into the source file in place, runs the target's
-tests, restores the file (run it in a clean worktree: the module is rewritten while it runs).
-mutmut 3 was tried first: it copies the sources into ``mutants/`` and recognises a mutant by the
-module name derived from the file path (``engine.units``), while this repository installs its
-folders under another name (``engine/`` is ``twistshare.engine``), so its trampolines never
-switch a mutant on. ``mutmut run`` itself (2.5) was used until its worker process kept dying on
-the shared machine (the run then waits for ever), and it counts only pytest's exit status 1 as
-a kill, so a mutant that breaks an import passed as a survivor; here any failing status kills.
+itself (``_mutant_runner``): each in a pytest process forked from one that has imported all the
+module does not touch, the mutant served from memory by an import hook, so the source tree is
+never rewritten and ``--jobs N`` can run N side by side. mutmut 3 was tried first: it copies the
+sources into ``mutants/`` and recognises a mutant by the module name derived from the file path
+(``engine.units``), while this repository installs its folders under another name (``engine/``
+is ``twistshare.engine``), so its trampolines never switch a mutant on. ``mutmut run`` itself
+(2.5) was used until its worker process kept dying on the shared machine (the run then waits
+for ever), and it counts only pytest's exit status 1 as a kill, so a mutant that breaks an
+import passed as a survivor; here any failing status kills.
 
 Each target is one module and the few fast test files that concern it (the machine is shared:
-never the whole suite per mutant). Each mutant's run is stopped after ``3 x baseline + 10 s``.
+never the whole suite per mutant). Each mutant's run is stopped after ``3 x baseline x jobs + 10 s``.
 The per-target results are kept in ``out/mutation/<target>.json`` (git-ignored), so one target
 can be rerun and the summary rebuilt with ``--report``; ``--again`` re-tests only the saved
 survivors of a target whose module is unchanged (after adding tests).
@@ -41,12 +42,13 @@ import argparse
 import difflib
 import hashlib
 import json
-import os
 import re
-import subprocess
 import sys
 import time
 from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parent))
+from _mutant_runner import MutantRunner  # noqa: E402
 
 ROOT = Path(__file__).resolve().parents[2]
 RESULTS = ROOT / "out" / "mutation"
@@ -180,29 +182,17 @@ def _mutated(module: str, source: str, mutation_id) -> str:
     return mutate(Context(source=source, filename=module, mutation_id=mutation_id))[0]
 
 
-def _tests_fail(command: list[str], timeout: float) -> str:
-    """'killed' (any failing status: a collection error counts), 'timeout', or 'survived'."""
-    try:
-        done = subprocess.run(command, cwd=ROOT, env=dict(os.environ, PYTHONDONTWRITEBYTECODE="1"),
-                              stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, timeout=timeout)
-    except subprocess.TimeoutExpired:
-        return "timeout"
-    return "survived" if done.returncode == 0 else "killed"
-
-
 def run_target(name: str, package: str, module: str, tests: list[str], lines: tuple[int, int] | None = None,
-               again: bool = False) -> dict:
-    """Run every mutant of one module against its tests; the module's text is restored afterwards.
+               again: bool = False, jobs: int = 1) -> dict:
+    """Run every mutant of one module against its tests (see ``_mutant_runner``: forked children,
+    the mutant in memory, the source tree untouched), `jobs` at a time.
 
     `lines` (first, last), 1-based: mutate only those lines (the result records the range).
     `again`: re-test only the mutants that survived the target's saved run (after new tests);
     the others keep their status. Needs the module's text unchanged since that run."""
     # a file, a node id (file::test) or pytest options such as "-k", "expr"
     tests = [t for t in tests if not t.endswith(".py") or (ROOT / t).exists()]
-    path = ROOT / module
-    source = path.read_text()
-    command = [sys.executable, "-m", "pytest", "-x", "-q", "-p", "no:cacheprovider", "--no-header", "-W", "ignore",
-               *tests]
+    source = (ROOT / module).read_text()
     saved = RESULTS / f"{name}.json"
     previous = json.loads(saved.read_text()) if again and saved.exists() else None
     if previous is not None and previous.get("source_sha") != _sha(source):
@@ -210,31 +200,23 @@ def run_target(name: str, package: str, module: str, tests: list[str], lines: tu
         previous = None
     print(f"== {name}: {module} against {' '.join(tests)}", flush=True)
     start = time.monotonic()
-    if _tests_fail(command, 600) != "survived":
+    runner = MutantRunner(ROOT, module, ["-x", "-q", "-p", "no:cacheprovider", "--no-header", "-W", "ignore",
+                                         *tests])
+    prepared = time.monotonic()
+    if runner.run([None], 600)[0] != "survived":
         print("   the tests fail on the unmutated module: target skipped", flush=True)
         return {}
-    baseline = time.monotonic() - start
-    timeout = 3 * baseline + 10
+    baseline = time.monotonic() - prepared
+    timeout = 3 * baseline * max(jobs, 1) + 10  # children side by side share the cores
     ids = _mutants(module, source, lines if previous is None else None)
-    wanted = None
     if previous is not None:
         wanted = {(s["line"], s["index"]) for s in previous["survivors"]}
-    survivors = []
-    try:
-        for mutation_id in ids:
-            key = (mutation_id.line_number + 1, mutation_id.index)
-            if wanted is not None and key not in wanted:
-                continue
-            mutated = _mutated(module, source, mutation_id)
-            path.write_text(mutated)
-            status = _tests_fail(command, timeout)
-            path.write_text(source)
-            if status == "survived":
-                survivors.append({"target": name, "file": module, "line": key[0], "index": key[1],
-                                  "status": status, "diff": _diff(source, mutated)})
-    finally:
-        if path.read_text() != source:
-            path.write_text(source)
+        ids = [m for m in ids if (m.line_number + 1, m.index) in wanted]
+    mutated = [_mutated(module, source, m) for m in ids]
+    statuses = runner.run(mutated, timeout, jobs)
+    survivors = [{"target": name, "file": module, "line": m.line_number + 1, "index": m.index,
+                  "status": status, "diff": _diff(source, text)}
+                 for m, text, status in zip(ids, mutated, statuses) if status == "survived"]
     total = previous["total"] if previous is not None else len(ids)
     scope = previous.get("lines") if previous is not None else (list(lines) if lines else None)
     result = {"target": name, "package": package, "module": module, "tests": tests, "total": total,
@@ -242,7 +224,8 @@ def run_target(name: str, package: str, module: str, tests: list[str], lines: tu
               "survivors": survivors}
     RESULTS.mkdir(parents=True, exist_ok=True)
     saved.write_text(json.dumps(result, indent=1))
-    print(f"   {total - len(survivors)}/{total} killed ({time.monotonic() - start:.0f} s)", flush=True)
+    print(f"   {total - len(survivors)}/{total} killed ({time.monotonic() - start:.0f} s, "
+          f"baseline {baseline:.1f} s, {len(ids)} run)", flush=True)
     return result
 
 
@@ -283,6 +266,7 @@ def main() -> None:
     parser.add_argument("--only", action="append", default=[], help="run only targets whose name contains this")
     parser.add_argument("--report", action="store_true", help="only summarise the saved results")
     parser.add_argument("--lines", help="FIRST:LAST, mutate only these lines of each target run")
+    parser.add_argument("--jobs", type=int, default=1, help="mutants run side by side (default 1)")
     parser.add_argument("--again", action="store_true",
                         help="re-test only the mutants that survived the target's last run (after new tests)")
     args = parser.parse_args()
@@ -295,7 +279,7 @@ def main() -> None:
             if args.only and not any(o in name for o in args.only):
                 continue
             lines = tuple(int(x) for x in args.lines.split(":")) if args.lines else None
-            run_target(name, package, module, tests, lines, again=args.again)
+            run_target(name, package, module, tests, lines, again=args.again, jobs=args.jobs)
     print(json.dumps(report()))
 
 
