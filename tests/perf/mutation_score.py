@@ -104,7 +104,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("core_material_library", "core", "engine/core/_material_library.py", [TE + "test_materials.py"]),
     # the intake, below both front ends
     ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py", TI + "test_words_spellings.py"]),
-    ("intake_schema", "intake", "engine/intake/_schema.py", [TI + "test_schema.py"]),
+    ("intake_schema", "intake", "engine/intake/_schema.py", [TI + "test_schema.py", TI + "test_schema_readme.py"]),
     ("intake_parts", "intake", "engine/intake/_parts.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_layers", "intake", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_layer_rows", "intake", "engine/intake/_layer_rows.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
