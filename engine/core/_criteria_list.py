@@ -65,13 +65,16 @@ class Section:
         key = "no_limit_layers" if per_layer else "no_limit_parts"
         out = self.shared.get(key)
         if out is None:
-            out = np.full(self.gj.shape if per_layer else self.sum_gj.shape, np.inf)
-            if per_layer:
-                if self.unused.any():
-                    np.copyto(out, np.nan, where=self.unused)
+            shape = self.gj.shape if per_layer else self.sum_gj.shape
+            holes = self.unused if per_layer else np.isnan(self.sum_gj)
+            if holes.any():
+                out = np.full(shape, np.inf)
+                np.copyto(out, np.nan, where=holes)
+                out.flags.writeable = False
             else:
-                out[np.isnan(self.sum_gj)] = np.nan
-            out.flags.writeable = False
+                # Every part rated, every slot used (the common case): one +inf broadcast to
+                # the shape, read-only and taking no memory however large the batch.
+                out = np.broadcast_to(np.float64(np.inf), shape)
             self.shared[key] = out
         return out
 
@@ -98,11 +101,19 @@ class CriterionCheck:
     capacity: Callable[[Section], NDArray[np.float64]]
 
 
+#: Key of `Section.shared` under which the caller may hand `_layer_stress` a writeable
+#: ``G * D_o * Kt`` array to finish in place (taken out once used).
+LAYER_STRESS_DENOMINATOR = "layer_stress_denominator"
+
+
 def _layer_stress(section: Section) -> NDArray[np.float64]:
     """``tau_a,i * sum(G J) / (G_i * r_o,i * Kt_i)``, built in place (the batch is large)."""
     stack = section.stack
-    capacity = np.multiply(stack.shear_modulus, stack.outer_diameter)
-    capacity *= stack.stress_concentration
+    # rate() hands over G_i * r_o,i * Kt_i, made from the product its outer stress starts from.
+    capacity = section.shared.pop(LAYER_STRESS_DENOMINATOR, None)
+    if capacity is None:
+        capacity = np.multiply(stack.shear_modulus, stack.outer_diameter)
+        capacity *= stack.stress_concentration
     np.divide(stack.allowable_shear, capacity, out=capacity)
     capacity *= (2.0 * section.sum_gj)[:, np.newaxis]
     if section.unused.any():
@@ -171,33 +182,55 @@ def governing_of(
     criterion = np.full(n_parts, int(Criterion.NONE), dtype=np.int8)
     layer = np.full(n_parts, -1, dtype=np.int16)
     holes: NDArray[np.bool_] | None = np.ones(n_parts, bool)  # parts no criterion has a number for yet
+    # Scratch, reused for every column: a fresh array per step costs as much as the step.
+    wins = np.empty(n_parts, bool)
+    won = np.empty(n_parts, bool)  # parts one of this criterion's columns took over
+    criterion_step = np.empty(n_parts, np.int8)
+    layer_step = np.empty(n_parts, np.int16)
     with np.errstate(invalid="ignore"):
         for code, values in capacities:
             # Few layer slots, many parts: a loop over slots beats argmin along a short axis.
             columns = ((slot, values[:, slot]) for slot in range(values.shape[1])) if values.ndim == 2 \
                 else ((-1, values),)
+            won.fill(False)
             for slot, column in columns:
-                if not (column < np.inf).any():
-                    # No limit anywhere in it (only +inf and NaN): it could win only where
-                    # nothing else does, and such parts end as NONE below in any case.
-                    continue
                 # Strictly smaller takes over; NaN never wins; a number fills a hole.
-                wins = column < capacity
+                np.less(column, capacity, out=wins)
                 if holes is not None:
                     fills = holes & ~np.isnan(column)
                     wins |= fills
                     holes &= ~fills
                     if not holes.any():
                         holes = None  # the common case after the first criterion: no more NaN checks
-                np.copyto(capacity, column, where=wins)
-                np.copyto(criterion, int(code), where=wins)
-                np.copyto(layer, slot, where=wins)
+                if (column == 0.0).any():
+                    # fmin may give either zero of a tie of 0.0 and -0.0: the masked copy keeps
+                    # the first, as the rule says.
+                    np.copyto(capacity, column, where=wins)
+                else:
+                    # The same values as copying where `wins` (NaN passed over, a number filling
+                    # a hole, equal numbers alike), without the masked copy's branch per element.
+                    np.fmin(capacity, column, out=capacity)
+                _take_over(layer, slot, wins, layer_step)
+                won |= wins
+            _take_over(criterion, int(code), won, criterion_step)
         none = ~(capacity < np.inf)
         if none.any():
             capacity[none] = np.nan
             criterion[none] = int(Criterion.NONE)
             layer[none] = -1
     return capacity, criterion, layer
+
+
+def _take_over(target: NDArray[np.integer], value: int, where: NDArray[np.bool_],
+               scratch: NDArray[np.integer]) -> None:
+    """``target[where] = value`` in place, by arithmetic: ``target += (value - target) * where``.
+
+    A masked copy branches on every element and costs several times as much where the mask
+    is random (which of two limits governs a part is).
+    """
+    np.subtract(target.dtype.type(value), target, out=scratch)
+    np.multiply(scratch, where, out=scratch)
+    target += scratch
 
 
 def take_inputs(inputs: Mapping[str, NDArray[np.float64]] | None, rows: NDArray[np.intp] | slice,

@@ -11,7 +11,7 @@ from numpy.typing import ArrayLike, NDArray
 
 from ._arrays import frozen_view
 from ._criteria import Criterion
-from ._criteria_list import CRITERIA, Section, governing_of
+from ._criteria_list import CRITERIA, LAYER_STRESS_DENOMINATOR, Section, governing_of
 from ._diagnoses import PART_ERRORS
 from ._duty import Duty, take_rows
 from ._rating_flags import layer_flags as layer_flags_of
@@ -207,6 +207,8 @@ def rate(
 
         half_theta = (0.5 * theta)[:, np.newaxis]
         stress_outer = np.multiply(modulus, do)
+        # The layer-stress capacity starts from the same G * D_o (one product fewer).
+        denominator = np.multiply(stress_outer, stack.stress_concentration)
         stress_outer *= half_theta
         np.multiply(modulus, di, out=stress_inner)
         stress_inner *= half_theta
@@ -216,6 +218,8 @@ def rate(
 
         section = Section(stack, duty, gj, sum_gj, unused, layer_torque, stress_outer, stress_inner,
                           MappingProxyType(dict(inputs or {})))
+        section.shared[LAYER_STRESS_DENOMINATOR] = denominator
+        del denominator
         capacities = {check.criterion: check.capacity(section) for check in CRITERIA}
         for values in capacities.values():
             # A shared "no limit" array is read-only and NaN for these parts already.
