@@ -241,6 +241,12 @@ def result_factor(result_unit: Any, kind: str) -> float:
 
     Divide an SI result by it.
     """
+    if result_unit is None or type(result_unit) is str:
+        return _text_result_factor(result_unit, kind)
+    return _result_factor(result_unit, kind)
+
+
+def _result_factor(result_unit: Any, kind: str) -> float:
     unit = single_value(result_unit, "result unit")
     if is_empty(unit):
         unit = DEFAULT_RESULT_UNIT[kind]
@@ -254,3 +260,8 @@ def result_factor(result_unit: Any, kind: str) -> float:
         return si_factor(unit, kind)
     except UnitProblem as problem:
         raise CellError("result unit", str(problem)) from None
+
+
+# A recalculating sheet asks for the same few result units again and again (refusals are not
+# cached: lru_cache keeps only returned values).
+_text_result_factor = lru_cache(maxsize=256)(_result_factor)

@@ -278,13 +278,12 @@ def _part_problems(parts: PartsInput, problems: list[Problem], need_allowable: b
     """Per part, the first problem that stops it: its own, or one of a material it uses (a
     material without an allowable stops only the results that need one)."""
     out: list[str | None] = [None] * parts.count
-    if not problems and not parts.input_error.any():
+    stopping = [p for p in problems if stops(p.severity, THRESHOLD)]
+    if not stopping and not parts.input_error.any():
         return tuple(out)
-    index = {pid: i for i, pid in enumerate(parts.ids)}
+    index = {pid: i for i, pid in enumerate(parts.ids)} if any(p.part is not None for p in stopping) else {}
     by_material: dict[str, str] = {}
-    for p in problems:
-        if not stops(p.severity, THRESHOLD):
-            continue
+    for p in stopping:
         if p.part is not None and p.part in index:
             i = index[p.part]
             if out[i] is None:
@@ -300,7 +299,7 @@ def _part_problems(parts: PartsInput, problems: list[Problem], need_allowable: b
                     if found is not None and not (found[1] and np.isfinite(parts.allowable_shear[i, j])):
                         out[i] = found[0]
                         break
-    for i, bad in enumerate(parts.input_error.tolist()):
-        if bad and out[i] is None:
+    for i in np.flatnonzero(parts.input_error).tolist():
+        if out[i] is None:
             out[i] = "could not be read (see the block's cells)"
     return tuple(out)

@@ -99,6 +99,11 @@ def merge(*problem_lists: list[str | None]) -> list[str | None]:
     return merged
 
 
+def _unstopped(problems: list[str | None]) -> NDArray[np.bool_]:
+    """Per part, True where no message stops it."""
+    return np.fromiter((p is None for p in problems), bool, len(problems))
+
+
 def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,
                inputs: dict[str, NDArray[np.float64]] | None = None) -> tuple[Rating, list[str | None]]:
     """Rate the block's parts; per part the message that stops it, or None.
@@ -108,7 +113,8 @@ def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,
     """
     rating = rate(block.stack(), duty, inputs={**block.parts.inputs, **(inputs or {})})
     problems = merge(list(block.problems), extra) if extra is not None else list(block.problems)
-    unrated = [i for i, p in enumerate(problems) if p is None and not rating.valid[i]]
+    valid = np.asarray(rating.valid, bool)
+    unrated = np.flatnonzero(_unstopped(problems) & ~valid).tolist()
     if unrated:
         ok = np.zeros(block.n_parts, bool)
         ok[unrated] = True
@@ -120,7 +126,7 @@ def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,
             problems[i] = problems[i] or "could not be rated"
     # A fit or bond the core could not check, or a finding on one, stops the cell: the number
     # alone would not show it.
-    checked = np.array([p is None for p in problems]) & np.asarray(rating.valid, bool)
+    checked = _unstopped(problems) & valid
     found, _ = interface_problems(rating, block.parts, checked)
     for p in found:
         if stops(p.severity, THRESHOLD):

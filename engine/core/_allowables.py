@@ -58,7 +58,10 @@ _SCALARS = (int, float, bool, np.floating, np.integer, np.bool_)
 
 def _all_scalars(*values: object) -> bool:
     """Plain numbers only: a spreadsheet cell's call, where numpy's per-call cost dominates."""
-    return all(isinstance(v, _SCALARS) for v in values)
+    for value in values:  # a plain loop: a generator costs more than the test itself here
+        if not isinstance(value, _SCALARS):
+            return False
+    return True
 
 
 def _key_scalar(keyway: object) -> bool:
@@ -86,10 +89,13 @@ def _allowable_scalar(code: float, sy: float, su: float, fs: float, key: bool) -
     return math.nan
 
 
+_RULE_CODES = frozenset(int(r) for r in AllowableRule)
+
+
 def _flags_scalar(code: float, sy: float, su: float, fs: float, key: bool) -> int:
     """`allowable_flags` for one set of plain numbers: the same checks, without arrays."""
     flags = 0
-    known = code in {int(r) for r in AllowableRule}
+    known = code in _RULE_CODES
     theory = code == AllowableRule.MAX_SHEAR or code == AllowableRule.DISTORTION_ENERGY
     shafting = code == AllowableRule.SHAFTING_CODE
     checks = (

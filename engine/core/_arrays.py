@@ -8,8 +8,18 @@ import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
 
+_PLAIN_NUMBERS = (float, int, np.float64)
+
+
 def as_float(value: ArrayLike) -> NDArray[np.float64]:
-    """Return ``value`` as a float64 array, without copying when it already is one."""
+    """Return ``value`` as a float64 array, without copying when it already is one.
+
+    A plain number (one cell's value) becomes a numpy ``float64`` scalar instead of a 0-d
+    array: it has the same ``shape``, ``ndim`` and ufunc behaviour, and arithmetic on it is
+    several times cheaper, which is what a cell function's one-value call spends its time on.
+    """
+    if type(value) in _PLAIN_NUMBERS:
+        return np.float64(value)  # type: ignore[return-value]
     return np.asarray(value, dtype=np.float64)
 
 

@@ -36,12 +36,11 @@ def bond_inputs_ok(bond_diameter: ArrayLike, bond_length: ArrayLike,
     -------
     ndarray or scalar of bool
     """
-    values = [as_float(v) for v in (bond_diameter, bond_length, allowable_shear)]
-    ok = np.ones(np.broadcast_shapes(*(v.shape for v in values)), dtype=bool)
+    d, length, tau = (as_float(v) for v in (bond_diameter, bond_length, allowable_shear))
     with np.errstate(invalid="ignore"):
-        for value in values:
-            ok &= np.isfinite(value) & (value > 0)
-    return scalar_out(ok)
+        ok = (np.isfinite(d) & (d > 0) & np.isfinite(length) & (length > 0)
+              & np.isfinite(tau) & (tau > 0))
+    return scalar_out(np.asarray(ok))
 
 
 def bond_shear(interface_torque: ArrayLike, bond_diameter: ArrayLike,

@@ -120,7 +120,7 @@ def allowable_of(name: str | None, rule: AllowableRule | None, allowable: float,
         fs_used = fs if not math.isnan(fs) else 1.0
         value = float(allowable_shear(rule, sy, su, fs_used, keyway))
         flags = AllowableFlag(int(allowable_flags(rule, sy, su, fs_used, keyway)))
-        for flag, (key, words) in _FLAG_WORDS.items():
+        for flag, (key, words) in _FLAG_WORDS.items() if flags else ():
             if flag in flags and not (flag == AllowableFlag.FACTOR_OF_SAFETY_IGNORED and math.isnan(fs)):
                 # (no FS typed: the default 1 is ours, nothing to tell)
                 notes.append(Note(key, flag.name.lower().replace("_", "-"), f"{who}{words}"))

@@ -87,6 +87,11 @@ class Field:
         """A bare number needs a unit from the header or the cell."""
         return self.kind not in ("text", "flag", "dimensionless")
 
+    def __hash__(self) -> int:
+        # The key names the field (no two schema fields share one), so equal fields hash alike;
+        # the cell functions' caches hash a field on every call, and the key's hash is cached.
+        return hash(self.key)
+
 
 def _f(key: str, kind: str, description: str, *labels: str, blank: Blank = Blank.NOT_GIVEN,
        plausible: Plausible | None = None, named: str | None = None) -> Field:

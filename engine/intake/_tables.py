@@ -91,6 +91,9 @@ def _data_rows(grid: SheetGrid, start: int, end: int, idx: list[int]) -> tuple[i
     span = range(start, end)
     filled = np.zeros(end - start, bool)
     columns = []
+    # A column that starts with a number is likely all numbers, which settles every row at once.
+    first_row = grid.rows[start]
+    idx = sorted(idx, key=lambda c: not (c < len(first_row) and type(first_row[c]) in (float, int)))
     for c in idx:
         cells = grid.cells(c, span)
         k = set(map(type, cells))

@@ -7,6 +7,7 @@ so ``mises`` or ``with keyway`` means the same in a cell and in a table.
 from __future__ import annotations
 
 import re
+from functools import lru_cache
 from collections.abc import Iterable, Mapping
 from types import MappingProxyType
 
@@ -48,7 +49,15 @@ _HEADER_RUNS = re.compile(r"[\s_\-]+")
 def header_key(label: object) -> str:
     """A header label made comparable: case-folded, apostrophes dropped, ``_``, ``-`` and runs
     of white space made one space (``"Young's_modulus"`` -> ``"youngs modulus"``)."""
-    text = str(label).replace("’", "'").replace("'", "")
+    if type(label) is str:
+        return _text_key(label)
+    return _text_key(str(label))
+
+
+@lru_cache(maxsize=4096)
+def _text_key(text: str) -> str:
+    # Cached: a recalculating sheet and a table's column of rule words repeat a few texts.
+    text = text.replace("’", "'").replace("'", "")
     return _HEADER_RUNS.sub(" ", text).strip().casefold()
 
 
@@ -183,8 +192,10 @@ def may_hold_error_values(texts: Iterable[str | None]) -> bool:
     One pass at C speed over a long column. True only sends the caller to the exact check of
     each cell (`error_value_text`), so a false alarm costs time, never a wrong answer.
     """
-    joined = "\n" + "\n".join(filter(None, texts)).upper()
-    return "\n#" in joined or "\nERR:" in joined
+    joined = "\n" + "\n".join(filter(None, texts))
+    # Upper-casing a long column costs more than the search: only a text with a colon can
+    # hold an ``Err:`` value in any case.
+    return "\n#" in joined or (":" in joined and "\nERR:" in joined.upper())
 
 
 # --- Sizing: which dimension a Size cell names, and what the layers outside it do -------------
