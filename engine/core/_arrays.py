@@ -7,7 +7,6 @@ from typing import Any
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-
 _PLAIN_NUMBERS = (float, int, np.float64)
 
 

@@ -7,8 +7,8 @@ so ``mises`` or ``with keyway`` means the same in a cell and in a table.
 from __future__ import annotations
 
 import re
-from functools import lru_cache
 from collections.abc import Iterable, Mapping
+from functools import lru_cache
 from types import MappingProxyType
 
 from twistshare.engine.core import AllowableRule, EndSupport, LoadPath, OuterLayers, SizedDimension, normalise_name
