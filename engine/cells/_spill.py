@@ -101,7 +101,7 @@ def merge(*problem_lists: list[str | None]) -> list[str | None]:
 
 def _unstopped(problems: list[str | None]) -> NDArray[np.bool_]:
     """Per part, True where no message stops it."""
-    return np.fromiter((p is None for p in problems), bool, len(problems))
+    return np.equal(np.array(problems, dtype=object), None)
 
 
 def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,

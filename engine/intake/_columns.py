@@ -205,9 +205,13 @@ def read_numeric(
     slow = range(n)
     if factor is not None and n:
         raw_col = grid.cells(col, rows)
-        if set(map(type, raw_col)) <= {float, int}:  # the common case: one conversion at C speed
+        kinds = set(map(type, raw_col))
+        if kinds <= {float, int}:  # the common case: one conversion at C speed
             is_num = np.ones(n, bool)
             nums = np.array(raw_col, dtype=float) * factor
+        elif kinds.isdisjoint((float, int)):  # no plain number at all: every cell is read below
+            is_num = np.zeros(n, bool)
+            nums = np.full(n, np.nan)
         else:
             is_num = np.fromiter((type(x) is float or type(x) is int for x in raw_col), bool, n)
             nums = np.array([x if k else np.nan for x, k in zip(raw_col, is_num.tolist())], dtype=float) * factor
@@ -234,10 +238,14 @@ def read_numeric(
                 memo[text] = cell_value(text, field, column.unit, factor, header_issue,
                                         is_error=error_value_text(text) is not None) if text.strip() else (
                     math.nan, None, "empty")
-            got = [memo[x] for x in raw_col]
-            values[:] = [g[0] for g in got]
-            slow = [i for i, g in enumerate(got) if g[1] is not None or g[2] in ("empty", "library")]
-            values[slow] = math.nan
+            # Per distinct text its value and whether its cell needs a visit; spread by index.
+            position = {text: i for i, text in enumerate(memo)}
+            index = np.fromiter(map(position.__getitem__, raw_col), np.intp, n)
+            texts = memo.values()
+            visit = np.array([g[1] is not None or g[2] in ("empty", "library") for g in texts], bool)[index]
+            values[:] = np.array([g[0] for g in texts], float)[index]
+            values[visit] = math.nan
+            slow = np.flatnonzero(visit).tolist()
     for i in slow:
         r = rows[i]
         raw = grid.value(r, col)
