@@ -27,6 +27,17 @@ def scalar_out(result: NDArray[Any]) -> Any:
     return result[()] if result.ndim == 0 else result
 
 
+def valid_or_nan(ok: Any, values: Any) -> Any:
+    """``values`` where ``ok``, NaN elsewhere, unwrapped like `scalar_out`.
+
+    The same as ``scalar_out(np.where(ok, values, np.nan))``; one value (a cell function's
+    call) takes a plain branch, a few microseconds cheaper than ``np.where``.
+    """
+    if np.ndim(ok) == 0 and np.ndim(values) == 0:
+        return np.float64(values) if ok else np.float64(np.nan)
+    return scalar_out(np.where(ok, values, np.nan))
+
+
 def frozen_view(array: NDArray[Any]) -> NDArray[Any]:
     """Read-only view of ``array``; the caller's own array stays writeable."""
     view = array.view()

@@ -17,7 +17,7 @@ from typing import Any
 import numpy as np
 from numpy.typing import ArrayLike
 
-from ._arrays import as_float, scalar_out
+from ._arrays import as_float, scalar_out, valid_or_nan
 
 __all__ = ["bond_shear", "bond_torque_capacity", "bond_capacity", "bond_inputs_ok"]
 
@@ -74,7 +74,7 @@ def bond_shear(interface_torque: ArrayLike, bond_diameter: ArrayLike,
     d, length = as_float(bond_diameter), as_float(bond_length)
     with np.errstate(divide="ignore", invalid="ignore"):
         result = torque / (0.5 * np.pi * d * d * length)
-    return scalar_out(np.where(bond_inputs_ok(d, length), result, np.nan))
+    return valid_or_nan(bond_inputs_ok(d, length), result)
 
 
 def bond_torque_capacity(allowable_shear: ArrayLike, bond_diameter: ArrayLike,
@@ -96,7 +96,7 @@ def bond_torque_capacity(allowable_shear: ArrayLike, bond_diameter: ArrayLike,
     """
     tau, d, length = (as_float(v) for v in (allowable_shear, bond_diameter, bond_length))
     result = tau * 0.5 * np.pi * d * d * length
-    return scalar_out(np.where(bond_inputs_ok(d, length, tau), result, np.nan))
+    return valid_or_nan(bond_inputs_ok(d, length, tau), result)
 
 
 def bond_capacity(allowable_shear: ArrayLike, bond_diameter: ArrayLike, bond_length: ArrayLike,
