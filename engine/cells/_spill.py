@@ -101,7 +101,9 @@ def merge(*problem_lists: list[str | None]) -> list[str | None]:
 
 def _unstopped(problems: list[str | None]) -> NDArray[np.bool_]:
     """Per part, True where no message stops it."""
-    return np.equal(np.array(problems, dtype=object), None)
+    if problems.count(None) == len(problems):  # the usual block: nothing stops any part
+        return np.ones(len(problems), bool)
+    return np.array([p is None for p in problems], bool)
 
 
 def rate_block(block: Block, duty: Duty, extra: list[str | None] | None = None,
