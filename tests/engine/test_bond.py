@@ -13,6 +13,7 @@ from twistshare.engine.core import (
     LayerStack,
     LoadPath,
     bond_capacity,
+    bond_inputs_ok,
     bond_shear,
     bond_torque_capacity,
     interface_share,
@@ -68,6 +69,16 @@ def test_bad_geometry_is_nan(args):
 def test_missing_allowable_is_nan():
     assert np.isnan(bond_capacity(np.nan, 0.05, 0.03, 0.3))
     assert np.isnan(bond_capacity(-5e6, 0.05, 0.03, 0.3))
+
+
+@pytest.mark.parametrize("allowable", [0.0, -1.0, np.nan, np.inf])
+def test_an_allowable_that_is_not_a_positive_number_gives_no_capacity(allowable):
+    # The documented contract: NaN where an input is not a positive finite number. A zero
+    # allowable is "none given", not a bond that holds nothing (common practice: a blank or
+    # zero strength is not data).
+    assert np.isnan(bond_torque_capacity(allowable, 0.05, 0.04))
+    assert not bond_inputs_ok(0.05, 0.04, allowable)
+    assert bond_inputs_ok(0.05, 0.04, 1e6)
 
 
 def test_docstrings_warn_of_the_end_peaks():
