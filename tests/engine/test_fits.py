@@ -244,3 +244,87 @@ class TestEquivalentStress:
     def test_missing_strength_is_nan(self):
         assert np.isnan(combined_stress_capacity(0.0, 0.0, 1.0, np.nan))
         assert np.isnan(combined_stress_capacity(0.0, 0.0, 1.0, 300e6, 0.0))
+
+
+class TestStatedInputRanges:
+    """The documented ranges of the fit functions, at their edges: the diameters must satisfy
+    0 <= d_i < d < d_o, E > 0 and finite, nu in (-1, 0.5] (the range of an isotropic elastic
+    solid, common practice); yield strength and factor of safety positive and finite."""
+
+    def _general(self, delta, d, di, do, ei, nui, eo, nuo):
+        # Shigley's general Lamé form (as TestPressureShigley), in diameters.
+        return delta / (d * (((do**2 + d**2) / (do**2 - d**2) + nuo) / eo
+                             + ((d**2 + di**2) / (d**2 - di**2) - nui) / ei))
+
+    @pytest.mark.parametrize("e", [0.5, 1.0, 3.0])
+    def test_any_positive_modulus_gives_the_closed_form(self, e):
+        # p = E delta (d_o^2 - d^2) / (2 d d_o^2) is linear in E: a tiny E is still a material.
+        d, do, delta = 0.05, 0.08, 40e-6
+        expected = e * delta * (do**2 - d**2) / (2 * d * do**2)
+        assert fit_pressure(delta, d, 0.0, do, e, 0.3, e, 0.3) == pytest.approx(expected, rel=1e-12)
+
+    @pytest.mark.parametrize("member", ["inner", "outer"])
+    @pytest.mark.parametrize("e", [np.inf, 0.0, -1e9, np.nan])
+    def test_a_modulus_that_is_not_a_positive_finite_number_gives_nan(self, member, e):
+        ei, eo = (e, 207e9) if member == "inner" else (207e9, e)
+        assert np.isnan(fit_pressure(40e-6, 0.05, 0.0, 0.08, ei, 0.3, eo, 0.3))
+
+    @pytest.mark.parametrize("member", ["inner", "outer"])
+    @pytest.mark.parametrize("nu", [-1.0, -1.5, 0.5000001])
+    def test_poisson_outside_its_range_gives_nan(self, member, nu):
+        nui, nuo = (nu, 0.3) if member == "inner" else (0.3, nu)
+        assert np.isnan(fit_pressure(40e-6, 0.05, 0.0, 0.08, 207e9, nui, 111e9, nuo))
+
+    @pytest.mark.parametrize("nu", [0.5, -0.9])
+    def test_poisson_at_its_edges_is_rated(self, nu):
+        got = fit_pressure(40e-6, 0.05, 0.02, 0.08, 207e9, nu, 111e9, nu)
+        assert got == pytest.approx(self._general(40e-6, 0.05, 0.02, 0.08, 207e9, nu, 111e9, nu),
+                                    rel=1e-12)
+
+    def test_lame_solid_cylinder_is_uniform_even_on_its_axis(self):
+        # Lamé, a = 0: sigma_r = sigma_t = -p_o everywhere, the axis (r = 0) included.
+        for r in (0.0, 0.01, 0.02):
+            radial, hoop = lame_stresses(r, 0.0, 0.04, 0.0, 30e6)
+            assert radial == pytest.approx(-30e6, rel=1e-12) and hoop == pytest.approx(-30e6, rel=1e-12)
+
+    def test_slip_capacity_of_an_unknown_grip_is_unknown_even_where_no_torque_passes(self):
+        # Stated: infinite where the interface passes no torque, NaN where an input is NaN.
+        assert np.isnan(slip_capacity(np.nan, 0.0))
+        assert slip_capacity(0.0, 0.0) == np.inf
+        assert np.isnan(slip_capacity(100.0, np.nan))
+
+    def test_combined_capacity_default_factor_of_safety_is_one(self):
+        t, r, c, sy = 120e6, -40e6, 2.0e3, 350e6
+        # sigma_t^2 + sigma_r^2 - sigma_t sigma_r + 3 (c T)^2 = Sy^2 solved for T (von Mises)
+        expected = np.sqrt((sy**2 - (t * t + r * r - t * r)) / 3.0) / c
+        assert combined_stress_capacity(t, r, c, sy) == pytest.approx(expected, rel=1e-12)
+        assert combined_stress_capacity(t, r, c, sy, 1.0) == pytest.approx(expected, rel=1e-12)
+        assert combined_stress_capacity(t, r, c, sy, 2.0) < expected
+
+    def test_combined_capacity_for_any_positive_strength(self):
+        # The formula holds for Sy = 1 Pa as for 350 MPa: T = sqrt(Sy^2 / 3) / c with no fit.
+        assert combined_stress_capacity(0.0, 0.0, 2.0, 1.0) == pytest.approx(np.sqrt(1 / 3) / 2.0, rel=1e-12)
+
+    def test_a_fit_exactly_at_the_limit_leaves_nothing_even_on_the_axis(self):
+        # Stated: 0 where the fit alone already reaches Sy/FS (hoop = Sy, no radial stress).
+        assert combined_stress_capacity(350e6, 0.0, 0.0, 350e6) == 0.0
+        assert combined_stress_capacity(350e6, 0.0, 1e3, 350e6) == 0.0
+
+    @pytest.mark.parametrize("sy, fs", [(0.0, 1.0), (-5e6, 1.0), (np.inf, 1.0), (350e6, 0.0),
+                                        (350e6, np.inf)])
+    def test_combined_capacity_needs_a_positive_strength_and_factor(self, sy, fs):
+        assert np.isnan(combined_stress_capacity(10e6, -5e6, 1e3, sy, fs))
+
+
+def test_readme_friction_table_is_the_library_guidance():
+    """README prints the guidance users rate slip with: every row there is a guide here, in
+    order, with the same range, under the same source words."""
+    from pathlib import Path
+
+    text = (Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8")
+    head = next(line for line in text.splitlines() if line.startswith("**Friction guidance**"))
+    assert f"({FRICTION_GUIDANCE_SOURCE})" in head
+    block = text[text.index(head):].split("\n\n")[1]
+    rows = [line.strip("|").split("|") for line in block.splitlines()[2:]]
+    printed = [(s.strip(), r.strip()) for s, r in rows]
+    assert printed == [(g.surfaces, f"{g.low:.2f} to {g.high:.2f}") for g in FRICTION_GUIDANCE]

@@ -97,7 +97,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("core_sleeve_diagnoses", "core", "engine/core/_sleeve_diagnoses.py",
      [TE + "test_interfaces.py", TE + "test_diagnoses.py"]),
     ("core_duty", "core", "engine/core/_duty.py", [TE + "test_rating.py", TE + "test_core_api.py"]),
-    ("core_arrays", "core", "engine/core/_arrays.py", [TE + "test_core_api.py", TE + "test_rating.py"]),
+    ("core_arrays", "core", "engine/core/_arrays.py", [TE + "test_arrays.py", TE + "test_core_api.py"]),
     ("core_radius", "core", "engine/core/_radius.py", [TE + "test_cells.py", "-k", "stress or radius"]),
     ("core_materials", "core", "engine/core/_materials.py",
      [TE + "test_materials.py", TE + "test_materials_laminate.py"]),
