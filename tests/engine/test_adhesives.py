@@ -54,3 +54,27 @@ def test_the_library_cannot_be_changed_and_a_bad_entry_is_refused():
         library["mine"] = library["cyanoacrylate"]  # type: ignore[index]
     with pytest.raises(ValueError, match="typical strength must be > 0: -1"):
         Adhesive("bad", -1.0, "test", 300.0, "")
+
+
+def test_readme_table_is_the_library():
+    """README prints the classes users may name: every row is a class here, in order, with the
+    same figures (strength and allowable in MPa, temperature in °C), under the library's source."""
+    from pathlib import Path
+
+    text = (Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8")
+    start = text.index("| adhesive class |")
+    rows = [line.strip("|").split(" | ") for line in text[start:].split("\n\n")[0].splitlines()[2:]]
+    expected = [[a.name, f"{a.typical_strength / 1e6:g}", a.test, f"{a.allowable / 1e6:.1f}",
+                 f"{a.max_temperature - 273.15:g}", a.notes] for a in adhesive_library().values()]
+    assert [[c.strip() for c in row] for row in rows] == expected
+    assert f"*{ADHESIVE_SOURCE}*" in text
+    assert all(a.source == ADHESIVE_SOURCE for a in adhesive_library().values())
+
+
+def test_entries_are_frozen_and_any_positive_strength_is_accepted():
+    entry = adhesive_library()["cyanoacrylate"]
+    with pytest.raises(AttributeError):
+        entry.typical_strength = 1.0  # type: ignore[misc]
+    with pytest.raises(ValueError, match="typical strength must be > 0: 0.0"):
+        Adhesive("bad", 0.0, "test", 300.0, "")
+    assert Adhesive("weak", 0.5, "test", 300.0, "").allowable == pytest.approx(0.5 / ADHESIVE_DESIGN_FACTOR)

@@ -65,8 +65,23 @@ class TestFreeBodySums:
         assert np.isnan(interface_torque(self.TORQUES, ALL, 7)).all()
 
     def test_needs_two_dimensions(self):
-        with pytest.raises(ValueError, match=r"\(parts, layers\) arrays; got shape \(4,\)"):
+        with pytest.raises(ValueError) as error:
             interface_torque([1.0, 2.0, 3.0, 4.0], [True] * 4)
+        assert str(error.value) == "interface torque needs (parts, layers) arrays; got shape (4,)"
+
+    def test_no_parts_gives_an_empty_result(self):
+        got = interface_torque(np.zeros((0, 3)), np.zeros((0, 3), bool))
+        assert got.shape == (0, 3)
+
+    @pytest.mark.parametrize("filler", [np.nan, 999.0])
+    def test_absent_outer_slots_carry_nothing_on_a_core_driven_part(self, filler):
+        # Equilibrium of the layers outside the interface (the interface passes their torque,
+        # common practice): slots the part does not have add nothing, whatever they hold.
+        torques = [[600.0, 400.0, filler, filler], [500.0, 250.0, 150.0, 100.0]]
+        present = [[True, True, False, False], [True] * 4]
+        got = interface_torque(torques, present, LoadPath.THROUGH_CORE)
+        assert got[0, 1] == 400.0 and np.isnan(got[0, 2:]).all()
+        np.testing.assert_array_equal(got[1, 1:], [500.0, 250.0, 100.0])
 
 
 def test_sleeve_of_a_rated_part_passes_its_own_torque():

@@ -90,3 +90,38 @@ def test_factor_table():
     steady = next(r for r in SHAFTING_CODE_SHOCK_FATIGUE_FACTORS
                   if r.duty.startswith("rotating") and "gradually" in r.duty)
     assert (steady.bending_low, steady.torsion_low) == (1.5, 1.0)
+
+
+# The code's table of combined shock and fatigue factors, row by row (ASME code for design of
+# transmission shafting, as printed in Machinery's Handbook's shafts section; from memory):
+# (duty, K_m low, K_m high, K_t low, K_t high).
+PUBLISHED_FACTORS = [
+    ("stationary shaft, load gradually applied", 1.0, 1.0, 1.0, 1.0),
+    ("stationary shaft, load suddenly applied", 1.5, 2.0, 1.5, 2.0),
+    ("rotating shaft, load gradually applied or steady", 1.5, 1.5, 1.0, 1.0),
+    ("rotating shaft, load suddenly applied, minor shock", 1.5, 2.0, 1.0, 1.5),
+    ("rotating shaft, load suddenly applied, heavy shock", 2.0, 3.0, 1.5, 3.0),
+]
+
+
+def test_factor_table_is_the_published_one_row_by_row():
+    got = [(r.duty, r.bending_low, r.bending_high, r.torsion_low, r.torsion_high)
+           for r in SHAFTING_CODE_SHOCK_FATIGUE_FACTORS]
+    assert got == PUBLISHED_FACTORS
+    with pytest.raises(AttributeError):  # frozen: a rating cannot change the table
+        SHAFTING_CODE_SHOCK_FATIGUE_FACTORS[0].bending_low = 2.0  # type: ignore[misc]
+
+
+def test_capacity_defaults_are_a_solid_shaft_without_shock():
+    # T = sqrt((tau_a Z_p)^2 - (K_m M)^2) / K_t, Z_p = pi D^3 / 16 for a solid shaft.
+    tau, moment, d = 60e6, 400.0, 0.05
+    zp = math.pi * d**3 / 16
+    expected = math.sqrt((tau * zp) ** 2 - moment**2)
+    assert shafting_code_capacity(tau, moment, d) == pytest.approx(expected, rel=1e-12)
+    assert shafting_code_capacity(tau, moment, d, 0.0, 1.0, 1.0) == pytest.approx(expected, rel=1e-12)
+
+
+def test_diameter_default_is_a_solid_shaft_without_shock():
+    # D = (16 sqrt(M^2 + T^2) / (pi tau_a))^(1/3) for a solid shaft with K_m = K_t = 1.
+    expected = (16 * math.hypot(400.0, 700.0) / (math.pi * 60e6)) ** (1 / 3)
+    assert shafting_code_diameter(60e6, 400.0, 700.0) == pytest.approx(expected, rel=1e-12)
