@@ -136,9 +136,12 @@ def _fit_stress(
         hoop, work, limit = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
         inner, outer = np.empty(n_parts), np.empty(n_parts)
         outer_wins = np.empty(n_parts, dtype=bool)
-        strong = np.greater(sy, 0.0)
-        strong &= np.greater(fs, 0.0)
-        all_strong = bool(strong.all())
+        # Usually every strength and factor is positive: two reductions tell (NaN fails).
+        all_strong = bool(n_parts and sy.min() > 0.0 and fs.min() > 0.0)
+        if not all_strong:
+            strong = np.greater(sy, 0.0)
+            strong &= np.greater(fs, 0.0)
+            all_strong = bool(strong.all())
         p_in = zero
         for slot in range(n_layers):
             s, do2, di2 = factors[slot]
@@ -172,10 +175,12 @@ def _fit_stress(
             best *= _TWO_OVER_ROOT3
             face[:, slot] = outer_wins
             p_in = p_out
-        missing = np.isnan(capacity)
-        if not full:
-            missing |= ~mask
-        if missing.any():
-            capacity[missing] = np.nan
-            face[missing] = -1
+        # NaN propagates through min: one reduction tells whether a capacity is missing.
+        if not full or (n_parts and np.isnan(capacity.min())):
+            missing = np.isnan(capacity)
+            if not full:
+                missing |= ~mask
+            if missing.any():
+                capacity[missing] = np.nan
+                face[missing] = -1
     return capacity, face

@@ -115,6 +115,33 @@ def stack_fit_pressures(
     return pressure, opened
 
 
+def _usable_parts(
+    do: NDArray[np.float64], di: NDArray[np.float64], e: NDArray[np.float64],
+    nu: NDArray[np.float64], mask: NDArray[np.bool_], full: bool,
+) -> NDArray[np.bool_]:
+    """Parts whose present layers all have ``0 < E < inf``, ``-1 < nu <= 0.5`` and
+    ``0 <= D_i < D_o``. NaN fails every comparison, so a missing value is caught too."""
+    n_parts, n_layers = do.shape
+    # The usual batch is all good: reductions (NaN propagates through min and max) settle
+    # that without writing a mask.
+    if full and n_parts and (e.min() > 0.0 and e.max() < np.inf and nu.min() > -1.0
+                             and nu.max() <= 0.5 and di.min() >= 0.0
+                             and bool(np.less(di, do).all())):
+        return np.ones(n_parts, dtype=bool)
+    # Whole blocks at once: the (P, L) rows are contiguous where a column is not.
+    good = np.greater(e, 0.0)
+    for value, bound, compare in ((nu, -1.0, np.greater), (nu, 0.5, np.less_equal),
+                                  (e, np.inf, np.less), (di, 0.0, np.greater_equal),
+                                  (di, do, np.less)):
+        good &= compare(value, bound)
+    if not full:
+        good |= ~mask
+    usable = good[:, 0].copy()
+    for slot in range(1, n_layers):
+        usable &= good[:, slot]
+    return usable
+
+
 def _solve(
     do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
     e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
@@ -142,18 +169,7 @@ def _solve(
     factors = shape_factors(do, di) if factors is None else factors
     full = bool(mask.all())
     with np.errstate(all="ignore"):
-        # NaN fails every comparison, so a missing value is caught here too. Whole blocks
-        # at once: the (P, L) rows are contiguous where a column is not.
-        good = np.greater(e, 0.0)
-        for value, bound, compare in ((nu, -1.0, np.greater), (nu, 0.5, np.less_equal),
-                                      (e, np.inf, np.less), (di, 0.0, np.greater_equal),
-                                      (di, do, np.less)):
-            good &= compare(value, bound)
-        if not full:
-            good |= ~mask
-        usable = good[:, 0].copy()
-        for slot in range(1, n_layers):
-            usable &= good[:, slot]
+        usable = _usable_parts(do, di, e, nu, mask, full)
         diag, lower, upper, rhs = [], [], [], []
         ki, ko = np.empty(n_parts), np.empty(n_parts)
         for k in range(1, n_layers):
