@@ -80,7 +80,19 @@ def _flag(words: NDArray[np.int32], where: NDArray[np.bool_], flag: InterfaceFla
 
 
 def _positive(value: NDArray[np.float64]) -> NDArray[np.bool_]:
-    """Positive and finite (NaN fails both comparisons)."""
+    """Positive and finite (NaN fails both comparisons); read-only where all agree.
+
+    One value broadcast to every part (a scalar input) is checked once; otherwise two
+    reductions (NaN propagates through them) settle the usual all-good case without
+    writing a mask, cheaper than two element-wise comparisons of a strided column.
+    """
+    if value.size == 0:
+        return np.zeros(value.shape, dtype=bool)
+    if value.strides[0] == 0:
+        one = value[:1]
+        return np.broadcast_to((one > 0) & (one < np.inf), value.shape)
+    if value.min() > 0 and value.max() < np.inf:
+        return np.broadcast_to(np.True_, value.shape)
     ok = value > 0
     ok &= value < np.inf
     return ok
@@ -100,8 +112,12 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
     else:
         share, sum_gj = src.share, src.sum_gj
     ishare = out.interface_share
-    interface_share(share, mask, src.path, out=ishare)
-    known = np.isin(src.path, _KNOWN_PATHS)
+    path = src.path
+    interface_share(share, mask, path, out=ishare)
+    if path.size and path.min() == path.max() and path[0] in _KNOWN_PATHS:
+        known = np.ones(n_parts, dtype=bool)  # one known path for the block (the usual case)
+    else:
+        known = np.isin(path, _KNOWN_PATHS)
     e, nu, sy, alpha, fs = src.e, src.nu, src.sy, src.alpha, src.fs
     delta0, length, mu = src.delta0, src.length, src.mu
     tau_bond, bond_len, heat = src.tau_bond, src.bond_len, src.heat
