@@ -31,16 +31,20 @@ def _face_compliances(
     outer_diameter: NDArray[np.float64],
     youngs: NDArray[np.float64],
     poisson: NDArray[np.float64],
+    which: tuple[str, ...] = ("ca_in", "ca_out", "cb_in", "cb_out"),
 ) -> tuple[NDArray[np.float64], ...]:
-    """``u(a) = ca_in p_in - ca_out p_out``, ``u(b) = cb_in p_in - cb_out p_out`` per layer."""
+    """``u(a) = ca_in p_in - ca_out p_out``, ``u(b) = cb_in p_in - cb_out p_out`` per layer
+    (the ones named in ``which``, in that order)."""
     a, b = inner_diameter / 2.0, outer_diameter / 2.0
     a2, b2 = a * a, b * b
     wall = b2 - a2
-    ca_in = a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall
-    ca_out = a / youngs * 2.0 * b2 / wall
-    cb_in = b / youngs * 2.0 * a2 / wall
-    cb_out = b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall
-    return ca_in, ca_out, cb_in, cb_out
+    formulas = {
+        "ca_in": lambda: a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall,
+        "ca_out": lambda: a / youngs * 2.0 * b2 / wall,
+        "cb_in": lambda: b / youngs * 2.0 * a2 / wall,
+        "cb_out": lambda: b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall,
+    }
+    return tuple(formulas[name]() for name in which)
 
 
 def _solve_tridiagonal(
@@ -274,16 +278,21 @@ def _solve_with_contact_by_layer(
         usable = (di >= 0) & (di < do) & np.isfinite(do) & (e > 0) & np.isfinite(e) & (
             nu > -1.0) & (nu <= 0.5)
         part_ok = np.all(usable | ~mask, axis=0)
-        ca_in, ca_out, cb_in, cb_out = _face_compliances(di, do, e, nu)
+        # Each compliance only for the slots it is used at (outer members' bores, inner
+        # members' surfaces): the same values, element by element.
+        outer_member = (di[1:], do[1:], e[1:], nu[1:])
+        inner_member = (di[:-1], do[:-1], e[:-1], nu[:-1])
+        ca_in, ca_out = _face_compliances(*outer_member, ("ca_in", "ca_out"))
+        cb_in, cb_out = _face_compliances(*inner_member, ("cb_in", "cb_out"))
         exists = mask[1:] & mask[:-1] & part_ok[np.newaxis, :]
         # Unknowns p_1 .. p_{L-1}; row k-1 is the interface at slot k. Scaling each row by
         # its radius makes the matrix symmetric (the compliance matrix of the stack).
         radius = di[1:] / 2.0
-        diag = radius * (ca_in[1:] + cb_out[:-1])
-        sub = -radius * cb_in[:-1]
+        diag = radius * (ca_in + cb_out)
+        sub = -radius * cb_in
         sup = np.zeros_like(diag)
-        sup[:-1] = -radius[:-1] * ca_out[1:-1]
-        rhs = radius * np.nan_to_num(delta[1:], nan=0.0) / 2.0
+        sup[:-1] = -radius[:-1] * ca_out[:-1]
+        rhs = radius * nan_to_zero(delta[1:].ravel()).reshape(radius.shape) / 2.0
         # Couplings to a missing interface, and rows of missing ones, drop out.
         sub[0] = 0.0
         sub[1:] = np.where(exists[1:] & exists[:-1], sub[1:], 0.0)
