@@ -117,12 +117,52 @@ def gather_layer_flags(
     return result
 
 
-def nan_to_zero(value: NDArray[np.float64]) -> NDArray[np.float64]:
-    """``np.nan_to_num(value, nan=0.0)`` as a new array, faster where no infinity is present.
+def nan_to_zero(
+    value: NDArray[np.float64], out: NDArray[np.float64] | None = None
+) -> NDArray[np.float64]:
+    """``np.nan_to_num(value, nan=0.0)`` as a new array (or in ``out``), faster where no
+    infinity is present.
 
-    nan_to_num clears NaN by a masked copy, slow where NaN and numbers alternate at random
-    (a catalogue's blank cells); a select does the same without branching.
+    nan_to_num clears NaN by a masked copy, and ``np.where`` branches: both are slow where NaN
+    and numbers alternate at random (a catalogue's blank cells). Here the bits are kept by an
+    integer AND with a mask that is all ones where the value is a number and 0 (+0.0) where
+    it is NaN: the same result bit for bit, in a few plain passes. ``out`` may be ``value``.
     """
     if np.isinf(value).any():
-        return np.nan_to_num(value, nan=0.0)
-    return np.where(np.isnan(value), 0.0, value)
+        result = np.nan_to_num(value, nan=0.0)
+        if out is None:
+            return result
+        np.copyto(out, result)
+        return out
+    mask = _ones_where(~np.isnan(value))
+    target = mask if out is None else out.view(np.int64)
+    np.bitwise_and(mask, value.view(np.int64), out=target)
+    return target.view(np.float64)
+
+
+_NAN_BITS = np.int64(0x7FF8000000000000)  # np.nan
+_ONE_BITS = np.int64(0x3FF0000000000000)  # 1.0
+
+
+def _flag_bits(keep: NDArray[np.bool_]) -> NDArray[np.int64]:
+    """1 where ``keep``, 0 elsewhere, as int64 (via float: a bool-to-int64 cast is slow)."""
+    bits = keep.astype(np.float64).view(np.int64)  # the bits of 1.0 or of 0.0
+    bits >>= 61  # 0x3FF0... >> 61 is 1
+    return bits
+
+
+def _ones_where(keep: NDArray[np.bool_]) -> NDArray[np.int64]:
+    """An int64 mask: all bits set where ``keep``, none elsewhere."""
+    bits = _flag_bits(~keep)
+    bits -= 1  # 1 -> 0, 0 -> -1 (all ones)
+    return bits
+
+
+def one_or_nan(keep: NDArray[np.bool_]) -> NDArray[np.float64]:
+    """1.0 where ``keep``, NaN (``np.nan``'s bits) elsewhere: a factor that blanks values
+    without a masked copy (a random mask makes a masked copy or a gather several times
+    slower than these few plain passes)."""
+    bits = _flag_bits(keep)
+    bits *= _ONE_BITS - _NAN_BITS
+    bits += _NAN_BITS
+    return bits.view(np.float64)

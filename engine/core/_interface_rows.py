@@ -14,7 +14,7 @@ from types import SimpleNamespace
 import numpy as np
 from numpy.typing import NDArray
 
-from ._arrays import nan_to_zero
+from ._arrays import nan_to_zero, one_or_nan
 from ._layer_fit_stress import _fit_stress, shape_factors
 from ._load_path import LoadPath, interface_share
 from ._sleeve_diagnoses import InterfaceFlag
@@ -79,13 +79,20 @@ def _flag(words: NDArray[np.int32], where: NDArray[np.bool_], flag: InterfaceFla
         words |= where * np.int32(flag)
 
 
-def _one_or_nan(keep: NDArray[np.bool_]) -> NDArray[np.float64]:
-    """1.0 where ``keep``, NaN elsewhere: a factor that blanks values without a masked copy."""
-    return np.array([np.nan, 1.0])[keep.view(np.uint8)]
-
-
 def _positive(value: NDArray[np.float64]) -> NDArray[np.bool_]:
-    """Positive and finite (NaN fails both comparisons)."""
+    """Positive and finite (NaN fails both comparisons); read-only where all agree.
+
+    One value broadcast to every part (a scalar input) is checked once; otherwise two
+    reductions (NaN propagates through them) settle the usual all-good case without
+    writing a mask, cheaper than two element-wise comparisons of a strided column.
+    """
+    if value.size == 0:
+        return np.zeros(value.shape, dtype=bool)
+    if value.strides[0] == 0:
+        one = value[:1]
+        return np.broadcast_to((one > 0) & (one < np.inf), value.shape)
+    if value.min() > 0 and value.max() < np.inf:
+        return np.broadcast_to(np.True_, value.shape)
     ok = value > 0
     ok &= value < np.inf
     return ok
@@ -105,8 +112,12 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
     else:
         share, sum_gj = src.share, src.sum_gj
     ishare = out.interface_share
-    interface_share(share, mask, src.path, out=ishare)
-    known = np.isin(src.path, _KNOWN_PATHS)
+    path = src.path
+    interface_share(share, mask, path, out=ishare)
+    if path.size and path.min() == path.max() and path[0] in _KNOWN_PATHS:
+        known = np.ones(n_parts, dtype=bool)  # one known path for the block (the usual case)
+    else:
+        known = np.isin(path, _KNOWN_PATHS)
     e, nu, sy, alpha, fs = src.e, src.nu, src.sy, src.alpha, src.fs
     delta0, length, mu = src.delta0, src.length, src.mu
     tau_bond, bond_len, heat = src.tau_bond, src.bond_len, src.heat
@@ -128,8 +139,12 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
     for k in range(1, n_layers):
         both = np.ones(n_parts, dtype=bool) if full else mask[:, k] & mask[:, k - 1]
         exists.append(both)
-        fitted.append(both & ~np.isnan(delta0[:, k]))
-        bonded.append(both & ~np.isnan(tau_bond[:, k]))
+        for given, value in ((fitted, delta0[:, k]), (bonded, tau_bond[:, k])):
+            known_value = np.isnan(value)
+            np.logical_not(known_value, out=known_value)
+            if not full:
+                known_value &= both
+            given.append(known_value)
         if not all_known:
             _flag(flags[:, k], both & ~known, InterfaceFlag.LOAD_PATH_UNKNOWN)
     has_fit = np.zeros(n_parts, dtype=bool)
@@ -160,7 +175,8 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
         change = np.empty(n_rows)
         for k in range(1, n_layers):
             column = r_delta[:, k]
-            np.copyto(column, nan_to_zero(pick(delta0[:, k])))
+            np.copyto(column, pick(delta0[:, k]))
+            nan_to_zero(column, out=column)
             if any_heat:
                 with np.errstate(invalid="ignore"):
                     np.subtract(pick(alpha[:, k - 1]), pick(alpha[:, k]), out=change)
@@ -229,7 +245,7 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
                 torque *= np.pi / 2.0
                 keep = fit_k & good_grip
                 if not keep.all():
-                    torque *= _one_or_nan(keep)
+                    torque *= one_or_nan(keep)
                 slip_k = slip[:, k]
                 np.divide(torque, passing, out=slip_k)
                 if any_idle:
@@ -244,7 +260,7 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
                 good = _positive(tau_bond[:, k]) & _positive(bond_len[:, k]) & _positive(di[:, k])
                 keep = bond_k & good
                 if not keep.all():
-                    own *= _one_or_nan(keep)
+                    own *= one_or_nan(keep)
                 bond_k_cap = bond[:, k]
                 np.divide(own, passing, out=bond_k_cap)
                 if any_idle:
@@ -270,4 +286,4 @@ def rate_rows(src: RowInputs, out: SimpleNamespace) -> None:
     _smallest(fit_columns, fit_failed, out.fit_stress_limit, out.fit_stress_slot)
     for k in range(1, n_layers):
         if not fitted[k].all():
-            delta[:, k] *= _one_or_nan(fitted[k])
+            delta[:, k] *= one_or_nan(fitted[k])

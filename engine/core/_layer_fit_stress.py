@@ -87,15 +87,15 @@ _TWO_OVER_ROOT3 = 2.0 / np.sqrt(3.0)
 
 
 def _room_left(
-    hoop: NDArray[np.float64], p_face: NDArray[np.float64], limit: NDArray[np.float64],
-    diameter2: NDArray[np.float64], room: NDArray[np.float64], work: NDArray[np.float64],
+    hoop: NDArray[np.float64], p_face: NDArray[np.float64], p_face_sq: NDArray[np.float64],
+    limit: NDArray[np.float64], diameter2: NDArray[np.float64], room: NDArray[np.float64],
+    work: NDArray[np.float64],
 ) -> None:
     """``room = max(S^2 - A, 0) / D^2`` with ``A = st (st - sr) + sr^2``, ``sr = -p_face``
-    (``hoop`` and ``work`` are scratch afterwards)."""
+    and ``p_face_sq = p_face * p_face`` (``work`` is scratch afterwards)."""
     np.add(hoop, p_face, out=work)
     work *= hoop
-    np.multiply(p_face, p_face, out=hoop)
-    work += hoop
+    work += p_face_sq
     np.subtract(limit, work, out=room)
     np.maximum(room, 0.0, out=room)
     room /= diameter2
@@ -136,13 +136,22 @@ def _fit_stress(
         hoop, work, limit = np.empty(n_parts), np.empty(n_parts), np.empty(n_parts)
         inner, outer = np.empty(n_parts), np.empty(n_parts)
         outer_wins = np.empty(n_parts, dtype=bool)
-        strong = np.greater(sy, 0.0)
-        strong &= np.greater(fs, 0.0)
-        all_strong = bool(strong.all())
-        p_in = zero
+        # Usually every strength and factor is positive: two reductions tell (NaN fails).
+        all_strong = bool(n_parts and sy.min() > 0.0 and fs.min() > 0.0)
+        if not all_strong:
+            strong = np.greater(sy, 0.0)
+            strong &= np.greater(fs, 0.0)
+            all_strong = bool(strong.all())
+        # An interface's p^2 serves the faces either side of it: squared once, in two
+        # buffers taken in turn (0 * 0 is the zero array itself).
+        squares = (np.empty(n_parts), np.empty(n_parts))
+        p_in = sq_in = zero
         for slot in range(n_layers):
             s, do2, di2 = factors[slot]
             p_out = squeeze(slot + 1)
+            sq_out = zero
+            if p_out is not zero:
+                sq_out = np.multiply(p_out, p_out, out=squares[slot % 2])
             np.divide(sy[:, slot], fs[:, slot], out=limit)
             if not all_strong:
                 limit[~strong[:, slot]] = np.nan
@@ -152,13 +161,13 @@ def _fit_stress(
             np.add(s, 1.0, out=work)
             work *= p_out
             hoop -= work
-            _room_left(hoop, p_in, limit, di2, inner, work)
+            _room_left(hoop, p_in, sq_in, limit, di2, inner, work)
             # Outer face: sigma_t(b) = p_in (s - 1) - p_out s.
             np.subtract(s, 1.0, out=hoop)
             hoop *= p_in
             np.multiply(s, p_out, out=work)
             hoop -= work
-            _room_left(hoop, p_out, limit, do2, outer, work)
+            _room_left(hoop, p_out, sq_out, limit, do2, outer, work)
             # A solid core has no inner face: dividing by its D_i^2 = 0 gives inf, or NaN
             # where the fit alone yields, and there its outer face, in the same uniform
             # state, gives 0 anyway; fmin skips that NaN, and a NaN strength is NaN on both.
@@ -171,11 +180,13 @@ def _fit_stress(
             best /= g[:, slot]
             best *= _TWO_OVER_ROOT3
             face[:, slot] = outer_wins
-            p_in = p_out
-        missing = np.isnan(capacity)
-        if not full:
-            missing |= ~mask
-        if missing.any():
-            capacity[missing] = np.nan
-            face[missing] = -1
+            p_in, sq_in = p_out, sq_out
+        # NaN propagates through min: one reduction tells whether a capacity is missing.
+        if not full or (n_parts and np.isnan(capacity.min())):
+            missing = np.isnan(capacity)
+            if not full:
+                missing |= ~mask
+            if missing.any():
+                capacity[missing] = np.nan
+                face[missing] = -1
     return capacity, face

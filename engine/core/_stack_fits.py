@@ -31,36 +31,41 @@ def _face_compliances(
     outer_diameter: NDArray[np.float64],
     youngs: NDArray[np.float64],
     poisson: NDArray[np.float64],
+    which: tuple[str, ...] = ("ca_in", "ca_out", "cb_in", "cb_out"),
 ) -> tuple[NDArray[np.float64], ...]:
-    """``u(a) = ca_in p_in - ca_out p_out``, ``u(b) = cb_in p_in - cb_out p_out`` per layer."""
+    """``u(a) = ca_in p_in - ca_out p_out``, ``u(b) = cb_in p_in - cb_out p_out`` per layer
+    (the ones named in ``which``, in that order)."""
     a, b = inner_diameter / 2.0, outer_diameter / 2.0
     a2, b2 = a * a, b * b
     wall = b2 - a2
-    ca_in = a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall
-    ca_out = a / youngs * 2.0 * b2 / wall
-    cb_in = b / youngs * 2.0 * a2 / wall
-    cb_out = b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall
-    return ca_in, ca_out, cb_in, cb_out
+    formulas = {
+        "ca_in": lambda: a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall,
+        "ca_out": lambda: a / youngs * 2.0 * b2 / wall,
+        "cb_in": lambda: b / youngs * 2.0 * a2 / wall,
+        "cb_out": lambda: b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall,
+    }
+    return tuple(formulas[name]() for name in which)
 
 
 def _solve_tridiagonal(
     sub: NDArray[np.float64], diag: NDArray[np.float64], sup: NDArray[np.float64],
     rhs: NDArray[np.float64],
 ) -> NDArray[np.float64]:
-    """Thomas algorithm along the last axis, vectorised over the leading one."""
-    m = diag.shape[1]
-    c = np.zeros_like(diag)
-    d = np.zeros_like(diag)
-    c[:, 0] = sup[:, 0] / diag[:, 0]
-    d[:, 0] = rhs[:, 0] / diag[:, 0]
+    """Thomas algorithm along the first axis (the unknowns), vectorised over the second (the
+    parts): each unknown's row is contiguous, so every step runs over all parts at once."""
+    m = diag.shape[0]
+    c = np.empty_like(diag)
+    d = np.empty_like(diag)
+    np.divide(sup[0], diag[0], out=c[0])
+    np.divide(rhs[0], diag[0], out=d[0])
     for k in range(1, m):
-        pivot = diag[:, k] - sub[:, k] * c[:, k - 1]
-        c[:, k] = sup[:, k] / pivot
-        d[:, k] = (rhs[:, k] - sub[:, k] * d[:, k - 1]) / pivot
+        pivot = diag[k] - sub[k] * c[k - 1]
+        np.divide(sup[k], pivot, out=c[k])
+        np.divide(rhs[k] - sub[k] * d[k - 1], pivot, out=d[k])
     x = np.empty_like(d)
-    x[:, -1] = d[:, -1]
+    x[-1] = d[-1]
     for k in range(m - 2, -1, -1):
-        x[:, k] = d[:, k] - c[:, k] * x[:, k + 1]
+        np.subtract(d[k], c[k] * x[k + 1], out=x[k])
     return x
 
 
@@ -115,6 +120,33 @@ def stack_fit_pressures(
     return pressure, opened
 
 
+def _usable_parts(
+    do: NDArray[np.float64], di: NDArray[np.float64], e: NDArray[np.float64],
+    nu: NDArray[np.float64], mask: NDArray[np.bool_], full: bool,
+) -> NDArray[np.bool_]:
+    """Parts whose present layers all have ``0 < E < inf``, ``-1 < nu <= 0.5`` and
+    ``0 <= D_i < D_o``. NaN fails every comparison, so a missing value is caught too."""
+    n_parts, n_layers = do.shape
+    # The usual batch is all good: reductions (NaN propagates through min and max) settle
+    # that without writing a mask.
+    if full and n_parts and (e.min() > 0.0 and e.max() < np.inf and nu.min() > -1.0
+                             and nu.max() <= 0.5 and di.min() >= 0.0
+                             and bool(np.less(di, do).all())):
+        return np.ones(n_parts, dtype=bool)
+    # Whole blocks at once: the (P, L) rows are contiguous where a column is not.
+    good = np.greater(e, 0.0)
+    for value, bound, compare in ((nu, -1.0, np.greater), (nu, 0.5, np.less_equal),
+                                  (e, np.inf, np.less), (di, 0.0, np.greater_equal),
+                                  (di, do, np.less)):
+        good &= compare(value, bound)
+    if not full:
+        good |= ~mask
+    usable = good[:, 0].copy()
+    for slot in range(1, n_layers):
+        usable &= good[:, slot]
+    return usable
+
+
 def _solve(
     do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
     e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
@@ -142,18 +174,7 @@ def _solve(
     factors = shape_factors(do, di) if factors is None else factors
     full = bool(mask.all())
     with np.errstate(all="ignore"):
-        # NaN fails every comparison, so a missing value is caught here too. Whole blocks
-        # at once: the (P, L) rows are contiguous where a column is not.
-        good = np.greater(e, 0.0)
-        for value, bound, compare in ((nu, -1.0, np.greater), (nu, 0.5, np.less_equal),
-                                      (e, np.inf, np.less), (di, 0.0, np.greater_equal),
-                                      (di, do, np.less)):
-            good &= compare(value, bound)
-        if not full:
-            good |= ~mask
-        usable = good[:, 0].copy()
-        for slot in range(1, n_layers):
-            usable &= good[:, slot]
+        usable = _usable_parts(do, di, e, nu, mask, full)
         diag, lower, upper, rhs = [], [], [], []
         ki, ko = np.empty(n_parts), np.empty(n_parts)
         for k in range(1, n_layers):
@@ -208,13 +229,22 @@ def _solve(
             pressure[:, 1:][~(mask[:, 1:] & mask[:, :-1])] = np.nan
     rows = np.flatnonzero(pulling & usable)
     if rows.size:
-        fixed, fixed_open = _solve_with_contact(do[rows], di[rows], mask[rows], e[rows],
-                                                nu[rows], delta[rows])
-        pressure[rows] = fixed
-        opened[rows] = fixed_open
+        fixed, fixed_open = _solve_with_contact_by_layer(
+            *(_layer_rows(value, rows) for value in (do, di, mask, e, nu, delta)))
+        for k in range(n_layers):
+            pressure[:, k][rows] = fixed[k]
+            opened[:, k][rows] = fixed_open[k]
     if not usable.all():
         pressure[~usable] = np.nan
     return pressure, opened, usable
+
+
+def _layer_rows(value: NDArray, rows: NDArray[np.intp]) -> NDArray:
+    """``value[rows].T`` as a contiguous (L, n) array, gathered column by column."""
+    out = np.empty((value.shape[1], rows.size), dtype=value.dtype)
+    for k in range(value.shape[1]):
+        out[k] = value[:, k][rows]
+    return out
 
 
 def _solve_with_contact(
@@ -223,9 +253,23 @@ def _solve_with_contact(
 ) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
     """The whole solution, opening and re-closing interfaces until none pulls or overlaps.
 
-    Works on (n, L) arrays; run on the rows the first pass cannot settle.
+    Works on (n, L) arrays; run on the rows the first pass cannot settle. See
+    :func:`_solve_with_contact_by_layer`, which does the work on (L, n) arrays.
     """
-    n_parts, n_layers = do.shape
+    pressure, opened = _solve_with_contact_by_layer(
+        *(np.ascontiguousarray(np.asarray(v).T) for v in (do, di, mask, e, nu, delta)))
+    return pressure.T, opened.T
+
+
+def _solve_with_contact_by_layer(
+    do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_],
+    e: NDArray[np.float64], nu: NDArray[np.float64], delta: NDArray[np.float64],
+) -> tuple[NDArray[np.float64], NDArray[np.bool_]]:
+    """:func:`_solve_with_contact` on (L, n) arrays, layer slots first: a slot's values of
+    all parts are contiguous, so each step runs over the parts in one plain loop (an (n, L)
+    array would loop L values at a time). Returns (L, n) pressures and opened flags.
+    """
+    n_layers = do.shape[0]
     pressure = np.full(do.shape, np.nan)
     opened = np.zeros(do.shape, dtype=bool)
     if n_layers < 2:
@@ -233,44 +277,49 @@ def _solve_with_contact(
     with np.errstate(all="ignore"):
         usable = (di >= 0) & (di < do) & np.isfinite(do) & (e > 0) & np.isfinite(e) & (
             nu > -1.0) & (nu <= 0.5)
-        part_ok = np.all(usable | ~mask, axis=1)
-        ca_in, ca_out, cb_in, cb_out = _face_compliances(di, do, e, nu)
-        exists = mask[:, 1:] & mask[:, :-1] & part_ok[:, np.newaxis]
+        part_ok = np.all(usable | ~mask, axis=0)
+        # Each compliance only for the slots it is used at (outer members' bores, inner
+        # members' surfaces): the same values, element by element.
+        outer_member = (di[1:], do[1:], e[1:], nu[1:])
+        inner_member = (di[:-1], do[:-1], e[:-1], nu[:-1])
+        ca_in, ca_out = _face_compliances(*outer_member, ("ca_in", "ca_out"))
+        cb_in, cb_out = _face_compliances(*inner_member, ("cb_in", "cb_out"))
+        exists = mask[1:] & mask[:-1] & part_ok[np.newaxis, :]
         # Unknowns p_1 .. p_{L-1}; row k-1 is the interface at slot k. Scaling each row by
         # its radius makes the matrix symmetric (the compliance matrix of the stack).
-        radius = di[:, 1:] / 2.0
-        diag = radius * (ca_in[:, 1:] + cb_out[:, :-1])
-        sub = -radius * cb_in[:, :-1]
+        radius = di[1:] / 2.0
+        diag = radius * (ca_in + cb_out)
+        sub = -radius * cb_in
         sup = np.zeros_like(diag)
-        sup[:, :-1] = -radius[:, :-1] * ca_out[:, 1:-1]
-        rhs = radius * np.nan_to_num(delta[:, 1:], nan=0.0) / 2.0
+        sup[:-1] = -radius[:-1] * ca_out[:-1]
+        rhs = radius * nan_to_zero(delta[1:].ravel()).reshape(radius.shape) / 2.0
         # Couplings to a missing interface, and rows of missing ones, drop out.
-        sub[:, 0] = 0.0
-        sub[:, 1:] = np.where(exists[:, 1:] & exists[:, :-1], sub[:, 1:], 0.0)
-        sup[:, :-1] = np.where(exists[:, :-1] & exists[:, 1:], sup[:, :-1], 0.0)
+        sub[0] = 0.0
+        sub[1:] = np.where(exists[1:] & exists[:-1], sub[1:], 0.0)
+        sup[:-1] = np.where(exists[:-1] & exists[1:], sup[:-1], 0.0)
         diag = np.where(exists, diag, 1.0)
         rhs = np.where(exists, rhs, 0.0)
         active = exists.copy()
         p = np.zeros_like(diag)
+        a_sub = np.zeros_like(sub)
+        a_sup = np.zeros_like(sup)
         for _ in range(2 * n_layers):
-            a_sub = np.zeros_like(sub)
-            a_sub[:, 1:] = np.where(active[:, 1:] & active[:, :-1], sub[:, 1:], 0.0)
-            a_sup = np.zeros_like(sup)
-            a_sup[:, :-1] = np.where(active[:, :-1] & active[:, 1:], sup[:, :-1], 0.0)
+            a_sub[1:] = np.where(active[1:] & active[:-1], sub[1:], 0.0)
+            a_sup[:-1] = np.where(active[:-1] & active[1:], sup[:-1], 0.0)
             p = _solve_tridiagonal(
                 a_sub, np.where(active, diag, 1.0), a_sup, np.where(active, rhs, 0.0)
             )
             # Interference an open interface would not take up under these pressures: it
             # would overlap, so it closes again.
             untaken = rhs - diag * p
-            untaken[:, 1:] -= sub[:, 1:] * p[:, :-1]
-            untaken[:, :-1] -= sup[:, :-1] * p[:, 1:]
+            untaken[1:] -= sub[1:] * p[:-1]
+            untaken[:-1] -= sup[:-1] * p[1:]
             reclose = exists & ~active & (untaken > 0)
             release = active & (p < 0)
             if not (reclose.any() or release.any()):
                 break
             active = (active & ~release) | reclose
         p = np.where(active, p, 0.0)
-        pressure[:, 1:] = np.where(exists, p, np.nan)
-        opened[:, 1:] = exists & ~active
+        pressure[1:] = np.where(exists, p, np.nan)
+        opened[1:] = exists & ~active
     return pressure, opened
