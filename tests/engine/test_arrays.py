@@ -13,6 +13,7 @@ from twistshare.engine.core._arrays import (
     gather_layer_flags,
     layer_arrays,
     nan_to_zero,
+    one_or_nan,
     part_array,
     scalar_out,
     valid_or_nan,
@@ -168,3 +169,25 @@ def test_nan_to_zero_is_numpys_nan_to_num(value):
     np.testing.assert_array_equal(got, np.nan_to_num(value, nan=0.0))
     assert got[0] == 0.0
     assert np.isnan(value[0])  # a new array
+
+
+def test_nan_to_zero_in_place_is_bit_for_bit_numpys():
+    # Signed zeros and NaN payloads included: compared as raw bits.
+    value = np.array([NAN, -0.0, 0.0, 1.5, -2.5, NAN, 1e308])
+    expected = np.nan_to_num(value.copy(), nan=0.0)
+    got = nan_to_zero(value, out=value)
+    assert got.view(np.int64).tolist() == expected.view(np.int64).tolist()
+    assert value.view(np.int64).tolist() == expected.view(np.int64).tolist()  # written in place
+    with_inf = np.array([NAN, np.inf])
+    out = np.empty(2)
+    assert nan_to_zero(with_inf, out=out) is out and out.tolist() == np.nan_to_num(with_inf, nan=0.0).tolist()
+
+
+def test_one_or_nan_is_one_where_kept_and_numpys_nan_elsewhere():
+    keep = np.array([True, False, True, False])
+    got = one_or_nan(keep)
+    assert got.dtype == np.float64 and got[0] == 1.0 and got[2] == 1.0
+    assert np.isnan(got[[1, 3]]).all()
+    # the very bits of np.nan, so a product with it is numpy's own NaN
+    assert got.view(np.int64)[1] == np.array([np.nan]).view(np.int64)[0]
+    np.testing.assert_array_equal(np.array([2.0, 3.0, 4.0, 5.0]) * got, np.where(keep, [2.0, 3.0, 4.0, 5.0], np.nan))
