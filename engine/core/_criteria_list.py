@@ -100,6 +100,26 @@ class CriterionCheck:
     per_layer: bool
     capacity: Callable[[Section], NDArray[np.float64]]
 
+    def rate(self, section: Section) -> NDArray[np.float64]:
+        """The criterion's capacity for `section`, held to the shape it declares.
+
+        A criterion that sets no limit for the batch may return either of the section's
+        `Section.no_limit` arrays (per part is the cheaper for the governing minimum).
+
+        Raises
+        ------
+        ValueError
+            If the capacity is not ``(P, L)`` for a per-layer criterion or ``(P,)`` for a
+            per-part one (a new criterion written against the wrong shape).
+        """
+        values = self.capacity(section)
+        expected = section.gj.shape if self.per_layer else section.sum_gj.shape
+        if np.shape(values) != expected and not section.sets_no_limit(values):
+            kind = "per layer slot" if self.per_layer else "per part"
+            raise ValueError(f"criterion {self.criterion.name} is {kind}, so its capacity must have "
+                             f"shape {expected}; got {np.shape(values)}")
+        return values
+
 
 #: Key of `Section.shared` under which the caller may hand `_layer_stress` a writeable
 #: ``G * D_o * Kt`` array to finish in place (taken out once used).

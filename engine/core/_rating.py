@@ -220,7 +220,7 @@ def rate(
                           MappingProxyType(dict(inputs or {})))
         section.shared[LAYER_STRESS_DENOMINATOR] = denominator
         del denominator
-        capacities = {check.criterion: check.capacity(section) for check in CRITERIA}
+        capacities = {check.criterion: check.rate(section) for check in CRITERIA}
         for values in capacities.values():
             # A shared "no limit" array is read-only and NaN for these parts already.
             if invalid is not None and values.ndim == 1 and values.flags.writeable:
