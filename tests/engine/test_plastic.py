@@ -268,3 +268,67 @@ def test_one_part_alone_equals_the_same_part_in_a_batch(many, fraction):
         assert alone.first_yield_torque[0] == together.first_yield_torque[row]
         np.testing.assert_array_equal(torque_twist_curve(*one, n_points=9)[1][0], curve[row])
         assert permanent_twist(torque[row:row + 1], 1.0, *one)[0][0] == pytest.approx(twist[row], rel=1e-12)
+
+
+class TestInputEdges:
+    """The documented ranges at their edges (NaN for a part with an unusable layer), and the
+    closed forms of Beer & Johnston (as above) for the smallest sections."""
+
+    def test_any_positive_yield_gives_the_closed_form(self):
+        # T_p = (2 pi / 3) tau_y c^3 for a solid bar, for tau_y = 0.5 Pa as for 250 MPa.
+        c = 0.01
+        got = fully_plastic_torque(*_one(2 * c, 0.0, 80e9, 0.5)[:2], [[0.5]], [[True]])
+        assert got[0] == pytest.approx(2 * math.pi / 3 * 0.5 * c**3, rel=1e-12)
+
+    @pytest.mark.parametrize("outer, inner, modulus, tau_y", [
+        (0.02, 0.02, 80e9, 250e6),   # no wall
+        (0.02, 0.0, 0.0, 250e6),     # no stiffness
+        (0.02, 0.0, 80e9, 0.0),      # no yield strength
+    ])
+    def test_an_unusable_layer_gives_nan(self, outer, inner, modulus, tau_y):
+        args = _one(outer, inner, modulus, tau_y)
+        assert np.isnan(plastic_reserve(*args).fully_plastic_torque[0])
+
+    def test_an_absent_slot_adds_nothing(self):
+        alone = _one([0.03, 0.04], [0.0, 0.03], [80e9, 40e9], [200e6, 100e6])
+        padded = (np.array([[0.03, 0.04, np.nan]]), np.array([[0.0, 0.03, np.nan]]),
+                  np.array([[80e9, 40e9, np.nan]]), np.array([[200e6, 100e6, np.nan]]),
+                  np.array([[True, True, False]]))
+        one, two = plastic_reserve(*alone), plastic_reserve(*padded)
+        assert two.fully_plastic_torque[0] == pytest.approx(one.fully_plastic_torque[0], rel=1e-15)
+        assert two.first_yield_torque[0] == pytest.approx(one.first_yield_torque[0], rel=1e-15)
+        theta = plastic_torque([[0.5 * float(one.first_yield_twist_per_length[0])]], *padded[:4], padded[4])
+        expected = plastic_torque([[0.5 * float(one.first_yield_twist_per_length[0])]], *alone)
+        assert theta[0, 0] == pytest.approx(expected[0, 0], rel=1e-15)
+
+    def test_one_dimensional_inputs_are_refused_by_name(self):
+        with pytest.raises(ValueError) as error:
+            fully_plastic_torque([0.02], [0.0], [250e6], [True])
+        assert str(error.value) == "plastic torsion needs (parts, layers) arrays; got shape (1,)"
+
+
+class TestResidualOfAPartlyYieldedWire:
+    """A 1 mm wire, tau_y = 100 MPa, loaded between T_Y and T_p and unloaded: the surface,
+    at tau_y when loaded, springs back by T c / J (Beer & Johnston, residual stresses)."""
+
+    C = 0.5e-3
+    TAU_Y = 100e6
+
+    def _args(self):
+        return _one(2 * self.C, 0.0, 80e9, self.TAU_Y)
+
+    @pytest.mark.parametrize("sign", [1.0, -1.0])
+    def test_surface_residual(self, sign):
+        t_y = math.pi / 2 * self.C**3 * self.TAU_Y  # about 0.0196 N*m: under 1 N*m
+        torque = sign * 1.2 * t_y
+        j = math.pi / 2 * self.C**4
+        radius, stress, _ = residual_stress_profile([torque], *self._args())
+        assert radius.shape == (1, 1, 2)  # the default: each layer's inner and outer radius
+        assert radius[0, 0, -1] == pytest.approx(self.C, rel=1e-12)
+        expected = sign * (self.TAU_Y - abs(torque) * self.C / j)
+        assert stress[0, 0, -1] == pytest.approx(expected, rel=1e-9)
+
+    def test_too_few_points_are_refused_by_name(self):
+        with pytest.raises(ValueError) as error:
+            residual_stress_profile([0.01], *self._args(), points_per_layer=1)
+        assert str(error.value) == "points_per_layer must be at least 2; got 1"
