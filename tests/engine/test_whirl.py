@@ -200,3 +200,77 @@ def test_one_part_alone_equals_the_same_part_in_a_batch(batch, data):
     alone = whirl_check([b[0]], [b[0] * b[1]], [STEEL_E], [STEEL_RHO], b[2], b[3], b[4])
     assert alone.critical_speed[0] == together.critical_speed[pick]
     assert alone.reserve[0] == together.reserve[pick]
+
+
+class TestEdges:
+    """whirl_check's stated rules at their edges. The steel tube is the demo's: 60/40 mm,
+    1.2 m between pinned ends; sum(EI) and m are written here by their textbook forms."""
+
+    OUTER, INNER, SPAN = [[0.060]], [[0.040]], 1.2
+
+    def _check(self, speed=100.0, **kw):
+        args = dict(outer_diameter=kw.pop("outer", self.OUTER), inner_diameter=kw.pop("inner", self.INNER),
+                    youngs_modulus=kw.pop("modulus", [[STEEL_E]]), density=kw.pop("density", [[STEEL_RHO]]),
+                    length=kw.pop("length", self.SPAN), speed=speed)
+        args.update(kw)
+        return whirl_check(**args)
+
+    def test_unknown_support_codes_give_nan(self):
+        assert np.isnan(frequency_parameter(len(whirl_module._FIRST_EIGENVALUE)))
+        assert np.isnan(frequency_parameter(0)) and np.isnan(frequency_parameter(-1))
+
+    def test_an_absent_slot_weighs_nothing(self):
+        # m = rho pi/4 (Do^2 - Di^2) of the one layer present; the absent slot holds numbers
+        got = mass_per_length([[0.060, 0.080]], [[0.040, 0.060]], [[STEEL_RHO, 8900.0]],
+                              present=[[True, False]])
+        assert got[0] == pytest.approx(STEEL_RHO * math.pi / 4 * (0.060**2 - 0.040**2), rel=1e-12)
+
+    def test_a_reserve_of_exactly_one_passes(self):
+        ratio = float(self._check().speed_ratio[0])
+        check = self._check(ratio_limit=ratio)  # reserve = ratio / ratio = 1.0 exactly
+        assert check.reserve[0] == 1.0 and bool(check.passes[0])
+        assert not (int(check.part_flags[0]) & int(LoadFlag.SPEED_ABOVE_WHIRL_LIMIT))
+
+    def test_any_positive_material_is_a_material_and_infinity_is_not(self):
+        assert bool(self._check(modulus=[[0.5]], density=[[0.5]]).valid[0])
+        for field, flag in (("modulus", LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE),
+                            ("density", LoadFlag.DENSITY_NOT_POSITIVE)):
+            check = self._check(**{field: [[np.inf]]})
+            assert int(check.part_flags[0]) & int(flag) and not bool(check.valid[0])
+
+    def test_an_infinite_span_is_refused(self):
+        check = self._check(length=np.inf)
+        assert int(check.part_flags[0]) & int(LoadFlag.LENGTH_NOT_POSITIVE) and not bool(check.valid[0])
+
+    def test_a_given_bending_stiffness_is_used(self):
+        ei = STEEL_E * math.pi / 64 * (0.060**4 - 0.040**4)
+        computed = self._check()
+        given = self._check(sum_bending_stiffness=ei)
+        assert given.sum_ei[0] == pytest.approx(ei, rel=1e-15)
+        assert given.critical_speed[0] == pytest.approx(computed.critical_speed[0], rel=1e-12)
+        halved = self._check(sum_bending_stiffness=ei / 4)  # omega_1 grows with sqrt(EI)
+        assert halved.critical_speed[0] == pytest.approx(computed.critical_speed[0] / 2, rel=1e-12)
+
+    @pytest.mark.parametrize("field, value, shape", [("length", [1.0, 2.0, 3.0], "(3,)"),
+                                                     ("speed", [1.0, 2.0, 3.0], "(3,)"),
+                                                     ("sum_bending_stiffness", [1.0, 2.0, 3.0], "(3,)")])
+    def test_per_part_inputs_of_the_wrong_length_are_named(self, field, value, shape):
+        two = dict(outer=[[0.06], [0.06]], inner=[[0.04], [0.04]], modulus=[[STEEL_E], [STEEL_E]],
+                   density=[[STEEL_RHO], [STEEL_RHO]])
+        kw = {field: value} if field != "speed" else {}
+        with pytest.raises(ValueError) as error:
+            self._check(speed=value if field == "speed" else 100.0, **two, **kw)
+        assert str(error.value) == f"{field} must hold one value or one per part (2); got shape {shape}"
+
+    def test_support_of_the_wrong_shape_is_named(self):
+        with pytest.raises(ValueError) as error:
+            self._check(outer=[[0.06], [0.06]], inner=[[0.04], [0.04]], modulus=[[STEEL_E], [STEEL_E]],
+                        density=[[STEEL_RHO], [STEEL_RHO]], support=np.ones((2, 1), int))
+        assert str(error.value) == "support must hold one value or one per part (2); got shape (2, 1)"
+
+    def test_the_result_is_frozen_and_counts_its_parts(self):
+        check = self._check(outer=[[0.06], [0.06]], inner=[[0.04], [0.04]], modulus=[[STEEL_E], [STEEL_E]],
+                            density=[[STEEL_RHO], [STEEL_RHO]])
+        assert check.n_parts == 2
+        with pytest.raises(AttributeError):
+            check.reserve = None  # type: ignore[misc]
