@@ -167,3 +167,85 @@ def test_one_part_alone_equals_the_same_part_in_a_batch(batch, data):
     alone = _tube(b[0], b[0] * b[1], b[2], fs=1.5)
     assert alone.capacity[0] == together.capacity[pick]
     assert alone.part_flags[0] == together.part_flags[pick]
+
+
+class TestOneLayerWallAndEdges:
+    """One isotropic layer is its own equivalent wall: t, the mean radius, E and nu come back,
+    and Batdorf's Z = L^2 sqrt(1 - nu^2) / (r t) (Batdorf 1947, as in NASA SP-8007; from
+    memory). A thin steel tube 100/96 mm: t = 2 mm, r = 49 mm, r/t = 24.5."""
+
+    E, NU = 207e9, 0.3
+
+    def _check(self, outer=0.100, inner=0.096, length=1.5, fs=2.0, modulus=None, nu=None, **kw):
+        return torsional_buckling([[outer]], [[inner]], [[modulus or self.E]], [[self.NU if nu is None else nu]],
+                                  length, fs, **kw)
+
+    def test_the_equivalent_wall_of_one_layer_is_the_layer(self):
+        got = self._check()
+        t, r, length = 0.002, 0.049, 1.5
+        assert got.wall[0] == pytest.approx(t, rel=1e-12)
+        assert got.radius[0] == pytest.approx(r, rel=1e-12)
+        assert got.modulus[0] == pytest.approx(self.E, rel=1e-12)
+        assert got.poisson_ratio[0] == pytest.approx(self.NU, rel=1e-12)
+        assert got.radius_to_wall[0] == pytest.approx(r / t, rel=1e-12)
+        assert got.batdorf_z[0] == pytest.approx(length**2 * math.sqrt(1 - self.NU**2) / (r * t), rel=1e-12)
+        assert got.critical_torque[0] == pytest.approx(2 * math.pi * r * r * t * got.critical_stress[0], rel=1e-12)
+        assert got.capacity[0] == pytest.approx(got.critical_torque[0] / 2.0, rel=1e-12)
+
+    def test_an_absent_slot_changes_nothing(self):
+        alone = self._check()
+        padded = torsional_buckling([[0.100, 0.120]], [[0.096, 0.100]], [[self.E, 70e9]], [[self.NU, 0.33]],
+                                    1.5, 2.0, present=[[True, False]])
+        for name in ("wall", "radius", "modulus", "poisson_ratio", "batdorf_z", "capacity"):
+            assert getattr(padded, name)[0] == pytest.approx(getattr(alone, name)[0], rel=1e-12), name
+
+    def test_the_thin_wall_limit_is_inclusive_and_ten_by_default(self):
+        ratio = float(self._check().radius_to_wall[0])
+        assert np.isfinite(self._check(thin_wall_ratio=ratio).capacity[0])
+        # r/t 10.5 is checked, 9.5 is not (the default limit, 10: common practice)
+        for r_over_t, checked in ((10.5, True), (9.5, False)):
+            t = 0.002
+            r = r_over_t * t
+            got = self._check(outer=2 * r + t, inner=2 * r - t)
+            assert np.isfinite(got.capacity[0]) == checked
+            assert bool(int(got.part_flags[0]) & int(LoadFlag.NOT_THIN_WALLED)) == (not checked)
+
+    def test_a_solid_section_is_never_checked(self):
+        got = self._check(inner=0.0, thin_wall_ratio=0.5)  # a solid bar's r/t is 0.5
+        assert got.capacity[0] == np.inf and got.critical_torque[0] == np.inf
+        assert np.isnan(got.modulus[0]) and np.isnan(got.batdorf_z[0]) and np.isnan(got.critical_stress[0])
+
+    def test_the_short_tube_note_starts_below_z_fifty(self):
+        c = math.sqrt(1 - self.NU**2) / (0.049 * 0.002)  # Z per L^2
+        for z, short in ((50.5, False), (49.5, True)):
+            got = self._check(length=math.sqrt(z / c))
+            assert got.batdorf_z[0] == pytest.approx(z, rel=1e-9)
+            assert bool(int(got.part_flags[0]) & int(LoadFlag.SHORT_TUBE)) == short
+
+    @pytest.mark.parametrize("kw, flag", [
+        ({"modulus": np.inf}, LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE),
+        ({"nu": -1.0}, LoadFlag.POISSON_OUT_OF_RANGE), ({"nu": -1.5}, LoadFlag.POISSON_OUT_OF_RANGE),
+        ({"nu": 0.5000001}, LoadFlag.POISSON_OUT_OF_RANGE),
+        ({"length": np.inf}, LoadFlag.LENGTH_NOT_POSITIVE), ({"fs": np.inf}, LoadFlag.STRENGTH_NOT_POSITIVE),
+    ])
+    def test_inputs_out_of_range_are_errors(self, kw, flag):
+        got = self._check(**kw)
+        assert int(got.part_flags[0]) & int(flag) and not bool(got.valid[0])
+        assert np.isnan(got.capacity[0])
+
+    @pytest.mark.parametrize("kw", [{"modulus": 0.5}, {"nu": 0.5}, {"nu": -0.9}])
+    def test_inputs_at_the_edges_are_rated(self, kw):
+        assert bool(self._check(**kw).valid[0])
+
+    @pytest.mark.parametrize("field, position", [("length", 4), ("factor_of_safety", 5)])
+    def test_per_part_inputs_of_the_wrong_length_are_named(self, field, position):
+        args = [[[0.1], [0.1]], [[0.096], [0.096]], [[self.E], [self.E]], [[self.NU], [self.NU]], 1.5, 2.0]
+        args[position] = [1.0, 2.0, 3.0]
+        with pytest.raises(ValueError) as error:
+            torsional_buckling(*args)
+        assert str(error.value) == f"{field} must hold one value or one per part (2); got shape (3,)"
+
+    def test_the_result_is_frozen(self):
+        got = self._check()
+        with pytest.raises(AttributeError):
+            got.capacity = None  # type: ignore[misc]
