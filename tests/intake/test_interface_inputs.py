@@ -298,3 +298,20 @@ def test_a_bad_cell_in_the_row_per_layer_table_refuses_only_its_part():
     errors = [p for p in result.problems if p.severity is Severity.ERROR]
     assert [(p.sheet, p.cell) for p in errors] == [("Layers", "F3")]
     assert list(result.rated) == [False, True]
+
+
+def test_a_layer_row_of_an_unknown_part_names_no_adhesive():
+    parts = [["Part", "Length [mm]", "Torque [N·m]", "Operating temperature [°C]"], ["MPD-I-035", 500, 300, 95]]
+    layers = [LAYERS_HEAD,
+              ["MPD-I-035", 1, "MPD steel", 40, None, None, None, None, None, None],
+              ["MPD-I-035", 2, "MPD steel", 60, 40, None, None, None, 12, 30],
+              ["MPD-I-099", 2, "MPD steel", 60, 40, None, None, None, "cyanoacrylate", 30]]
+    result = rate_tables(MemoryBook({"Materials": MATERIALS, "Parts": parts, "Layers": layers}))
+    assert [p.code for p in result.problems if p.severity is Severity.ERROR] == ["unknown-part"]
+    assert not _found(result, "adhesive-too-hot")
+    assert result.parts.inputs["bond_allowable"][0, 1] == pytest.approx(_si(12, "MPa", "Pa"), rel=1e-12)
+
+
+def test_an_interference_over_an_empty_layer_is_stray():
+    result = _rated(BASE + FIT, ["MPD-I-036", 500, 300, None, None, None, "MPD steel", 60, 40, 0.02, None, None])
+    assert [(p.cell, p.layer) for p in _found(result, "stray-interface")] == [("J2", 2)]

@@ -8,6 +8,7 @@ written out here as its specification. Parts and materials are invented (BRIEF Â
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 import numpy as np
@@ -260,3 +261,11 @@ class TestStockListWords:
     def test_an_unknown_tail_unit_leaves_the_bare_sizes_without_a_unit(self):
         sizes, problem = parse_stock_list("60; 63 parsecs-ish", STOCK, None, None, "no unit in the header")
         assert sizes == [] and problem.startswith("stock size '60': ")
+
+
+def test_a_request_and_its_results_cannot_be_changed_after_the_fact():
+    s = _rated(_solid("MPD-Z-037", "outer diameter")).sizing
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        s.request.target = np.ones(1)
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        s.size = np.zeros(1)

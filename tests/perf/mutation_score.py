@@ -128,7 +128,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_layup", "intake", "engine/intake/_layup.py", [TI + "test_layup.py"]),
     ("intake_wound_layers", "intake", "engine/intake/_wound_layers.py", [TI + "test_layup.py", TI + "test_front_ends_agree.py"]),
     ("intake_sizing_input", "intake", "engine/intake/_sizing_input.py",
-     [TI + "test_sizing_input.py", TB + "test_sizing_book.py"]),
+     [TI + "test_sizing_input_book.py", TI + "test_sizing_input.py", TB + "test_sizing_book.py"]),
     ("intake_book", "intake", "engine/intake/_book.py", [TI + "test_beyond_torsion.py", TB + "test_materials_rules.py"]),
     ("intake_grid", "intake", "engine/intake/_grid.py", [TI + "test_beyond_torsion.py", TI + "test_front_ends_agree.py"]),
     ("intake_tables", "intake", "engine/intake/_tables.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
