@@ -269,3 +269,30 @@ def test_a_request_and_its_results_cannot_be_changed_after_the_fact():
         s.request.target = np.ones(1)
     with pytest.raises(dataclasses.FrozenInstanceError):
         s.size = np.zeros(1)
+
+
+def test_a_bore_no_size_of_which_holds_is_warned_on_the_size_cell():
+    # even solid, 50 mm holds only τa·π·d³/16 ≈ 1.47 kN·m (Roark's): no bore carries 10 kN·m
+    assert TAU * math.pi * (50 * MM) ** 3 / 16 < 10000
+    result = _rated(_solid("MPD-Z-038", "core bore", torque=10000), _solid("MPD-Z-039", "core bore", torque=100))
+    s = result.sizing
+    assert list(s.status) == [SizingStatus.SHORT_AT_MOST, SizingStatus.SOLVED]
+    (p,) = [p for p in result.problems if p.code == "sizing"]
+    assert (p.severity, p.cell, p.part) == (Severity.WARNING, "J2", "MPD-Z-038")
+    assert p.message == "part MPD-Z-038: sizing: no size in the range holds"
+    # the bore where τ = τa: d_i⁴ = d⁴ − 16·T·d/(π·τa) (Roark's, hollow round)
+    bore = ((50 * MM) ** 4 - 16 * 100 * (50 * MM) / (math.pi * TAU)) ** 0.25
+    assert s.size[1] == pytest.approx(bore, abs=0.002 * MM)
+    assert list(result.rated) == [True, True]
+
+
+def test_a_core_grown_under_a_moving_sleeve_is_a_solid_shaft_of_the_same_steel():
+    # core and sleeve of one steel: the section is a solid bar of the sleeve's outer diameter,
+    # d_o = (16·T·RF/(π·τa))^(1/3) (Roark's); the sleeve keeps its 10 mm wall and moves out
+    result = _rated(_sleeved("MPD-Z-040", "layer 1 outer diameter"), _solid("MPD-Z-041", "outer diameter"),
+                    _sleeved("MPD-Z-042", "layer 2 outer diameter", outer="fixed"))
+    s = result.sizing
+    assert s.size[0] == pytest.approx(_d(2000, 1.0) - 20 * MM, abs=0.002 * MM)
+    assert s.size[1] == pytest.approx(_d(1000, 1.0), abs=0.002 * MM)
+    assert s.size[2] == pytest.approx(_d(2000, 1.0), abs=0.002 * MM)
+    assert list(s.status) == [SizingStatus.SOLVED] * 3

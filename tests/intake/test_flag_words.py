@@ -192,3 +192,28 @@ def test_several_flags_of_one_layer_are_each_told():
     found, _ = _words(parts)
     assert [(p.code, p.cell) for p in found if p.layer == 2] == [("allowable-not-positive", "J2"),
                                                                   ("kt-below-one", "M2")]
+
+
+@pytest.mark.parametrize("edit, flag", [
+    (lambda p: p.length.__setitem__(0, math.nan), PartFlag.LENGTH_NOT_GIVEN),
+    (lambda p: p.torque.__setitem__(0, math.nan), PartFlag.TORQUE_NOT_GIVEN),
+])
+def test_a_missing_length_or_torque_on_a_rated_part_is_a_warning_on_the_part(edit, flag):
+    parts = _read(["MPD-F-020", *ROW])
+    parts.twist_limit_angle[0] = parts.twist_limit_per_length[0] = math.nan
+    edit(parts)
+    found, rating = _words(parts)
+    assert rating.valid[0]
+    p = _one(found, flag.name.lower().replace("_", "-"))
+    assert (p.severity, p.sheet, p.cell) == (Severity.WARNING, "Parts", None)
+    assert p.message == f"part MPD-F-020: {describe(flag)}"
+
+
+def test_an_empty_slot_between_layers_is_told_on_its_material_cell():
+    head = HEAD + ["Layer 3 material", "Layer 3 outer diameter [mm]", "Layer 3 inner diameter [mm]"]
+    parts = _read(["MPD-F-021", *ROW, "MPD steel", 80, 60], head=head)
+    parts.present[0, 1] = False
+    found, _ = _words(parts)
+    p = _one(found, "empty-slot-between-layers")
+    assert (p.cell, p.layer, p.severity) == ("J2", 2, Severity.ERROR)
+    assert p.message == f"part MPD-F-021, layer 2: {describe(LayerFlag.EMPTY_SLOT_BETWEEN_LAYERS)}"
