@@ -315,3 +315,37 @@ def test_a_layer_row_of_an_unknown_part_names_no_adhesive():
 def test_an_interference_over_an_empty_layer_is_stray():
     result = _rated(BASE + FIT, ["MPD-I-036", 500, 300, None, None, None, "MPD steel", 60, 40, 0.02, None, None])
     assert [(p.cell, p.layer) for p in _found(result, "stray-interface")] == [("J2", 2)]
+
+
+def test_an_assembly_temperature_alone_is_read():
+    result = _rated(BASE + FIT + ["Assembly temperature [°C]"], ["MPD-I-037", *SLEEVED, 0.02, 50, 0.12, 35])
+    assert "operating_temperature" not in result.parts.inputs
+    assert result.parts.inputs["assembly_temperature"][0] == pytest.approx(_si(35, "degC", "K"), rel=1e-12)
+
+
+def test_a_bad_interface_cell_still_refuses_its_part_beside_a_temperature_column():
+    result = _rated(BASE + FIT + ["Operating temperature [°C]"], ["MPD-I-038", *SLEEVED, "abc", 50, 0.12, 40],
+                    ["MPD-I-039", *SLEEVED, 0.02, 50, 0.12, 40])
+    assert [p.cell for p in result.problems if p.severity is Severity.ERROR] == ["J2"]
+    assert list(result.rated) == [False, True]
+
+
+def test_an_adhesive_name_in_a_fit_cell_is_not_a_bond():
+    result = _rated(BASE + FIT + ["Operating temperature [°C]"],
+                    ["MPD-I-040", *SLEEVED, "cyanoacrylate", 50, 0.12, 95])
+    assert [p.cell for p in result.problems if p.severity is Severity.ERROR] == ["J2"]
+    assert not _found(result, "adhesive-too-hot")
+
+
+def test_a_cell_function_without_allowables_reads_the_fit_from_the_materials_own_values():
+    # TWS_SHARE needs no allowable: E and ν of a material without one still feed the fit;
+    # same G, so the shares are J_i/ΣJ, (40/60)⁴ for the core (twist compatibility)
+    from twistshare.engine.cells import TWS_SHARE
+
+    mats = [["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Yield strength [MPa]"], ["MPD core", 79.6, 207, 0.3, 400]]
+    block = [["Material", "Outer diameter [mm]", "Inner diameter [mm]", "Interference [mm]", "Fit length [mm]",
+              "Friction"], ["MPD core", 40, None, None, None, None], ["MPD core", 60, 40, 0.02, 50, 0.12]]
+    got = TWS_SHARE(block, None, mats)
+    assert got[0] == ["share"]
+    assert got[1][0] == pytest.approx((40 / 60) ** 4, rel=1e-12)
+    assert got[2][0] == pytest.approx(1 - (40 / 60) ** 4, rel=1e-12)

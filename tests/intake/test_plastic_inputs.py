@@ -17,7 +17,9 @@ import numpy as np
 import pint
 import pytest
 from _membook import MemoryBook
+from twistshare.engine.core import AllowableRule
 from twistshare.engine.intake import Severity, rate_tables
+from twistshare.engine.intake._plastic_inputs import SHEAR_YIELD_FACTOR
 
 U = pint.UnitRegistry()
 MPA = U.Quantity(1, "MPa").to("Pa").magnitude
@@ -119,3 +121,8 @@ def test_the_row_per_layer_table_notes_on_the_layer_row():
     result = rate_tables(MemoryBook({"Materials": MATERIALS, "Parts": parts, "Layers": layers}))
     (note,) = _notes(result)
     assert (note.sheet, note.cell, note.layer) == ("Layers", "C3", 2)
+
+
+def test_the_exported_factor_table_is_tresca():
+    # shear yield over yield strength by the maximum-shear-stress rule: 1/2 (Shigley's)
+    assert SHEAR_YIELD_FACTOR == {int(AllowableRule.MAX_SHEAR): 0.5}

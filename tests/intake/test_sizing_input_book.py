@@ -296,3 +296,61 @@ def test_a_core_grown_under_a_moving_sleeve_is_a_solid_shaft_of_the_same_steel()
     assert s.size[1] == pytest.approx(_d(1000, 1.0), abs=0.002 * MM)
     assert s.size[2] == pytest.approx(_d(2000, 1.0), abs=0.002 * MM)
     assert list(s.status) == [SizingStatus.SOLVED] * 3
+
+
+def test_a_size_column_alone_sizes_to_a_reserve_of_one_without_stock():
+    head = HEAD[:10]
+    result = _rated(_solid("MPD-Z-043", "outer diameter")[:10], _solid("MPD-Z-044", "layer 4 wall")[:10],
+                    _solid("MPD-Z-045", None)[:10], head=head)
+    s = result.sizing
+    assert s.size[0] == pytest.approx(_d(1000, 1.0), abs=0.002 * MM)
+    assert list(s.request.target) == [1.0, 1.0, 1.0]
+    assert s.request.stock.shape == (3, 0) and s.request.stock_col is None and s.request.stock_cell(0) is None
+    assert list(s.request.asked) == [True, False, False]  # the refused part asks nothing any more
+    assert list(s.request.dimension) == [OD, -1, -1]
+    assert list(s.has_stock) == [False, False, False]
+    # not sized, or no stock: -1 for the layers, as the results sheet writes them
+    assert list(s.governing_layer) == [0, -1, -1] and list(s.stock_layer) == [-1, -1, -1]
+    assert list(s.stock_status) == [-1, -1, -1]
+    assert [p.code for p in _errors(result)] == ["size-layer"]
+
+
+def test_every_size_cell_after_an_error_value_is_still_read():
+    result = _rated(_solid("MPD-Z-046", "#N/A")[:10], _solid("MPD-Z-047", "outer diameter")[:10], head=HEAD[:10])
+    assert list(result.sizing.request.asked) == [False, True]
+    assert list(result.sizing.sized) == [False, True]
+
+
+def test_every_outer_layers_cell_after_a_blank_is_still_read():
+    result = _rated(_sleeved("MPD-Z-048", "core bore"), _sleeved("MPD-Z-049", "core bore", outer="fixed"))
+    assert list(result.sizing.request.outer_layers) == [MOVE, FIXED]
+
+
+def test_a_part_refused_by_another_cell_does_not_stop_the_layer_check_of_the_next():
+    bad = _sleeved("MPD-Z-050", "layer 2 wall")
+    bad[2] = "abc"  # the torque cell
+    result = _rated(bad, _sleeved("MPD-Z-051", "layer 3 outer diameter"))
+    assert [(p.code, p.cell) for p in _errors(result)][-1] == ("size-layer", "J3")
+    assert [p.cell for p in _errors(result)][0] == "C2"
+    assert list(result.rated) == [False, False]
+
+
+def test_a_stock_list_on_a_part_that_sizes_nothing_is_not_read():
+    result = _rated(_solid("MPD-Z-052", None, stock="60; 65; 70"), _solid("MPD-Z-053", "outer diameter", stock="55"))
+    s = result.sizing
+    assert s.request.stock.shape == (2, 1)
+    assert np.isnan(s.request.stock[0]).all() and s.request.stock[1, 0] == pytest.approx(55 * MM, rel=1e-12)
+
+
+def test_sizing_judges_every_size_with_the_parts_other_inputs():
+    # bending held at its value: the maximum-shear (Tresca) shaft, d³ = 16·√(M² + T²)/(π·τa)
+    # (Shigley's Mechanical Engineering Design, shafts under steady bending and torsion)
+    mats = [["Material", "G [GPa]", "E [GPa]", "Allowable shear [MPa]", "Allowable rule"],
+            ["MPD core steel", 80, 200, 60, "given"]]
+    head = HEAD[:10] + ["Bending moment [N·m]"]
+    rows = [_solid("MPD-Z-054", "outer diameter")[:10] + [800], _solid("MPD-Z-055", "outer diameter")[:10] + [None]]
+    result = rate_tables(MemoryBook({"Materials": mats, "Parts": [head, *rows]}))
+    s = result.sizing
+    d_bent = (16 * math.hypot(800, 1000) / (math.pi * TAU)) ** (1 / 3)
+    assert s.size[0] == pytest.approx(d_bent, abs=0.002 * MM)
+    assert s.size[1] == pytest.approx(_d(1000, 1.0), abs=0.002 * MM)
