@@ -2,11 +2,12 @@
 
 Outside sources: each unit through pint's own definitions (GPa, MPa, mm, °C and °F to kelvin);
 the interference at temperature δ(T) = δ₀ − (α_outer − α_inner)·d·(T − T₀) of a sleeve and its
-core (free thermal growth of two rings, Shigley's Mechanical Engineering Design, press and shrink
-fits); the same-material shrink fit on a solid shaft p = E·δ·(do² − d²)/(2·d·do²) and the sleeve's
-bore hoop stress p·(do² + d²)/(do² − d²) (Lamé, ibid.). The messages are the intake's own
-wording, written out here as its specification. Expansion coefficients of steel 11.7e-6/K and of
-a bronze 18e-6/K are typical values, from memory. Parts are invented (BRIEF §4).
+core (the free thermal growth of both members at the fit diameter; common practice); the
+same-material shrink fit on a solid shaft p = E·δ·(do² − d²)/(2·d·do²) and the sleeve's bore
+hoop stress p·(do² + d²)/(do² − d²) (Lamé; Shigley's Mechanical Engineering Design, press and
+shrink fits). The messages are the intake's own wording, written out here as its specification.
+Expansion coefficients of steel 11.7e-6/K and of a bronze 18e-6/K are typical values, from
+memory. Parts are invented (BRIEF §4).
 """
 
 from __future__ import annotations
