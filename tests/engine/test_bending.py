@@ -190,3 +190,57 @@ def test_stress_is_linear_in_the_moment(part, moment, scale):
     once = section_bending(*part, moment)
     scaled = section_bending(*part, moment * scale)
     np.testing.assert_allclose(scaled.bending_outer, once.bending_outer * scale, rtol=1e-12)
+
+
+class TestSectionBendingEdges:
+    """section_bending's per-layer and summed stiffness by the textbook forms
+    (I = pi/64 (Do^4 - Di^4), A = pi/4 (Do^2 - Di^2)), and its rules at their edges."""
+
+    DO, DI, E = [[0.040, 0.050]], [[0.0, 0.040]], [[207e9, 110e9]]
+
+    def test_each_layers_ei_and_the_sums(self):
+        got = section_bending(self.DO, self.DI, self.E, 500.0, 2000.0)
+        ei = [self.E[0][i] * math.pi / 64 * (self.DO[0][i] ** 4 - self.DI[0][i] ** 4) for i in range(2)]
+        ea = [self.E[0][i] * math.pi / 4 * (self.DO[0][i] ** 2 - self.DI[0][i] ** 2) for i in range(2)]
+        np.testing.assert_allclose(got.ei[0], ei, rtol=1e-12)
+        assert got.sum_ei[0] == pytest.approx(sum(ei), rel=1e-12)
+        assert got.sum_ea[0] == pytest.approx(sum(ea), rel=1e-12)
+        assert got.n_parts == 1
+
+    def test_an_absent_slot_and_an_unusable_part_beside_a_good_one(self):
+        got = section_bending([[0.040, 0.050], [0.040, 0.050]], [[0.0, 0.040], [0.0, 0.040]],
+                              [[207e9, 110e9], [-1.0, 110e9]], 500.0, 2000.0,
+                              present=[[True, False], [True, True]])
+        assert got.sum_ei[0] == pytest.approx(207e9 * math.pi / 64 * 0.040**4, rel=1e-12)
+        assert got.sum_ea[0] == pytest.approx(207e9 * math.pi / 4 * 0.040**2, rel=1e-12)
+        assert np.isnan(got.sum_ei[1]) and np.isnan(got.sum_ea[1])
+        assert bool(got.valid[0]) and not bool(got.valid[1]) and got.n_parts == 2
+
+    def test_any_positive_modulus_is_one_and_infinity_is_not(self):
+        assert bool(section_bending([[0.04]], [[0.0]], [[0.5]], 1.0).valid[0])
+        got = section_bending([[0.04]], [[0.0]], [[np.inf]], 1.0)
+        assert int(got.part_flags[0]) & int(LoadFlag.YOUNGS_MODULUS_NOT_POSITIVE) and not bool(got.valid[0])
+
+    def test_a_part_without_axial_force_beside_one_with_it(self):
+        # The normal stress is the bending stress with the axial stress's sign; no force: +.
+        got = section_bending([[0.04], [0.04]], [[0.0], [0.0]], [[207e9], [207e9]], 500.0, [-5000.0, 0.0])
+        bending = 32 * 500.0 / (math.pi * 0.04**3)  # M c / I of a solid bar
+        assert got.axial[1, 0] == 0.0
+        assert got.normal_outer[1, 0] == pytest.approx(bending, rel=1e-12)
+        assert got.normal_outer[0, 0] == pytest.approx(-(bending + 5000.0 / (math.pi / 4 * 0.04**2)), rel=1e-12)
+
+    def test_no_axial_force_anywhere(self):
+        got = section_bending([[0.04]], [[0.0]], [[207e9]], 500.0)
+        assert got.axial.tolist() == [[0.0]]
+        assert got.normal_outer[0, 0] == got.bending_outer[0, 0]
+
+    def test_axial_force_of_the_wrong_length_is_named(self):
+        with pytest.raises(ValueError) as error:
+            section_bending([[0.04], [0.04]], [[0.0], [0.0]], [[207e9], [207e9]], 500.0, [1.0, 2.0, 3.0])
+        assert str(error.value) == "axial_force must hold one value or one per part (2); got shape (3,)"
+
+    def test_the_result_is_frozen_and_the_area_of_a_solid_is_the_default(self):
+        got = section_bending([[0.04]], [[0.0]], [[207e9]], 500.0)
+        with pytest.raises(AttributeError):
+            got.sum_ei = None  # type: ignore[misc]
+        assert section_area(0.05) == pytest.approx(math.pi / 4 * 0.05**2, rel=1e-15)
