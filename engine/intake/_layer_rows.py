@@ -156,7 +156,7 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     rowmap[p, j] = np.asarray(rows, dtype=np.intp)[src]
     out.cells.by_layer(rowmap, {key: c.index for key in (*_NUMERIC_KEYS, "material")
                                 if (c := spot.column(key)) is not None})
-    if mcol is not None and (grid.errors or may_hold_error_values(names)):
+    if mcol is not None and (grid.errors or may_hold_error_values(dict.fromkeys(names))):
         for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
             err = error_problem(grid, rows[i], mcol.index, "a material name")
             if err is not None:

@@ -101,7 +101,8 @@ def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, find
     modulus = np.full(n, np.nan)
     bad = np.zeros(n, bool)
     tag = who.tag
-    if not _NUMBER_START.search("\n" + "\n".join(filter(None, names))):
+    # A column repeats a few names: each distinct one is screened once.
+    if not _NUMBER_START.search("\n" + "\n".join(filter(None, dict.fromkeys(names)))):
         return names, modulus, bad  # names only (no text starts like a number): the common case
     for i, text in enumerate(names):
         if text is None or not (text[:1].isdigit() or text[:1] in "+-." and text[1:2].isdigit()):
