@@ -46,18 +46,24 @@ def test_the_method_line_word_for_word():
         "fatigue is not checked here.")
 
 
-def test_what_governs_word_for_word():
-    assert dict(CRITERION_WORDS) == {
-        Criterion.LAYER_STRESS: "layer {layer} stress",
-        Criterion.TWIST_ANGLE: "twist angle limit",
-        Criterion.TWIST_PER_LENGTH: "twist per length limit",
-        Criterion.COMBINED_STRESS: "layer {layer} combined stress (bending held at its given value)",
-        Criterion.WHIRL: "whirl: speed above 70 % of the first critical",
-        Criterion.TORSIONAL_BUCKLING: "torsional buckling of the wall",
-        Criterion.INTERFACE_SLIP: "slip of the fit between layers {inner} and {layer}",
-        Criterion.BOND_SHEAR: "average bond shear between layers {inner} and {layer}",
-        Criterion.FIT_STRESS: "layer {layer} fit and torsion stress",
-    }
+@pytest.mark.parametrize("criterion, layer, text", [
+    (Criterion.LAYER_STRESS, 1, "layer 2 stress"),
+    (Criterion.TWIST_ANGLE, -1, "twist angle limit"),
+    (Criterion.TWIST_PER_LENGTH, -1, "twist per length limit"),
+    (Criterion.COMBINED_STRESS, 0, "layer 1 combined stress (bending held at its given value)"),
+    (Criterion.WHIRL, -1, "whirl: speed above 70 % of the first critical"),
+    (Criterion.TORSIONAL_BUCKLING, -1, "torsional buckling of the wall"),
+    (Criterion.INTERFACE_SLIP, 2, "slip of the fit between layers 2 and 3"),
+    (Criterion.BOND_SHEAR, 1, "average bond shear between layers 1 and 2"),
+    (Criterion.FIT_STRESS, 2, "layer 3 fit and torsion stress"),
+])
+def test_what_governs_word_for_word(criterion, layer, text):
+    # Every criterion has words, and they read as the results sheet prints them.
+    assert set(CRITERION_WORDS) == {c for c in Criterion if c != Criterion.NONE}
+    assert governs_text(criterion, layer, None) == text
+
+
+def test_the_criterion_nouns_word_for_word():
     assert dict(CRITERION_NOUNS) == {
         Criterion.LAYER_STRESS: "a layer's shear stress",
         Criterion.TWIST_ANGLE: "twist angle limit",
