@@ -144,7 +144,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
                                                   TE + "test_units_values.py"]),
     ("units_grammar", "units", "engine/units/_grammar.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
-    ("units_factors", "units", "engine/units/_factors.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
+    ("units_factors", "units", "engine/units/_factors.py", [TE + "test_units_factors.py", TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
     ("units_values", "units", "engine/units/_values.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
@@ -158,10 +158,11 @@ def _equivalents() -> set[tuple[str, int, str]]:
     if not EQUIVALENTS.exists():
         return set()
     found = set()
-    for m in re.finditer(r"^\|\s*`([^`]+)`\s*\|\s*(\d+)\s*\|\s*`(.+?)`\s*→\s*`(.+?)`\s*\|", EQUIVALENTS.read_text(),
+    # `new` may be empty (a line removed): ``| `f` | 15 | `/ @lru_cache(...)` → `` | reason |``.
+    for m in re.finditer(r"^\|\s*`([^`]+)`\s*\|\s*(\d+)\s*\|\s*`(.+?)`\s*→\s*`(.*?)`\s*\|", EQUIVALENTS.read_text(),
                          re.MULTILINE):
         old, new = (g.replace("\\|", "|").strip() for g in (m.group(3), m.group(4)))  # markdown escapes | in tables
-        found.add((m.group(1), int(m.group(2)), old + " -> " + new))
+        found.add((m.group(1), int(m.group(2)), (old + " -> " + new).strip()))
     return found
 
 
@@ -249,7 +250,7 @@ def report() -> dict:
     left = []
     for path in sorted(RESULTS.glob("*.json")):
         r = json.loads(path.read_text())
-        alive = [s for s in r["survivors"] if (s["file"], s["line"], s["diff"]) not in equivalent]
+        alive = [s for s in r["survivors"] if (s["file"], s["line"], s["diff"].strip()) not in equivalent]
         killed_or_equivalent = r["total"] - len(alive)
         tally = per_package.setdefault(r["package"], [0, 0])
         tally[0] += killed_or_equivalent
