@@ -12,7 +12,7 @@ import math
 
 import numpy as np
 import pytest
-from twistshare.engine.core import AllowableRule, Criterion, Duty, LayerStack, rate
+from twistshare.engine.core import AllowableRule, Criterion, Duty, EndSupport, LayerStack, rate
 
 NEW = (Criterion.COMBINED_STRESS, Criterion.WHIRL, Criterion.TORSIONAL_BUCKLING)
 
@@ -77,3 +77,74 @@ def test_unused_slots_are_nan_for_the_per_layer_criterion():
     inputs = {"bending_moment": np.array([100.0]), "youngs_modulus": np.array([[200e9, np.nan]])}
     cap = rate(stack, Duty.from_arrays(100.0, 1.0), inputs=inputs).criterion_capacity[Criterion.COMBINED_STRESS]
     assert np.isfinite(cap[0, 0]) and np.isnan(cap[0, 1])
+
+
+def _buckling_expected(do, di, span, e, nu, fs):
+    # The closed forms of the module notes (Timoshenko & Gere; Batdorf; knock-down 0.67).
+    r_mean, t = (do + di) / 4, (do - di) / 2
+    long = e / (3 * math.sqrt(2) * (1 - nu**2) ** 0.75) * (t / r_mean) ** 1.5
+    z = span**2 * math.sqrt(1 - nu**2) / (r_mean * t)
+    moderate = 0.85 * z**0.75 * math.pi**2 * e / (12 * (1 - nu**2)) * (t / span) ** 2
+    return 2 * math.pi * r_mean**2 * t * 0.67 * max(long, moderate) / fs
+
+
+def _two(do, di):
+    return LayerStack.from_arrays([[do], [do]], [[di], [di]], [[80e9], [80e9]], [[100e6], [100e6]], 1.0)
+
+
+class TestPartsThatCannotBeCheckedBesideOnesThatCan:
+    """A batch rated together: each part's criteria are its own (+inf where not given)."""
+
+    def test_an_unloaded_part_has_no_combined_limit_beside_a_loaded_one(self):
+        inputs = {"bending_moment": np.array([400.0, np.nan]), "youngs_modulus": np.array([[200e9], [200e9]])}
+        cap = rate(_two(0.05, 0.0), Duty.from_arrays([100.0, 100.0], 1.0), inputs=inputs).criterion_capacity[
+            Criterion.COMBINED_STRESS]
+        assert np.isfinite(cap[0, 0]) and cap[1, 0] == np.inf
+
+    def test_an_axial_force_alone_is_a_load(self):
+        inputs = {"axial_force": np.array([-200e3]), "youngs_modulus": np.array([[200e9]])}
+        cap = rate(_stack(0.05, 0.0), Duty.from_arrays(100.0, 1.0), inputs=inputs).criterion_capacity[
+            Criterion.COMBINED_STRESS]
+        # sigma = F / A; maximum shear: tau_a^2 = (sigma/2)^2 + tau^2, tau = 16 T / (pi d^3)
+        sigma = 200e3 / (math.pi / 4 * 0.05**2)
+        tau = math.sqrt(100e6**2 - (sigma / 2) ** 2)
+        assert cap[0, 0] == pytest.approx(tau * math.pi * 0.05**3 / 16, rel=1e-9)
+
+    def test_buckling_where_the_properties_are_given_and_inf_where_not(self):
+        do, di, span, e, nu = 0.204, 0.200, 3.0, 200e9, 0.3
+        inputs = {"youngs_modulus": np.array([[e], [e], [e]]), "poisson_ratio": np.array([[nu], [np.nan], [0.7]])}
+        stack = LayerStack.from_arrays([[do]] * 3, [[di]] * 3, [[80e9]] * 3, [[100e6]] * 3, 1.0)
+        cap = rate(stack, Duty.from_arrays([100.0] * 3, [span, span, span]), inputs=inputs).criterion_capacity[
+            Criterion.TORSIONAL_BUCKLING]
+        # no factor of safety given: 1
+        assert cap[0] == pytest.approx(_buckling_expected(do, di, span, e, nu, 1.0), rel=1e-9)
+        assert cap[1] == np.inf  # no Poisson's ratio: not checked
+        assert cap[2] == np.inf  # a Poisson's ratio the check refuses: no buckling limit from it
+
+    def test_a_blank_factor_of_safety_is_one_and_a_given_one_divides(self):
+        do, di, span, e, nu = 0.204, 0.200, 3.0, 200e9, 0.3
+        inputs = {"youngs_modulus": np.array([[e], [e]]), "poisson_ratio": np.array([[nu], [nu]]),
+                  "factor_of_safety": np.array([[np.nan], [2.5]])}
+        cap = rate(_two(do, di), Duty.from_arrays([100.0, 100.0], span), inputs=inputs).criterion_capacity[
+            Criterion.TORSIONAL_BUCKLING]
+        assert cap[0] == pytest.approx(_buckling_expected(do, di, span, e, nu, 1.0), rel=1e-9)
+        assert cap[1] == pytest.approx(_buckling_expected(do, di, span, e, nu, 2.5), rel=1e-9)
+
+    def test_a_part_without_a_length_is_not_checked_for_buckling(self):
+        do, di, e, nu = 0.204, 0.200, 200e9, 0.3
+        inputs = {"youngs_modulus": np.array([[e], [e]]), "poisson_ratio": np.array([[nu], [nu]])}
+        cap = rate(_two(do, di), Duty.from_arrays([100.0, 100.0], [3.0, np.nan]), inputs=inputs).criterion_capacity[
+            Criterion.TORSIONAL_BUCKLING]
+        assert np.isfinite(cap[0]) and cap[1] == np.inf
+
+    def test_the_end_support_changes_the_whirl_gate(self):
+        # omega_1 = beta^2 sqrt(EI / m) / L^2: beta^2 = pi^2 pinned-pinned, 3.516 fixed-free
+        # (Blevins, Formulas for Natural Frequency and Mode Shape; from memory).
+        do, span, e, rho = 0.05, 1.0, 200e9, 7850.0
+        omega_pinned = math.pi**2 * math.sqrt(e * math.pi / 64 * do**4 / (rho * math.pi / 4 * do**2)) / span**2
+        speed = 0.5 * omega_pinned  # ratio 0.5 pinned (passes), 0.5 * 9.87 / 3.516 = 1.4 fixed-free
+        inputs = {"speed": np.array([speed, speed]), "youngs_modulus": np.array([[e], [e]]),
+                  "density": np.array([[rho], [rho]]), "end_support": np.array([np.nan, float(EndSupport.FIXED_FREE)])}
+        cap = rate(_two(do, 0.0), Duty.from_arrays([100.0, 100.0], span), inputs=inputs).criterion_capacity[
+            Criterion.WHIRL]
+        assert cap[0] == np.inf and cap[1] == 0.0

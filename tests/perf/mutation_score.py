@@ -83,7 +83,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("core_whirl", "core", "engine/core/_whirl.py", [TE + "test_whirl.py"]),
     ("core_buckling", "core", "engine/core/_buckling.py", [TE + "test_buckling.py"]),
     ("core_beyond_torsion_criteria", "core", "engine/core/_beyond_torsion_criteria.py",
-     [TE + "test_beyond_torsion_criteria.py", TE + "test_combined.py"]),
+     [TE + "test_beyond_torsion_criteria.py", TE + "test_combined.py", TI + "test_beyond_torsion.py"]),
     ("core_sizing", "core", "engine/core/_sizing.py", [TE + "test_sizing.py"]),
     ("core_sizing_geometry", "core", "engine/core/_sizing_geometry.py", [TE + "test_sizing.py"]),
     ("core_stock", "core", "engine/core/_stock.py", [TE + "test_sizing.py"]),
