@@ -106,7 +106,9 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
      [TE + "test_materials.py", TE + "test_materials_laminate.py"]),
     ("core_material_library", "core", "engine/core/_material_library.py", [TE + "test_materials.py"]),
     # the intake, below both front ends
-    ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py", TI + "test_words_spellings.py"]),
+    ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py", TI + "test_words_spellings.py",
+                                                          TI + "test_sizing_input_book.py", "-k",
+                                                          "words or spellings or bad_size_word"]),
     ("intake_schema", "intake", "engine/intake/_schema.py", [TI + "test_schema.py", TI + "test_schema_readme.py"]),
     ("intake_parts", "intake", "engine/intake/_parts.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_layers", "intake", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
