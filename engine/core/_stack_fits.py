@@ -31,20 +31,19 @@ def _face_compliances(
     outer_diameter: NDArray[np.float64],
     youngs: NDArray[np.float64],
     poisson: NDArray[np.float64],
-    which: tuple[str, ...] = ("ca_in", "ca_out", "cb_in", "cb_out"),
-) -> tuple[NDArray[np.float64], ...]:
-    """``u(a) = ca_in p_in - ca_out p_out``, ``u(b) = cb_in p_in - cb_out p_out`` per layer
-    (the ones named in ``which``, in that order)."""
+    face: str,
+) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
+    """Lamé radial displacement of a layer's face under the pressures on its two faces:
+    ``face="bore"`` gives ``(ca_in, ca_out)`` of ``u(a) = ca_in p_in - ca_out p_out``,
+    ``face="surface"`` gives ``(cb_in, cb_out)`` of ``u(b) = cb_in p_in - cb_out p_out``."""
     a, b = inner_diameter / 2.0, outer_diameter / 2.0
     a2, b2 = a * a, b * b
     wall = b2 - a2
-    formulas = {
-        "ca_in": lambda: a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall,
-        "ca_out": lambda: a / youngs * 2.0 * b2 / wall,
-        "cb_in": lambda: b / youngs * 2.0 * a2 / wall,
-        "cb_out": lambda: b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall,
-    }
-    return tuple(formulas[name]() for name in which)
+    if face == "bore":
+        return (a / youngs * ((1.0 + poisson) * b2 + (1.0 - poisson) * a2) / wall,
+                a / youngs * 2.0 * b2 / wall)
+    return (b / youngs * 2.0 * a2 / wall,
+            b / youngs * ((1.0 - poisson) * b2 + (1.0 + poisson) * a2) / wall)
 
 
 def _solve_tridiagonal(
@@ -282,8 +281,8 @@ def _solve_with_contact_by_layer(
         # members' surfaces): the same values, element by element.
         outer_member = (di[1:], do[1:], e[1:], nu[1:])
         inner_member = (di[:-1], do[:-1], e[:-1], nu[:-1])
-        ca_in, ca_out = _face_compliances(*outer_member, ("ca_in", "ca_out"))
-        cb_in, cb_out = _face_compliances(*inner_member, ("cb_in", "cb_out"))
+        ca_in, ca_out = _face_compliances(*outer_member, "bore")
+        cb_in, cb_out = _face_compliances(*inner_member, "surface")
         exists = mask[1:] & mask[:-1] & part_ok[np.newaxis, :]
         # Unknowns p_1 .. p_{L-1}; row k-1 is the interface at slot k. Scaling each row by
         # its radius makes the matrix symmetric (the compliance matrix of the stack).
@@ -292,7 +291,7 @@ def _solve_with_contact_by_layer(
         sub = -radius * cb_in
         sup = np.zeros_like(diag)
         sup[:-1] = -radius[:-1] * ca_out[:-1]
-        rhs = radius * nan_to_zero(delta[1:].ravel()).reshape(radius.shape) / 2.0
+        rhs = radius * nan_to_zero(delta[1:]) / 2.0
         # Couplings to a missing interface, and rows of missing ones, drop out.
         sub[0] = 0.0
         sub[1:] = np.where(exists[1:] & exists[:-1], sub[1:], 0.0)

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import datetime as _dt
 import math
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Hashable, Sequence
 from dataclasses import dataclass
 from types import MappingProxyType
 
@@ -170,6 +170,12 @@ def cell_value(raw: object, field: Field, unit: str | None, factor: float | None
     return v, None, ""
 
 
+def first_seen_index(keys: Sequence[Hashable]) -> tuple[list, np.ndarray]:
+    """The distinct keys in order of first appearance, and each key's position among them."""
+    position = {key: i for i, key in enumerate(dict.fromkeys(keys))}
+    return list(position), np.fromiter(map(position.__getitem__, keys), np.intp, len(keys))
+
+
 def read_numeric(
     grid: SheetGrid,
     column: Column,
@@ -234,14 +240,13 @@ def read_numeric(
         # cells that need a message are visited one by one below.
         raw_col = grid.cells(col, rows)
         if set(map(type, raw_col)) == {str}:
-            for text in dict.fromkeys(raw_col):
+            distinct, index = first_seen_index(raw_col)
+            for text in distinct:
                 memo[text] = cell_value(text, field, column.unit, factor, header_issue,
                                         is_error=error_value_text(text) is not None) if text.strip() else (
                     math.nan, None, "empty")
             # Per distinct text its value and whether its cell needs a visit; spread by index.
-            position = {text: i for i, text in enumerate(memo)}
-            index = np.fromiter(map(position.__getitem__, raw_col), np.intp, n)
-            texts = memo.values()
+            texts = memo.values()  # in the order of `distinct`
             visit = np.array([g[1] is not None or g[2] in ("empty", "library") for g in texts], bool)[index]
             values[:] = np.array([g[0] for g in texts], float)[index]
             values[visit] = math.nan

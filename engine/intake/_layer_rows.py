@@ -3,19 +3,17 @@ and the rows refused (a layer given twice, a row naming no part, an error value 
 
 from __future__ import annotations
 
-from collections.abc import Hashable, Sequence
-
 import numpy as np
 
 from ._cellrefs import CellRefs
-from ._columns import NumericColumn, error_problem, read_numeric, read_text
+from ._columns import NumericColumn, error_problem, first_seen_index, read_numeric, read_text
 from ._grid import SheetGrid, cell_ref
 from ._layers import _NUMERIC_KEYS, LayerArrays, _material_column, place_layers, row_labels, row_position
 from ._problems import Problem, Severity
 from ._tables import TableSpot
 from ._words import error_value_text, may_hold_error_values, where_text
 
-__all__ = ["layers_from_rows", "part_keys", "part_positions", "first_seen_index"]
+__all__ = ["layers_from_rows", "part_keys", "part_positions"]
 
 
 def _layer_numbers(grid: SheetGrid, spot: TableSpot, rows: list[int], keys: list[str | None],
@@ -69,12 +67,6 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
         out.append(key)
         errors.append(False)
     return out, errors
-
-
-def first_seen_index(keys: Sequence[Hashable]) -> tuple[list, np.ndarray]:
-    """The distinct keys in order of first appearance, and each key's position among them."""
-    position = {key: i for i, key in enumerate(dict.fromkeys(keys))}
-    return list(position), np.fromiter(map(position.__getitem__, keys), np.intp, len(keys))
 
 
 def part_positions(keys: list[str | None]) -> tuple[list[str], np.ndarray]:

@@ -14,11 +14,11 @@ from twistshare.engine.core import Duty, LayerStack
 from twistshare.engine.units import unit_system
 
 from ._cellrefs import CellRefs
-from ._columns import error_problem, read_text
+from ._columns import error_problem, first_seen_index, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
 from ._interface_inputs import read_interface_inputs
-from ._layer_rows import first_seen_index, layers_from_rows, part_keys, part_positions
+from ._layer_rows import layers_from_rows, part_keys, part_positions
 from ._layers import LayerArrays, layers_from_groups, row_labels
 from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._materials import MaterialSet

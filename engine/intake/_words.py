@@ -49,8 +49,6 @@ _HEADER_RUNS = re.compile(r"[\s_\-]+")
 def header_key(label: object) -> str:
     """A header label made comparable: case-folded, apostrophes dropped, ``_``, ``-`` and runs
     of white space made one space (``"Young's_modulus"`` -> ``"youngs modulus"``)."""
-    if type(label) is str:
-        return _text_key(label)
     return _text_key(str(label))
 
 
