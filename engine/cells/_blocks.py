@@ -33,6 +33,7 @@ from twistshare.engine.intake import (
     Problem,
     Severity,
     SheetGrid,
+    all_of_type,
     locate_table,
     match_header,
     match_layer_group_header,
@@ -40,6 +41,7 @@ from twistshare.engine.intake import (
     read_layer_table_parts,
     read_materials,
     read_parts,
+    row_array,
     stops,
     unknown_headers,
 )
@@ -128,9 +130,9 @@ class Block:
 def _rows(block: Any, what: str) -> list[list[Any]]:
     if not isinstance(block, (list, tuple)):
         raise CellError(what, "expected a block of cells")
-    kinds = set(map(type, block))
-    if kinds == {list} and len(set(map(len, block))) == 1:
+    if all_of_type(block, list) and len(set(map(len, block))) == 1:
         return block                         # the usual rectangular list of lists: no copy
+    kinds = set(map(type, block))
     if kinds <= {list, tuple}:
         rows = [list(r) for r in block]
     elif kinds.isdisjoint({list, tuple}):
@@ -143,8 +145,9 @@ def _rows(block: Any, what: str) -> list[list[Any]]:
 
 def _grid(name: str, rows: list[list[Any]]) -> SheetGrid:
     """The block as a sheet grid. Error values arrive as their text (``#N/A``); the intake
-    recognises that text in any cell, as it recognises a saved book's error cells."""
-    return SheetGrid(name, rows)
+    recognises that text in any cell, as it recognises a saved book's error cells. The rows are
+    of one length (`_rows` pads them)."""
+    return SheetGrid(name, rows, rectangular=True)
 
 
 def _is_blank(value: Any) -> bool:
@@ -265,7 +268,7 @@ def read_block(layers: Any, materials: Any, need_allowable: bool = True) -> Bloc
     row_part = np.full(n_rows, -1, dtype=np.intp)
     row_slot = np.full(n_rows, -1, dtype=np.intp)
     if per_row_layers:
-        data = np.asarray(spot.data_rows, dtype=np.intp) - first
+        data = row_array(spot.data_rows) - first
         row_part[data], row_slot[data] = parts.source_part, parts.source_slot
     else:
         row_part[np.asarray(parts.rows, dtype=np.intp) - first] = np.arange(parts.count)

@@ -10,9 +10,9 @@ completed from the library (`_materials`); parts in both layouts (`_parts`, `_la
 """
 
 from ._book import TABLE_NAMES, BookRating, TableSource, rate_tables
-from ._columns import cell_value, describe_kind, header_factor
+from ._columns import cell_value, describe_kind, header_factor, row_array
 from ._flag_words import problems_from_rating
-from ._grid import SheetGrid, cell_ref, column_letter, parse_ref
+from ._grid import SheetGrid, all_of_type, cell_ref, column_letter, number_count, parse_ref
 from ._layup import LayupNotationError, parse_layup
 from ._materials import FilledCell, MaterialSet, ResolvedMaterial, read_materials
 from ._parts import PartsInput, read_layer_table_parts, read_parts
@@ -59,10 +59,10 @@ __all__ = [
     "header_key", "material_key", "rule_from_text", "RULE_WORDS", "RULE_FORMULAS", "RULE_CHOICES",
     "flag_from_value", "quoted", "where_text",
     # grids and tables
-    "SheetGrid", "cell_ref", "column_letter", "parse_ref", "TableRegion", "TableSpot", "locate_table",
+    "SheetGrid", "all_of_type", "number_count", "cell_ref", "column_letter", "parse_ref", "TableRegion", "TableSpot", "locate_table",
     "unknown_headers",
     # values
-    "cell_value", "header_factor", "describe_kind",
+    "cell_value", "header_factor", "describe_kind", "row_array",
     # materials and parts
     "MaterialSet", "ResolvedMaterial", "FilledCell", "read_materials", "PartsInput", "read_parts",
     "read_layer_table_parts", "problems_from_rating",

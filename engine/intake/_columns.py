@@ -10,18 +10,19 @@ import datetime as _dt
 import math
 from collections.abc import Callable, Hashable, Sequence
 from dataclasses import dataclass
+from itertools import count
 from types import MappingProxyType
 
 import numpy as np
 from twistshare.engine.core import ADHESIVE_DESIGN_FACTOR, adhesive_library, find_adhesive
 from twistshare.engine.units import UnitProblem, describe_kind, parse_value, si_factor, si_offset
 
-from ._grid import SheetGrid, cell_ref
+from ._grid import SheetGrid, all_of_type, cell_ref, number_count
 from ._problems import Problem, Severity
 from ._schema import Column, Field
 from ._words import QUOTE_MAX, error_value_text, flag_from_value, quoted
 
-__all__ = ["NumericColumn", "read_numeric", "read_text", "read_flag", "describe_kind", "quoted", "error_problem",
+__all__ = ["NumericColumn", "drop_key", "first_seen_index", "read_numeric", "row_array", "read_text", "read_flag", "describe_kind", "quoted", "error_problem",
            "example_unit"]
 
 def _fmt(x: float) -> str:
@@ -172,8 +173,25 @@ def cell_value(raw: object, field: Field, unit: str | None, factor: float | None
 
 def first_seen_index(keys: Sequence[Hashable]) -> tuple[list, np.ndarray]:
     """The distinct keys in order of first appearance, and each key's position among them."""
-    position = {key: i for i, key in enumerate(dict.fromkeys(keys))}
+    position = dict(zip(dict.fromkeys(keys), count()))  # both passes at C speed
     return list(position), np.fromiter(map(position.__getitem__, keys), np.intp, len(keys))
+
+
+def row_array(rows: Sequence[int]) -> np.ndarray:
+    """Row numbers as an index array; a run of consecutive rows (the usual table) without
+    converting each number."""
+    if rows and rows[-1] - rows[0] + 1 == len(rows):
+        return np.arange(rows[0], rows[-1] + 1, dtype=np.intp)
+    return np.asarray(rows, dtype=np.intp).reshape(-1)
+
+
+def drop_key(distinct: list, index: np.ndarray, key: Hashable, code: int) -> tuple[list, np.ndarray]:
+    """`first_seen_index`'s result without `key` (a blank): its positions become `code`."""
+    if key not in distinct:
+        return distinct, index
+    k = distinct.index(key)
+    del distinct[k]
+    return distinct, np.where(index == k, code, index - (index > k))
 
 
 def read_numeric(
@@ -211,11 +229,11 @@ def read_numeric(
     slow = range(n)
     if factor is not None and n:
         raw_col = grid.cells(col, rows)
-        kinds = set(map(type, raw_col))
-        if kinds <= {float, int}:  # the common case: one conversion at C speed
+        numbers = number_count(raw_col)
+        if numbers == n:  # the common case: one conversion at C speed
             is_num = np.ones(n, bool)
             nums = np.array(raw_col, dtype=float) * factor
-        elif kinds.isdisjoint((float, int)):  # no plain number at all: every cell is read below
+        elif not numbers:  # no plain number at all: every cell is read below
             is_num = np.zeros(n, bool)
             nums = np.full(n, np.nan)
         else:
@@ -231,15 +249,18 @@ def read_numeric(
             ok = is_num & np.isfinite(nums)
             if rng is not None:
                 ok &= (nums >= rng.low) & (nums <= rng.high)
-        values[ok] = nums[ok]
-        slow = np.flatnonzero(~ok).tolist()
+        if ok.all():  # every cell a plausible number: the column is read
+            values, slow = nums, []
+        else:
+            values[ok] = nums[ok]
+            slow = np.flatnonzero(~ok).tolist()
     memo: dict[str, tuple[float, str | None, str]] = {}  # a column repeats its texts ("52 mm")
     errors = grid.errors
     if n and not errors and not grid.uncached and (factor is None or len(slow) == n):
         # A column of texts: each distinct text read once, the column filled by lookup; only the
         # cells that need a message are visited one by one below.
         raw_col = grid.cells(col, rows)
-        if set(map(type, raw_col)) == {str}:
+        if all_of_type(raw_col, str):
             distinct, index = first_seen_index(raw_col)
             for text in distinct:
                 memo[text] = cell_value(text, field, column.unit, factor, header_issue,
@@ -339,7 +360,7 @@ def error_problem(grid: SheetGrid, row: int, col: int, expected: str) -> str | N
 def read_text(grid: SheetGrid, col: int, rows: Sequence[int]) -> list[str | None]:
     """Text of a column, stripped; whole numbers shown without a decimal point; None when empty."""
     raw = grid.cells(col, rows)
-    if not grid.errors and set(map(type, raw)) == {str}:  # the common case, read straight from the grid
+    if not grid.errors and all_of_type(raw, str):  # the common case, read straight from the grid
         stripped: list[str | None] = list(map(str.strip, raw))
         return [x or None for x in stripped] if "" in stripped else stripped
     out: list[str | None] = []

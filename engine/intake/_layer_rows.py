@@ -3,17 +3,20 @@ and the rows refused (a layer given twice, a row naming no part, an error value 
 
 from __future__ import annotations
 
+from itertools import compress, count
+from operator import ne
+
 import numpy as np
 
 from ._cellrefs import CellRefs
-from ._columns import NumericColumn, error_problem, first_seen_index, read_numeric, read_text
-from ._grid import SheetGrid, cell_ref
+from ._columns import NumericColumn, drop_key, error_problem, first_seen_index, read_numeric, read_text, row_array
+from ._grid import SheetGrid, all_of_type, cell_ref
 from ._layers import _NUMERIC_KEYS, LayerArrays, _material_column, place_layers, row_labels, row_position
 from ._problems import Problem, Severity
 from ._tables import TableSpot
 from ._words import error_value_text, may_hold_error_values, where_text
 
-__all__ = ["layers_from_rows", "part_keys", "part_positions"]
+__all__ = ["layers_from_rows", "part_keys", "part_positions", "part_rows"]
 
 
 def _layer_numbers(grid: SheetGrid, spot: TableSpot, rows: list[int], keys: list[str | None],
@@ -37,6 +40,25 @@ def _layer_numbers(grid: SheetGrid, spot: TableSpot, rows: list[int], keys: list
     return np.where(whole, values, 0).astype(np.intp), lay
 
 
+def _plain_part_keys(grid: SheetGrid, col: int, rows: list[int]
+                     ) -> tuple[list[str], list[int], list[str]] | None:
+    """The Part column as it stands when every cell names its part plainly (texts, no blanks,
+    no spaces to strip, no error values): the keys, where each run of equal keys starts and
+    the run's key. None sends the caller to the cell-by-cell reading.
+
+    A part's rows are usually together, so each run's first key stands for the run: the
+    checks read one key per run, not one per row.
+    """
+    raw = grid.cells(col, rows)
+    if grid.errors or not all_of_type(raw, str):
+        return None
+    starts = [0, *compress(count(1), map(ne, raw[1:], raw))]
+    heads = list(map(raw.__getitem__, starts))
+    if not all(heads) or list(map(str.strip, heads)) != heads or may_hold_error_values(heads):
+        return None
+    return raw, starts, heads
+
+
 def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[bool]]:
     """The part id of each data row of a row-per-layer table (None where none can be read), and
     which rows hold an error value in their part cell.
@@ -48,6 +70,9 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
     pcol = spot.column("part")
     if pcol is None:
         return [None] * len(rows), [False] * len(rows)
+    plain = _plain_part_keys(grid, pcol.index, rows)
+    if plain is not None:
+        return plain[0], [False] * len(rows)
     keys = read_text(grid, pcol.index, rows)
     if None not in keys and not grid.errors and not may_hold_error_values(keys):
         return keys, [False] * len(rows)  # every row names its part
@@ -72,12 +97,26 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
 def part_positions(keys: list[str | None]) -> tuple[list[str], np.ndarray]:
     """The parts a row-per-layer table names, in order of appearance, and each row's position
     among them (-2 where the row names none)."""
-    ids, group = first_seen_index(keys)
-    if None in ids:
-        missing = ids.index(None)
-        del ids[missing]
-        group = np.where(group == missing, -2, group - (group > missing))
-    return ids, group
+    return drop_key(*first_seen_index(keys), None, -2)
+
+
+def part_rows(grid: SheetGrid, spot: TableSpot
+              ) -> tuple[tuple[list[str | None], list[bool]], list[str], np.ndarray]:
+    """`part_keys` and `part_positions` of a table with a Part column, in one reading.
+
+    Where every part's rows stand together (the usual table) the positions follow from the
+    runs of equal keys, without a lookup per row.
+    """
+    rows = list(spot.data_rows)
+    plain = _plain_part_keys(grid, spot.column("part").index, rows)
+    if plain is not None:
+        keys, starts, heads = plain
+        if len(set(heads)) == len(heads):  # each part in one run
+            counts = np.diff(np.array([*starts, len(keys)], np.intp))
+            return (keys, [False] * len(keys)), heads, np.repeat(np.arange(len(heads), dtype=np.intp), counts)
+        return (keys, [False] * len(keys)), *part_positions(keys)
+    keys = part_keys(grid, spot)
+    return keys, *part_positions(keys[0])
 
 
 def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings: list[Problem],
@@ -120,12 +159,13 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
            for key in _NUMERIC_KEYS if (c := spot.column(key)) is not None}
     mcol = spot.column("material")
     if mcol is not None:
-        names, modulus, mbad = _material_column(grid, mcol, rows, who, findings, spot.header_row, header_seen)
+        names, modulus, mbad, grouped = _material_column(grid, mcol, rows, who, findings, spot.header_row,
+                                                         header_seen)
     else:
-        names, modulus, mbad = [None] * n_rows, np.full(n_rows, np.nan), np.zeros(n_rows, bool)
+        names, modulus, mbad, grouped = [None] * n_rows, np.full(n_rows, np.nan), np.zeros(n_rows, bool), None
 
     slot = numbers - 1
-    error_row = np.fromiter(key_errors, bool, n_rows)
+    error_row = np.fromiter(key_errors, bool, n_rows) if True in key_errors else np.zeros(n_rows, bool)
     ok = (part >= 0) & (slot >= 0) & ~error_row
     # A layer given twice in a part: the later rows are refused.
     flat = part * n_layers + slot
@@ -142,17 +182,25 @@ def layers_from_rows(grid: SheetGrid, spot: TableSpot, ids: list[str], findings:
     out.present[p, j] = True
     out.shear_modulus[p, j] = modulus[src]
     out.bad[p[mbad[src]]] = True
-    name_array = np.array(names, dtype=object)
-    out.materials[p, j] = name_array[src]
+    codes = None
+    if grouped is None:
+        out.materials[p, j] = np.array(names, dtype=object)[src]
+    else:
+        out.materials[p, j] = np.array([*grouped[0], None], dtype=object)[grouped[1][src]]  # -1: None
+        codes = np.full(out.present.shape, -1, np.intp)
+        codes[p, j] = grouped[1][src]
+        out.material_codes = (grouped[0], codes)
     rowmap = np.full(out.present.shape, -1, dtype=np.intp)
-    rowmap[p, j] = np.asarray(rows, dtype=np.intp)[src]
+    rowmap[p, j] = row_array(rows)[src]
     out.cells.by_layer(rowmap, {key: c.index for key in (*_NUMERIC_KEYS, "material")
                                 if (c := spot.column(key)) is not None})
-    if mcol is not None and (grid.errors or may_hold_error_values(dict.fromkeys(names))):
+    if mcol is not None and (grid.errors or may_hold_error_values(grouped[0] if grouped else dict.fromkeys(names))):
         for i, pi, ji in zip(src.tolist(), p.tolist(), j.tolist()):
             err = error_problem(grid, rows[i], mcol.index, "a material name")
             if err is not None:
                 out.materials[pi, ji] = None
+                if codes is not None:
+                    codes[pi, ji] = -1
                 findings.append(Problem(Severity.ERROR, grid.name, cell_ref(rows[i], mcol.index),
                                         f"{where_text(ids[pi], ji + 1)}: material: {err}", part=ids[pi], layer=ji + 1,
                                         code="error-value"))

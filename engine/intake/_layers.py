@@ -9,15 +9,15 @@ material's.
 from __future__ import annotations
 
 import re
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
 from twistshare.engine.units import UnitProblem, parse_value
 
 from ._cellrefs import CellRefs
-from ._columns import NumericColumn, error_problem, read_numeric, read_text
-from ._grid import SheetGrid, cell_ref
+from ._columns import NumericColumn, drop_key, error_problem, first_seen_index, read_numeric, read_text
+from ._grid import SheetGrid, all_of_type, cell_ref
 from ._problems import Problem, Severity
 from ._schema import LAYER_FIELDS, Column
 from ._tables import TableSpot
@@ -47,6 +47,9 @@ class LayerArrays:
     # For each data row of a row-per-layer table: the part and slot it became (-1: none).
     source_part: np.ndarray | None = None
     source_slot: np.ndarray | None = None
+    # Where a column of names gave them: the distinct names, and (P, L) each layer's position
+    # among them (-1 where `materials` is None), so each name is looked up once.
+    material_codes: tuple[list[str], np.ndarray] | None = None
 
     @classmethod
     def empty(cls, n: int, n_layers: int, cells: CellRefs) -> LayerArrays:
@@ -90,20 +93,47 @@ def row_labels(ids: list[str | None], rows: list[int], layer: int | None = None)
 _NUMBER_START = re.compile(r"\n[0-9+\-.]")
 
 
+def _starts_like_number(names: Iterable[str | None]) -> bool:
+    return _NUMBER_START.search("\n" + "\n".join(filter(None, names))) is not None
+
+
+def _grouped_names(grid: SheetGrid, col: int, rows: list[int]) -> tuple[list[str], np.ndarray] | None:
+    """A column of texts naming materials, each distinct name once: the names (stripped) and
+    each row's position among them (-1 where blank). None where a cell needs a closer look
+    (a number, an error value, a text that may be a modulus with its unit)."""
+    raw = grid.cells(col, rows)
+    if grid.errors or not all_of_type(raw, str):
+        return None
+    distinct, index = first_seen_index(raw)
+    stripped = [text.strip() or None for text in distinct]
+    if _starts_like_number(stripped):
+        return None
+    names, remap = first_seen_index(stripped)  # "Steel " and "Steel" are one name
+    return drop_key(names, remap[index], None, -1)
+
+
 def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, findings: list[Problem],
-                     header_row: int, seen: set) -> tuple[list[str | None], np.ndarray, np.ndarray]:
-    """Names, the layer's own G (NaN where a name is given) and bad marks of a material column."""
+                     header_row: int, seen: set
+                     ) -> tuple[list[str | None], np.ndarray, np.ndarray, tuple[list[str], np.ndarray] | None]:
+    """Names, the layer's own G (NaN where a name is given) and bad marks of a material column;
+    and, for a column of names alone, the distinct names with each row's position among them
+    (-1: blank), so the names are looked up once each."""
     n = len(rows)
     if column.unit is not None:
         moduli = read_numeric(grid, replace(column, field=_MODULUS), rows, who, findings, header_row, seen)
-        return [None] * n, moduli.values, moduli.bad
-    names = read_text(grid, column.index, rows)
+        return [None] * n, moduli.values, moduli.bad, None
     modulus = np.full(n, np.nan)
     bad = np.zeros(n, bool)
+    grouped = _grouped_names(grid, column.index, rows)
+    if grouped is not None:  # the common case: a few names, repeated
+        distinct, index = grouped
+        names = np.array([*distinct, None], dtype=object)[index].tolist()  # -1 picks the None
+        return names, modulus, bad, grouped
+    names = read_text(grid, column.index, rows)
     tag = who.tag
     # A column repeats a few names: each distinct one is screened once.
-    if not _NUMBER_START.search("\n" + "\n".join(filter(None, dict.fromkeys(names)))):
-        return names, modulus, bad  # names only (no text starts like a number): the common case
+    if not _starts_like_number(dict.fromkeys(names)):
+        return names, modulus, bad, None  # names only (no text starts like a number)
     for i, text in enumerate(names):
         if text is None or not (text[:1].isdigit() or text[:1] in "+-." and text[1:2].isdigit()):
             continue
@@ -124,7 +154,7 @@ def _material_column(grid: SheetGrid, column: Column, rows: list[int], who, find
                                     *tag(r), code="plausible", values=(text,)))
             continue
         modulus[i] = value
-    return names, modulus, bad
+    return names, modulus, bad, None
 
 
 def place_layers(got: dict[str, NumericColumn], src: np.ndarray, p: np.ndarray, j: np.ndarray,
@@ -196,7 +226,8 @@ def layers_from_groups(grid: SheetGrid, spot: TableSpot, rows: list[int], ids: l
             cells.column((j, key), col.index)
         mcol = spot.column("material", layer)
         if mcol is not None:
-            names, modulus, mbad = _material_column(grid, mcol, rows, who, findings, spot.header_row, header_seen)
+            names, modulus, mbad, _ = _material_column(grid, mcol, rows, who, findings, spot.header_row,
+                                                       header_seen)
             cells.column((j, "material"), mcol.index)
         else:
             names, modulus, mbad = [None] * n, np.full(n, np.nan), np.zeros(n, bool)

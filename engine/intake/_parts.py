@@ -18,7 +18,7 @@ from ._columns import error_problem, first_seen_index, read_text
 from ._duty import DutyColumns, read_duty
 from ._grid import SheetGrid, cell_ref, parse_ref
 from ._interface_inputs import read_interface_inputs
-from ._layer_rows import layers_from_rows, part_keys, part_positions
+from ._layer_rows import layers_from_rows, part_keys, part_rows
 from ._layers import LayerArrays, layers_from_groups, row_labels
 from ._loads import LAYER_PROPERTY_KEYS, LoadColumns, load_problems, read_loads
 from ._materials import MaterialSet
@@ -170,8 +170,10 @@ def read_layer_table_parts(grid: SheetGrid, spot: TableSpot, materials: Material
                            *, need_allowable: bool = True) -> PartsInput:
     """Parts from a row-per-layer table alone (a cell function's block): the parts are the ids of
     its Part column in order of appearance, or one part when it has no Part column."""
-    keys = part_keys(grid, spot)
-    ids, positions = part_positions(keys[0]) if spot.column("part") else ([""], None)
+    if spot.column("part") is not None:
+        keys, ids, positions = part_rows(grid, spot)
+    else:
+        keys, ids, positions = part_keys(grid, spot), [""], None
     n = len(ids)
     nan = np.full(n, np.nan)
     duty = DutyColumns(nan, nan, nan, nan, ["none"] * n, np.zeros(n, bool), CellRefs(grid.name, []))
@@ -218,9 +220,15 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
     g = np.where(own_g, layers.shear_modulus, np.nan)
     tau = np.full((P, L), np.nan)
     rule = np.zeros((P, L), dtype=np.int8)  # AllowableRule per layer; travels with the rating
-    unnamed = present & np.equal(mats, None)
-    named_i, named_j = np.nonzero(present & ~unnamed)
-    named = mats[named_i, named_j].tolist()
+    if layers.material_codes is not None:  # the names grouped as the column was read
+        distinct, codes = layers.material_codes
+        unnamed = present & (codes < 0)
+        named_i, named_j = np.nonzero(present & ~unnamed)
+        named = _in_order_of_use(distinct, codes[named_i, named_j])
+    else:
+        unnamed = present & np.equal(mats, None)
+        named_i, named_j = np.nonzero(present & ~unnamed)
+        named = first_seen_index(mats[named_i, named_j].tolist())
     for i, j in zip(*(a.tolist() for a in np.nonzero(unnamed))):
         if own_g[i, j] or layers.bad[i]:
             continue  # a layer's own G, or a cell already reported
@@ -238,7 +246,7 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
             continue
         findings.append(Problem(Severity.ERROR, where, cell, f"{where_text(ids[i], j + 1)}: no material given",
                                 part=ids[i], layer=j + 1, code="missing"))
-    if named:
+    if len(named_i):
         _named_materials(named, named_i, named_j, layers, ids, materials, sheet, findings,
                          error, need_allowable, g, tau, rule, props)
     own_tau = ~np.isnan(layers.allowable_shear)
@@ -249,15 +257,28 @@ def _materials_of_layers(layers: LayerArrays, ids: list[str], materials: Materia
     return g, tau, rule
 
 
-def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: LayerArrays, ids: list[str],
-                     materials: MaterialSet, sheet: str, findings: list[Problem], error: np.ndarray,
+def _in_order_of_use(distinct: list[str], inverse: np.ndarray) -> tuple[list[str], np.ndarray]:
+    """The names `inverse` uses, in order of first use, and each position among them: what
+    `first_seen_index` gives for the names themselves."""
+    size = len(inverse)
+    first = np.full(len(distinct), size, np.intp)
+    first[inverse[::-1]] = np.arange(size)[::-1]
+    used = np.flatnonzero(first < size)
+    order = used[np.argsort(first[used], kind="stable")]
+    position = np.empty(len(distinct), np.intp)
+    position[order] = np.arange(len(order))
+    return [distinct[u] for u in order.tolist()], position[inverse]
+
+
+def _named_materials(named: tuple[list[str], np.ndarray], ni: np.ndarray, nj: np.ndarray, layers: LayerArrays,
+                     ids: list[str], materials: MaterialSet, sheet: str, findings: list[Problem], error: np.ndarray,
                      need_allowable: bool, g: np.ndarray, tau: np.ndarray, rule: np.ndarray,
                      props: dict[str, np.ndarray] | None = None) -> None:
     # Each distinct name is looked up once; the arrays are filled through the inverse index.
     cells, kt = layers.cells, layers.kt
-    unique, inverse = first_seen_index(named)
+    unique, inverse = named
     first = np.zeros(len(unique), np.intp)
-    first[inverse[::-1]] = np.arange(len(named))[::-1]
+    first[inverse[::-1]] = np.arange(len(inverse))[::-1]
     # A layer's own allowable means its material need give none.
     own_tau = ~np.isnan(layers.allowable_shear[ni, nj])
     found_any = [materials.lookup(str(name), need_allowable=False) for name in unique]
@@ -267,16 +288,22 @@ def _named_materials(named: list[str], ni: np.ndarray, nj: np.ndarray, layers: L
     ok_need = np.array([m is not None for m, _ in found_need])[inverse]
     ok = ok_any & (ok_need | own_tau)
 
-    def pick(attr: str) -> np.ndarray:
-        return np.array([getattr(m, attr) if m is not None else np.nan for m, _ in found_any])
+    # The layers that take their material's values: one flat index, one inverse, for every property.
+    at = ni * g.shape[1] + nj
+    which = inverse
+    if not ok.all():
+        at, which = at[ok], inverse[ok]
 
-    g[ni[ok], nj[ok]] = pick("shear_modulus")[inverse][ok]
-    tau[ni[ok], nj[ok]] = pick("allowable_shear")[inverse][ok]
-    rule[ni[ok], nj[ok]] = np.array([int(m.rule) if m is not None else 0 for m, _ in found_any])[inverse][ok]
+    def pick(attr: str) -> np.ndarray:
+        return np.array([getattr(m, attr) if m is not None else np.nan for m, _ in found_any])[which]
+
+    g.flat[at] = pick("shear_modulus")
+    tau.flat[at] = pick("allowable_shear")
+    rule.flat[at] = np.array([int(m.rule) if m is not None else 0 for m, _ in found_any])[which]
     if props is not None:  # the properties the criteria beyond torsion read, NaN where none
         for key in LAYER_PROPERTY_KEYS:
             values = props[key] = np.full(g.shape, np.nan)
-            values[ni[ok], nj[ok]] = pick(key)[inverse][ok]
+            values.flat[at] = pick(key)
     for k in np.flatnonzero(~ok):
         i, j = int(ni[k]), int(nj[k])
         why = found_any[inverse[k]][1] or found_need[inverse[k]][1]

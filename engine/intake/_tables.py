@@ -6,7 +6,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from ._grid import SheetGrid
+from ._grid import SheetGrid, all_of_type, number_count
 from ._schema import Column, Field, match_header, match_layer_group_header
 
 __all__ = ["TableRegion", "TableSpot", "locate_table"]
@@ -96,12 +96,11 @@ def _data_rows(grid: SheetGrid, start: int, end: int, idx: list[int]) -> tuple[i
     idx = sorted(idx, key=lambda c: not (c < len(first_row) and type(first_row[c]) in (float, int)))
     for c in idx:
         cells = grid.cells(c, span)
-        k = set(map(type, cells))
-        if k <= {float, int}:
+        if number_count(cells) == len(cells):
             return tuple(span)  # a column of numbers: every row holds something
-        columns.append((cells, k))
-    for cells, k in columns:
-        if k == {str}:
+        columns.append(cells)
+    for cells in columns:
+        if all_of_type(cells, str):
             filled |= np.fromiter(map(bool, map(str.strip, cells)), bool, len(cells))
         else:
             filled |= np.fromiter((v is not None and v != "" and not (type(v) is str and not v.strip())
