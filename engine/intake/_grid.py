@@ -69,24 +69,44 @@ class SheetGrid:
     merged: tuple[tuple[tuple[int, int], tuple[int, int]], ...] = ()
     uncached: frozenset[tuple[int, int]] = frozenset()  # formula cells with no saved result
     rectangular: bool = False  # every row as long as the first (a host's range): a plain transpose
-    _columns: list = field(default_factory=list, compare=False, repr=False)
+    _columns: dict = field(default_factory=dict, compare=False, repr=False)
 
     @property
     def height(self) -> int:
         """Number of rows."""
         return len(self.rows)
 
-    def cells(self, col: int, rows) -> list[object]:
-        """The raw values of column `col` on `rows` (None beyond a row's end), read column-wise.
+    def _column(self, col: int) -> Sequence[object] | None:
+        """Every row's value in column `col` (None beyond a row's end), or None past the grid.
 
-        The grid is transposed once, at C speed, on first use; a run of consecutive rows is
-        then one slice. Error cells read as the grid holds them (see `value` for their text).
+        A host's rectangular range is read a column at a time, only the columns asked for; a
+        sheet's rows of different lengths are transposed whole, at C speed, on first use. Each
+        column is kept for the next question.
         """
-        if not self._columns:
-            self._columns.extend(zip(*self.rows) if self.rectangular else zip_longest(*self.rows, fillvalue=None))
-        if col >= len(self._columns):
+        columns = self._columns
+        column = columns.get(col)
+        if column is not None:
+            return column
+        if self.rectangular:
+            if not self.rows or not 0 <= col < len(self.rows[0]):
+                return None
+            # A comprehension makes no object per row, so it sets off no garbage collection
+            # as a transpose by zip (one iterator per row) does.
+            column = columns[col] = [row[col] for row in self.rows]
+            return column
+        if not columns:
+            columns.update(enumerate(zip_longest(*self.rows, fillvalue=None)))
+            return columns.get(col)
+        return None
+
+    def cells(self, col: int, rows) -> list[object]:
+        """The raw values of column `col` on `rows` (None beyond a row's end), read column-wise;
+        a run of consecutive rows is one slice. Error cells read as the grid holds them (see
+        `value` for their text).
+        """
+        column = self._column(col)
+        if column is None:
             return [None] * len(rows)
-        column = self._columns[col]
         if not rows:
             return []
         first, last = rows[0], rows[-1]
