@@ -22,7 +22,7 @@ from ._load_path import DEFAULT_LOAD_PATH
 from ._sleeve_diagnoses import InterfaceFlag
 from ._sleeve_diagnoses import has_sleeve_error as interface_errors
 
-__all__ = ["INTERFACE_KEYS", "LAYER_PROPERTY_KEYS", "PART_KEYS", "has_interfaces",
+__all__ = ["INTERFACE_KEYS", "LAYER_PROPERTY_KEYS", "has_interfaces",
            "interfaces_of", "interface_rating", "slip", "bond", "fit_stress"]
 
 #: Per-layer inputs of an interface, at its outer member's slot.
@@ -31,8 +31,6 @@ INTERFACE_KEYS: tuple[str, ...] = ("interference", "fit_length", "friction", "bo
 #: Per-layer material properties the fits need.
 LAYER_PROPERTY_KEYS: tuple[str, ...] = ("youngs_modulus", "poisson_ratio", "yield_strength",
                                         "expansion_coefficient", "factor_of_safety")
-#: Per-part inputs.
-PART_KEYS: tuple[str, ...] = ("load_path", "operating_temperature", "assembly_temperature")
 
 
 def has_interfaces(inputs: Mapping[str, object]) -> bool:
@@ -67,8 +65,8 @@ def interface_rating(stack, inputs: Mapping[str, object], share=None, sum_stiffn
         return np.broadcast_to(np.asarray(value, dtype=float), shape if per_layer else shape[:1])
 
     nan = np.nan
-    layer = {k: (get(k, True) if get(k, True) is not None else nan)
-             for k in INTERFACE_KEYS + LAYER_PROPERTY_KEYS}
+    layer = {k: nan if (v := get(k, True)) is None else v for k in INTERFACE_KEYS + LAYER_PROPERTY_KEYS}
+    operating = get("operating_temperature", False)
     return rate_interfaces(
         stack,
         youngs_modulus=layer["youngs_modulus"],
@@ -81,10 +79,9 @@ def interface_rating(stack, inputs: Mapping[str, object], share=None, sum_stiffn
         bond_allowable=layer["bond_allowable"],
         bond_length=layer["bond_length"],
         load_path=_nan_to(get("load_path", False), float(DEFAULT_LOAD_PATH)),
-        operating_temperature=get("operating_temperature", False) if get(
-            "operating_temperature", False) is not None else nan,
+        operating_temperature=nan if operating is None else operating,
         reference_temperature=_nan_to(get("assembly_temperature", False), REFERENCE_TEMPERATURE),
-        factor_of_safety=_nan_to(get("factor_of_safety", True), 1.0),
+        factor_of_safety=_nan_to(layer["factor_of_safety"], 1.0),
         share=share,
         sum_stiffness=sum_stiffness,
     )

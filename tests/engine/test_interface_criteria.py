@@ -94,3 +94,68 @@ def test_a_fit_input_in_error_is_not_a_capacity():
     # a negative fit length: the check cannot be made; NaN (never a silent +inf)
     r = rate(_stack(0.04, 0.06), _duty(), inputs=_inputs(0.02e-3, -0.05, 0.12))
     assert np.isnan(r.criterion_capacity[Criterion.INTERFACE_SLIP][0, 1])
+
+
+def test_interference_at_temperature_from_the_assembly_temperature():
+    # The interference at the operating temperature: δ + (α_shaft − α_sleeve)·(T_op − T_asm)·d
+    # (thermal expansion of each member's diameter, BRIEF §2); the same-material Lamé pressure
+    # and slip torque then as above (Shigley's). Assembled warm at 40 °C, run at 80 °C.
+    d, do, delta, length, mu = 0.040, 0.060, 0.030e-3, 0.050, 0.12
+    alpha_shaft, alpha_sleeve = 11.7e-6, 17.3e-6  # steel and stainless (from memory)
+    more = dict(expansion_coefficient=[[alpha_shaft, alpha_sleeve]], operating_temperature=[353.15],
+                assembly_temperature=[313.15])
+    r = rate(_stack(d, do), _duty(), inputs=_inputs(delta, length, mu, **more))
+    hot = delta + (alpha_shaft - alpha_sleeve) * (353.15 - 313.15) * d
+    p = E * hot * (do**2 - d**2) / (2 * d * do**2)
+    share = (do**4 - d**4) / do**4
+    expected = math.pi / 2 * mu * p * d**2 * length / share
+    assert r.criterion_capacity[Criterion.INTERFACE_SLIP][0, 1] == pytest.approx(expected, rel=1e-9)
+    # without the assembly temperature the change is counted from 20 °C: a larger loss
+    del more["assembly_temperature"]
+    r20 = rate(_stack(d, do), _duty(), inputs=_inputs(delta, length, mu, **more))
+    from_20 = delta + (alpha_shaft - alpha_sleeve) * (353.15 - 293.15) * d
+    assert r20.criterion_capacity[Criterion.INTERFACE_SLIP][0, 1] == pytest.approx(expected * from_20 / hot,
+                                                                                    rel=1e-9)
+
+
+def _fit_stress_capacity(d, do, p, sy_over_fs):
+    """Section torque at which each layer of a same-material shrink fit reaches Sy/FS by distortion
+    energy, checked at both faces of each layer: Lamé stresses of a solid shaft (σr = σθ = −p)
+    and of a sleeve pressed at its bore (σθ = p(do² + d²)/(do² − d²), σr = −p at the bore;
+    σθ = 2pd²/(do² − d²), σr = 0 outside) (Shigley's, thick-walled cylinders), with
+    τ = G·r·T/ΣGJ; σ_vm² = σθ² − σθσr + σr² + 3τ²."""
+    sum_gj = G * math.pi * do**4 / 32
+    def torque(r, s_theta, s_r):
+        tau = math.sqrt(max(sy_over_fs**2 - (s_theta**2 - s_theta * s_r + s_r**2), 0.0) / 3)
+        return tau * sum_gj / (G * r)
+    shaft = torque(d / 2, -p, -p)
+    sleeve = min(torque(d / 2, p * (do**2 + d**2) / (do**2 - d**2), -p),
+                 torque(do / 2, 2 * p * d**2 / (do**2 - d**2), 0.0))
+    return shaft, sleeve
+
+
+def test_fit_stress_capacity_by_distortion_energy_with_a_factor_of_safety_per_layer():
+    d, do, delta, length, mu, sy = 0.040, 0.060, 0.030e-3, 0.050, 0.12, 600e6
+    p = E * delta * (do**2 - d**2) / (2 * d * do**2)
+    for fs in ([[1.0, 1.0]], [[1.0, 2.0]], [[1.5, 1.0]]):
+        r = rate(_stack(d, do), _duty(), inputs=_inputs(delta, length, mu, factor_of_safety=fs))
+        shaft, sleeve = (_fit_stress_capacity(d, do, p, sy / fs[0][k])[k] for k in (0, 1))
+        got = r.criterion_capacity[Criterion.FIT_STRESS][0]
+        assert got.tolist() == pytest.approx([shaft, sleeve], rel=1e-9)
+    # a blank factor of safety is 1
+    blank = rate(_stack(d, do), _duty(), inputs=_inputs(delta, length, mu))
+    one = rate(_stack(d, do), _duty(), inputs=_inputs(delta, length, mu, factor_of_safety=[[1.0, 1.0]]))
+    assert blank.criterion_capacity[Criterion.FIT_STRESS].tolist() == one.criterion_capacity[
+        Criterion.FIT_STRESS].tolist()
+
+
+def test_inputs_of_other_criteria_alone_start_no_interface_check():
+    # E and ν given for buckling, no interference and no bond: one +inf per part, as with no inputs
+    r = rate(_stack(0.04, 0.06, n=2), _duty(2), inputs=dict(youngs_modulus=[[E, E]] * 2,
+                                                             poisson_ratio=[[NU, NU]] * 2))
+    # and an interference column left blank (a template's) is no interface either
+    blank = rate(_stack(0.04, 0.06, n=2), _duty(2), inputs=dict(interference=[[np.nan, np.nan]] * 2,
+                                                                 bond_allowable=[[np.nan, np.nan]] * 2))
+    for got in (r, blank):
+        for c in (Criterion.INTERFACE_SLIP, Criterion.BOND_SHEAR, Criterion.FIT_STRESS):
+            assert got.criterion_capacity[c].shape == (2,) and np.isinf(got.criterion_capacity[c]).all()

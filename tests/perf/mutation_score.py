@@ -152,7 +152,8 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
                                                   TE + "test_units_values.py"]),
     # the bridge paths: a duty read into torques, part-level findings placed on cells, comments
     ("bridge_duty", "bridge", "engine/intake/_duty.py", [TI + "test_duty.py"]),
-    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [TB + "test_comments.py", TB + "test_rate_command.py"]),
+    ("bridge_comments", "bridge", "workbook_bridge/sheets/_comments.py", [TB + "test_comments.py", TB + "test_comments_fill.py",
+                                                                          TB + "test_rate_command.py"]),
 ]
 
 def _equivalents() -> set[tuple[str, int, str]]:
