@@ -15,8 +15,8 @@ import pint
 import pytest
 from twistshare.engine.core import ADHESIVE_DESIGN_FACTOR, adhesive_library, find_adhesive
 from twistshare.engine.intake._columns import (
-    describe_kind,
     cell_value,
+    describe_kind,
     error_problem,
     example_unit,
     first_seen_index,

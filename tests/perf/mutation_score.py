@@ -135,8 +135,8 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_sizing_input", "intake", "engine/intake/_sizing_input.py",
      [TI + "test_sizing_input_book.py", TI + "test_sizing_input.py", TB + "test_sizing_book.py"]),
     ("intake_book", "intake", "engine/intake/_book.py", [TI + "test_beyond_torsion.py", TB + "test_materials_rules.py"]),
-    ("intake_grid", "intake", "engine/intake/_grid.py", [TI + "test_beyond_torsion.py", TI + "test_front_ends_agree.py"]),
-    ("intake_tables", "intake", "engine/intake/_tables.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
+    ("intake_grid", "intake", "engine/intake/_grid.py", [TI + "test_grid.py", TI + "test_tables.py", TI + "test_columns.py"]),
+    ("intake_tables", "intake", "engine/intake/_tables.py", [TI + "test_tables.py"]),
     ("intake_table_checks", "intake", "engine/intake/_table_checks.py", [TB + "test_bad_cells.py"]),
     ("intake_cellrefs", "intake", "engine/intake/_cellrefs.py", [TI + "test_beyond_torsion.py", TB + "test_comments.py"]),
     # units: the shared registry and its engineers' spellings
