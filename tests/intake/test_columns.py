@@ -489,3 +489,116 @@ def test_error_problem():
     assert error_problem(grid, 0, 1, "x") == "the cell holds the error value #VALUE!; expected x"
     grid = SheetGrid("M", [[5.0]])
     assert error_problem(grid, 0, 0, "x") is None
+
+
+# ---- wording in full, and the paths a column can take ---------------------------------------------
+
+def test_header_without_unit_message_in_full():
+    _, issue = header_factor(OD, None, "Outer diameter")
+    assert issue == (f"no unit for {OD.description}: put it in the header, e.g. 'Outer diameter [mm]', "
+                     "or in each cell")
+
+
+def test_unknown_name_lists_the_library_comma_separated():
+    _, problem, _ = cell_value("superglue", BOND, "MPa", 1e6)
+    assert problem.endswith("nor a built-in adhesive: " + ", ".join(repr(n) for n in adhesive_library()))
+
+
+def test_library_note_in_full():
+    name = next(iter(adhesive_library()))
+    entry = find_adhesive(name)
+    allowable = entry.typical_strength / ADHESIVE_DESIGN_FACTOR
+    assert library_note(name, BOND) == (
+        f"{BOND.description}: {name!r} from the built-in adhesives: {allowable / 1e6:.6g} MPa, its typical "
+        f"strength {entry.typical_strength / 1e6:.6g} MPa ({entry.test}, typical, from memory) over a design "
+        f"factor of {ADHESIVE_DESIGN_FACTOR:.6g} (common practice, from memory); use the maker's data for your "
+        "product, gap and temperature")
+
+
+def test_range_without_a_shown_unit_has_single_spaces():
+    _, problem, _ = cell_value(-1, KT, None, 1.0)
+    assert problem == "-1 is outside the plausible range 1 to 10 (common practice); check the value"
+
+
+@pytest.mark.parametrize("rows", [[300, 500.0], [300, 500.0, "30 degC"]])
+def test_temperature_columns_hot_in_celsius(rows):
+    # 300 °C = 573.15 K, 500 °C = 773.15 K (NIST SP 811); numbers alone and beside a text
+    col, findings = read(rows, field=TEMP, unit="degC", header="T [°C]")
+    assert findings == []
+    np.testing.assert_allclose(col.values[:2], [573.15, 773.15], rtol=1e-12)
+
+
+def test_mixed_temperature_column_in_fahrenheit():
+    # T/K = (t/°F + 459.67) × 5/9 (NIST SP 811): 100 °F = 310.927... K
+    col, findings = read([100, "20 degC"], field=TEMP, unit="degF", header="T [°F]")
+    assert findings == []
+    assert col.values[0] == pytest.approx((100 + 459.67) * 5 / 9, rel=1e-12)
+    assert col.values[0] == pytest.approx(UREG.Quantity(100, "degF").to("K").magnitude, rel=1e-9)
+
+
+def test_an_error_cell_is_refused_whatever_number_the_grid_holds_there():
+    col, findings = read([52, 45, 40], errors={(2, 0): "#N/A"})
+    assert [(f.cell, f.code) for f in findings] == [("A3", "error-value")]
+    assert math.isnan(col.values[1]) and col.bad.tolist() == [False, True, False]
+
+
+def test_cells_after_an_uncached_one_are_still_read():
+    col, findings = read([None, -3, 40], uncached=frozenset({(1, 0)}))
+    assert [(f.cell, f.code) for f in findings] == [("A2", "uncached"), ("A3", "sign")]
+
+
+def test_a_yes_after_a_one_is_told_as_a_yes():
+    friction = LAYER["friction"]
+    col, findings = read([1, True], field=friction, unit=None, header="Friction")
+    assert [f.code for f in findings] == ["plausible", "not-a-number"]
+    assert findings[1].message.endswith("got TRUE") and findings[1].values == (True,)
+
+
+def test_long_unit_problem_cut_at_four_quote_lengths():
+    # the cell text is not quoted whole in this message (its unit part is), so it is cut at 240 characters
+    for n, cut in ((100, True), (200, True)):
+        raw = "5 " + "q" * n
+        _, problem, code = cell_value(raw, OD, "mm", MM)
+        body = problem[len(f"{raw!r}: "):] if problem.startswith(repr(raw)) else problem.split(": ", 1)[1]
+        assert code == "unit"
+        assert body.endswith(" …") == cut
+        assert len(body) == 4 * 60 + 2
+
+
+def test_a_message_of_exactly_four_quote_lengths_is_kept_whole():
+    from twistshare.engine.units import UnitProblem, parse_value
+
+    for n in range(120, 260):
+        raw = "x" * n + " mm"
+        try:
+            parse_value(raw, "length", None)
+        except UnitProblem as exc:
+            if len(str(exc)) == 240:
+                break
+    else:
+        pytest.skip("no text length gives a 240-character unit message")
+    _, problem, _ = cell_value(raw, OD, None, None)
+    assert repr(raw) in problem  # not shortened: the rule cuts only above 240 characters
+
+
+def test_a_text_a_little_over_the_quote_length_is_quoted_whole():
+    raw = "y" * 70
+    _, problem, _ = cell_value(raw, OD, "mm", MM)
+    assert repr(raw) in problem
+
+
+@pytest.mark.parametrize("kind, unit", [("length", "mm"), ("stress", "MPa"), ("torque", "N*m"), ("power", "kW"),
+                                        ("speed", "rpm"), ("angle", "deg"), ("angle_per_length", "deg/m"),
+                                        ("density", "kg/m**3"), ("temperature", "degC"), ("expansion", "1/K")])
+def test_example_units_are_units_of_their_kind(kind, unit):
+    from twistshare.engine.units import si_factor
+
+    # the suggestion reads as a unit of that kind, with pint's factor for the same unit
+    expected = 1.0 if kind == "temperature" else UREG(unit).to_base_units().magnitude
+    assert example_unit(kind)
+    assert si_factor(example_unit(kind), kind) == pytest.approx(expected, rel=1e-9)
+
+
+def test_read_text_numbers_without_errors():
+    grid = SheetGrid("M", [[" a "], [3.0], ["b"], [None], [2.5], [" "]])
+    assert read_text(grid, 0, [0, 1, 2, 3, 4, 5]) == ["a", "3", "b", None, "2.5", None]

@@ -72,3 +72,29 @@ def test_grids_compare_by_content_not_by_their_column_cache():
     assert a == b
     assert a.errors == {} and a.hidden_rows == frozenset() and a.merged == () and a.uncached == frozenset()
     assert SheetGrid("S", []).errors is not SheetGrid("T", []).errors
+
+
+def test_parse_ref_message_in_full():
+    with pytest.raises(ValueError, match=r"^not a cell reference: 'A'$"):
+        parse_ref("a")
+
+
+def test_cells_at_the_edges_and_in_any_order():
+    grid = SheetGrid("S", [[1, "a", 7], [2], [3, "c"], [4]])
+    assert grid.cells(3, [0, 1]) == [None, None]  # the first column past the widest row
+    assert grid.cells(0, [0, 1]) == [1, 2]
+    assert grid.cells(0, [1, 0]) == [2, 1]
+    assert grid.cells(0, [0, 3]) == [1, 4]
+    assert grid.cells(0, [1, 1]) == [2, 2]
+
+
+def test_value_just_past_the_last_row_and_column():
+    grid = SheetGrid("S", [[1, 2, 3], [4]])
+    assert grid.value(2, 0) is None
+    assert grid.value(0, 3) is None and grid.value(1, 1) is None
+
+
+def test_repr_leaves_out_the_column_cache():
+    grid = SheetGrid("S", [[1]])
+    grid.cells(0, [0])
+    assert "_columns" not in repr(grid)

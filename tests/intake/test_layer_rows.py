@@ -224,3 +224,52 @@ def test_positions_given_as_from_the_table_itself():
     out = layers_from_rows(grid, spot, ids, findings, keys, positions)
     assert ids == ["B", "A"] and findings == []
     assert out.materials.tolist() == [["x", None], ["y", "z"]]
+
+
+def test_every_row_named_and_one_is_an_error_text():
+    out, findings = read([["P1", 1, "a", 40], ["#REF!", 2, "b", 60, 40], ["P2", 1, "c", 30]])
+    assert [(f.code, f.cell) for f in findings] == [("error-value", "A3")]
+
+
+def test_a_bad_header_unit_is_told_once():
+    head = ["Part", "Layer", "Material", "Outer diameter [kg]"]
+    out, findings = read([["P1", 1, "a", 40], ["P2", 1, "c", 30]], head=head)
+    assert [f.cell for f in findings if f.code == "header-unit"] == ["D1"]
+
+
+def test_a_table_with_a_header_only():
+    out, findings = read([])
+    assert out.present.shape == (2, 1)
+    assert [(f.code, f.part) for f in findings] == [("no-layers", "P1"), ("no-layers", "P2")]
+
+
+def test_a_row_whose_layer_cell_is_bad_is_named_without_a_layer():
+    out, findings = read([["P1", "x", "a", -40], ["P2", 1, "c", 30]])
+    msgs = [f.message for f in findings]
+    assert any(m.startswith("part P1: outer diameter: -40 mm is negative") for m in msgs)
+    head = ["Layer", "Material", "Outer diameter [mm]"]
+    grid = SheetGrid("B", [head, ["x", "a", -40]])
+    findings = []
+    layers_from_rows(grid, locate_table(grid, LAYER_ROW_FIELDS, None), [""], findings)
+    assert any(f.message.startswith("row 2: outer diameter: -40 mm is negative") for f in findings)
+
+
+def test_a_table_without_material_column():
+    head = ["Part", "Layer", "Outer diameter [mm]"]
+    out, findings = read([["P1", 1, 40], ["P2", 1, 30]], head=head)
+    assert findings == [] and out.materials.tolist() == [[None], [None]]
+    np.testing.assert_allclose(out.outer_diameter[:, 0], [0.040, 0.030], rtol=1e-12)
+
+
+def test_layers_of_different_parts_never_count_as_twice():
+    out, findings = read([["P1", 1, "a", 40], ["P1", 2, "b", 60, 40], ["P3", 1, "c", 30]], ids=("P1", "P2", "P3"))
+    assert [f.code for f in findings] == ["no-layers"] and findings[0].part == "P2"
+    assert out.present.tolist() == [[True, True], [False, False], [True, False]]
+
+
+def test_absent_layers_have_no_cell_and_refused_rows_no_slot():
+    out, findings = read([["P9", 1, "a", 40], ["P1", 1, "a", 40], ["P2", 1, "c", 30], ["P2", 2, "c", 50, 30]])
+    assert out.cells.get((0, 1, "outer_diameter")) is None
+    assert out.cells.get((1, 1, "outer_diameter")) == ("Layers", "D5")
+    assert out.source_part.tolist() == [-1, 0, 1, 1]
+    assert out.source_slot.tolist() == [-1, 0, 0, 1]

@@ -172,3 +172,41 @@ def test_empty_layer_arrays():
     assert (a.kt == 1.0).all() and not a.present.any() and not a.bad.any()
     assert a.materials.tolist() == [[None], [None]]
     assert a.source_part is None and a.source_slot is None
+
+
+def test_a_modulus_after_a_name_in_the_same_column():
+    out, findings = read([["P1", "steel", 40, None, None, None, None, None, None],
+                          ["P2", "80 GPa", 40, None, None, None, None, None, None],
+                          ["P3", "1045", 40, None, None, None, None, None, None],
+                          ["P4", "70 GPa", 40, None, None, None, None, None, None]])
+    assert findings == []
+    assert out.materials[:, 0].tolist() == ["steel", None, "1045", None]
+    np.testing.assert_allclose(out.shear_modulus[[1, 3], 0], [80e9, 70e9], rtol=1e-12)
+
+
+def test_a_missing_bore_above_the_innermost_layer_stays_unknown():
+    out, findings = read([["P1", "steel", 40, None, "bronze", 60, None, None, None]])
+    assert out.inner_diameter[0, 0] == 0.0 and math.isnan(out.inner_diameter[0, 1])
+
+
+def test_a_layer_group_without_outer_diameter_or_material_column():
+    head = ["Part", "Layer 1 material", "Layer 1 outer diameter [mm]", "Layer 2 inner diameter [mm]"]
+    out, findings = read([["P1", "steel", 40, 40]], head=head)
+    (f,) = findings
+    assert (f.code, f.part, f.layer) == ("missing", "P1", 2)
+    assert f.message == "part P1, layer 2: outer diameter is missing"
+    assert out.inner_diameter[0, 1] == pytest.approx(0.040, rel=1e-12)
+    assert out.materials.tolist() == [["steel", None]]
+
+
+def test_a_layer_given_by_its_modulus_alone():
+    out, findings = read([["P1", "steel", 40, None, "80 GPa", None, None, None, None]])
+    assert out.present.tolist() == [[True, True]]
+    # the missing outer diameter marks the part; its missing bore is not told again
+    assert [(f.code, f.layer, f.cell) for f in findings] == [("missing", 2, "F2")]
+
+
+def test_an_error_text_after_a_name():
+    out, findings = read([["P1", "steel", 40, None, None, None, None, None, None],
+                          ["P2", "#N/A", 40, None, None, None, None, None, None]])
+    assert [(f.code, f.cell) for f in findings] == [("error-value", "B3")]

@@ -182,3 +182,64 @@ def test_a_layers_column_given_twice():
     assert [f.cell for f in clashes] == ["E3", "E4"]
     assert clashes[0].message.startswith("part P2, Layers row 3: outer diameter is given twice: D3 holds 40")
     assert result.parts.input_error.tolist() == [False, True]
+
+
+def test_hidden_row_named_at_the_part_cell_wherever_it_sits():
+    grid = SheetGrid("Parts", [["Torque [N·m]", "Part", "Length [m]"], [1, "P1", 1]], hidden_rows=frozenset({1}))
+    findings = []
+    hidden_and_merged(grid, spot_of(grid), findings, "parts")
+    assert [f.cell for f in findings] == ["B2"]
+
+
+def test_anchor_merged_in_the_top_row_and_left_column_of_a_range():
+    grid = SheetGrid("Parts", [[None] * 4] * 4, merged=(((1, 1), (2, 3)),))
+    findings = [Problem(Severity.ERROR, "Parts", "C2", "a"), Problem(Severity.ERROR, "Parts", "B3", "b")]
+    anchor_merged(findings, [grid])
+    assert [f.cell for f in findings] == ["B2", "B2"]
+
+
+def test_a_two_letter_label_is_not_suggested():
+    from twistshare.engine.intake._schema import LAYER_ROW_FIELDS
+
+    assert _unknown(["Part", "Layer", "Kts"], fields=LAYER_ROW_FIELDS, layer_groups=False, what="layers") == []
+    (f,) = _unknown(["Part", "Torque [N·m]", "Layer 2 kts"])
+    assert f.severity is Severity.WARNING
+
+
+def test_a_near_miss_after_a_descriptive_column():
+    found = _unknown(["Part", "Torque [N·m]", "Notes", "Twist limt [deg]"])
+    assert [f.cell for f in found] == ["D1"]
+
+
+def test_copies_without_unit_that_agree_are_not_conflicts():
+    parts = [HEAD + ["Service factor", "Service factor"], ["P1", 100, 1, "Core steel", 40, 1.5, 1.5]]
+    result = _book(parts)
+    assert not [f for f in result.problems if f.cell == "G2"]
+    assert result.parts.input_error.tolist() == [False]
+
+
+def test_a_blank_copy_then_a_conflict_and_a_float_shown_whole():
+    parts = [HEAD + ["Design torque [N·m]"], ["P1", 100, 1, "Core steel", 40, None],
+             ["P2", 100.0, 1, "Core steel", 40, 200]]
+    result = _book(parts)
+    (clash,) = [f for f in result.problems if f.cell == "F3"]
+    assert "B3 holds 100 under 'Torque [N·m]' and F3 holds 200 under" in clash.message
+    assert result.parts.input_error.tolist() == [False, True]
+
+
+def test_materials_duplicate_header_named_and_a_nameless_row_first():
+    materials = [["Material", "G [GPa]", "Allowable shear [MPa]", "Shear modulus [GPa]"],
+                 [None, 80, 120, 70], ["Core steel", 80, 120, 81]]
+    parts = [HEAD, ["P1", 100, 1, "Core steel", 40]]
+    result = _book(parts, materials)
+    (head,) = [f for f in result.problems if f.sheet == "Materials" and f.cell == "D1"]
+    assert head.message.startswith("materials: the column 'Shear modulus [GPa]' names the same input as 'G [GPa]' (B1)")
+    assert result.materials.by_name["core steel"].problem.startswith("material 'Core steel' has a property given twice")
+
+
+def test_layers_duplicate_header_named():
+    parts = [["Part", "Torque [N·m]", "Length [m]"], ["P1", 100, 1]]
+    layers = [["Part", "Layer", "Material", "Outer diameter [mm]", "OD [mm]"], ["P1", 1, "Core steel", 40, 40]]
+    result = _book(parts, layers=layers)
+    (head,) = [f for f in result.problems if f.sheet == "Layers" and f.cell == "E1"]
+    assert head.message.startswith("layers: the column 'OD [mm]' names the same input as 'Outer diameter [mm]' (D1)")

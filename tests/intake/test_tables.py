@@ -133,3 +133,36 @@ def test_header_cells_of_a_block():
     spot = locate_table(grid, FIELDS, "part", header_cells=["Part", "Material"])
     assert spot.data_rows == (0, 2)
     assert locate_table(grid, FIELDS, "part", header_cells=["Part", "Material"], with_data=False).data_rows == ()
+
+
+def test_blank_and_number_headers_between_columns_are_skipped():
+    spot = spot_of([["Part", None, 5, "Torque [N·m]", "Torque [kN·m]", "Length [m]"], ["P1", 1, 1, 1, 1, 1]])
+    assert [c.field.key for c in spot.columns] == ["part", "torque", "length"]
+
+
+def test_a_header_on_the_last_row_has_no_data():
+    assert spot_of([["x"], HEAD]).data_rows == ()
+    assert spot_of([HEAD], header_row=1) is None
+
+
+def test_a_first_data_row_shorter_than_the_header():
+    assert spot_of([HEAD, ["P1", 1], [None, None, 2]]).data_rows == (1, 2)
+
+
+def test_two_text_columns_both_count():
+    head = ["Part", "Material", "Torque [N·m]"]
+    assert spot_of([head, ["P1", ""], ["", "a"], ["", ""], ["P4", " "]]).data_rows == (1, 2, 4)
+
+
+def test_error_values_at_the_first_data_row_and_after_the_last():
+    rows = [HEAD, [None, None, None], ["P2", None, None], [None, None, None]]
+    grid = SheetGrid("Parts", rows, errors={(1, 2): "#N/A", (3, 2): "#REF!"})
+    assert locate_table(grid, FIELDS, "part", last_row=2).data_rows == (1, 2)
+
+
+def test_table_region_fields():
+    from twistshare.engine.intake._tables import TableRegion
+
+    region = TableRegion("Parts", "Sheet1", 2, 1, 10, 6)
+    assert (region.name, region.sheet, region.header_row, region.first_col, region.last_row, region.last_col) == (
+        "Parts", "Sheet1", 2, 1, 10, 6)

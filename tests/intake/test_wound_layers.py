@@ -116,3 +116,17 @@ def test_ply_data_that_make_no_laminate():
     got = wound_layer("tube", dict(PLY, ply_nu12=5.0, ply_e2=E1), "[0]", None)
     assert got.field == "ply_e1"
     assert got.problem == "material 'tube': the ply data cannot make a laminate (check E1, E2, G12 and nu12)"
+
+
+def test_a_refused_row_has_no_moduli_and_no_note():
+    for got in (wound_layer("tube", {"ply_e1": E1}, None, None), wound_layer("tube", {}, "[0]", "kevlar"),
+                wound_layer("tube", {}, "[0]", None)):
+        assert math.isnan(got.shear_modulus) and math.isnan(got.youngs_modulus)
+        assert math.isnan(got.poisson_ratio) and math.isnan(got.density)
+        assert got.note is None and got.problem
+
+
+def test_unknown_ply_set_message_in_full():
+    got = wound_layer("tube", {}, "[0]", "kevlar")
+    choices = ", ".join(repr(n) for n in ply_library())
+    assert got.problem == f"material 'tube': ply set 'kevlar' is not in the ply library ({choices})"
