@@ -602,3 +602,17 @@ def test_example_units_are_units_of_their_kind(kind, unit):
 def test_read_text_numbers_without_errors():
     grid = SheetGrid("M", [[" a "], [3.0], ["b"], [None], [2.5], [" "]])
     assert read_text(grid, 0, [0, 1, 2, 3, 4, 5]) == ["a", "3", "b", None, "2.5", None]
+
+
+def test_uncached_message_in_full():
+    col, findings = read([None], uncached=frozenset({(1, 0)}))
+    assert findings[0].message == (
+        f"part P1: {OD.description}: the cell's formula has no saved result (the book was written by a program "
+        "that does not calculate): open and save it in Excel or LibreOffice, then run again")
+
+
+def test_a_long_text_quoted_short_is_not_cut_further():
+    raw = "x" * 200 + " mm"
+    _, problem, _ = cell_value(raw, OD, "mm", MM)
+    assert not problem.endswith(" …")
+    assert f"(… {len(raw)} characters)" in problem

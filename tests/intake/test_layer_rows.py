@@ -273,3 +273,9 @@ def test_absent_layers_have_no_cell_and_refused_rows_no_slot():
     assert out.cells.get((1, 1, "outer_diameter")) == ("Layers", "D5")
     assert out.source_part.tolist() == [-1, 0, 1, 1]
     assert out.source_slot.tolist() == [-1, 0, 0, 1]
+
+
+def test_an_error_cell_in_a_table_without_material_column():
+    head = ["Part", "Layer", "Outer diameter [mm]"]
+    out, findings = read([["P1", 1, None], ["P2", 1, 30]], head=head, errors={(1, 2): "#N/A"})
+    assert [(f.code, f.cell) for f in findings] == [("error-value", "C2")]

@@ -243,3 +243,11 @@ def test_layers_duplicate_header_named():
     result = _book(parts, layers=layers)
     (head,) = [f for f in result.problems if f.sheet == "Layers" and f.cell == "E1"]
     assert head.message.startswith("layers: the column 'OD [mm]' names the same input as 'Outer diameter [mm]' (D1)")
+
+
+def test_a_material_refused_already_keeps_its_own_reason():
+    materials = [["Material", "G [GPa]", "Allowable shear [MPa]", "Shear modulus [GPa]"],
+                 ["Core steel", 80, 120, 80], ["Odd", 80, "abc", 70]]
+    result = _book([HEAD, ["P1", 100, 1, "Core steel", 40]], materials)
+    assert result.materials.by_name["odd"].problem.startswith("material 'Odd' has an unusable property: "
+                                                              "allowable shear stress: 'abc'")
