@@ -251,3 +251,11 @@ def test_a_material_refused_already_keeps_its_own_reason():
     result = _book([HEAD, ["P1", 100, 1, "Core steel", 40]], materials)
     assert result.materials.by_name["odd"].problem.startswith("material 'Odd' has an unusable property: "
                                                               "allowable shear stress: 'abc'")
+
+
+def test_a_near_miss_of_a_three_letter_label():
+    grid = SheetGrid("Materials", [["Material", "G [GPa]", "G12x"], ["a", 80, 5]])
+    spot = locate_table(grid, MATERIAL_FIELDS, "name")
+    (f,) = unknown_headers(grid, spot, MATERIAL_FIELDS, False, "materials")
+    assert (f.severity, f.cell) == (Severity.ERROR, "C1")
+    assert "looks like 'G12'" in f.message
