@@ -112,20 +112,6 @@ def _data_rows(grid: SheetGrid, start: int, end: int, idx: list[int]) -> tuple[i
     return tuple((np.flatnonzero(filled) + start).tolist())
 
 
-def _has_data(grid: SheetGrid, r: int, idx: list[int]) -> bool:
-    """True if any of the table's columns holds something in row ``r`` (an error value counts)."""
-    row = grid.rows[r]
-    width = len(row)
-    for c in idx:
-        if c < width:
-            v = row[c]
-            if v is not None and v != "" and not (type(v) is str and not v.strip()):
-                return True
-    if grid.errors:
-        return any((r, c) in grid.errors for c in idx)
-    return False
-
-
 def locate_table(
     grid: SheetGrid,
     fields: tuple[Field, ...],
