@@ -50,7 +50,7 @@ def _plain_part_keys(grid: SheetGrid, col: int, rows: list[int]
     checks read one key per run, not one per row.
     """
     raw = grid.cells(col, rows)
-    if grid.errors or not all_of_type(raw, str):
+    if not raw or grid.errors or not all_of_type(raw, str):
         return None
     starts = [0, *compress(count(1), map(ne, raw[1:], raw))]
     heads = list(map(raw.__getitem__, starts))
