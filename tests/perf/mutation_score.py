@@ -114,7 +114,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_layers", "intake", "engine/intake/_layers.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_layer_rows", "intake", "engine/intake/_layer_rows.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_materials", "intake", "engine/intake/_materials.py",
-     [TI + "test_front_ends_agree.py", TB + "test_materials_rules.py"]),
+     [TI + "test_materials_intake.py", TB + "test_materials_rules.py"]),
     ("intake_problems", "intake", "engine/intake/_problems.py", [TI + "test_problems.py", TI + "test_beyond_torsion.py"]),
     ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
     ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
@@ -138,7 +138,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_grid", "intake", "engine/intake/_grid.py", [TI + "test_beyond_torsion.py", TI + "test_front_ends_agree.py"]),
     ("intake_tables", "intake", "engine/intake/_tables.py", [TI + "test_front_ends_agree.py", TB + "test_bad_cells.py"]),
     ("intake_table_checks", "intake", "engine/intake/_table_checks.py", [TB + "test_bad_cells.py"]),
-    ("intake_cellrefs", "intake", "engine/intake/_cellrefs.py", [TI + "test_beyond_torsion.py", TB + "test_comments.py"]),
+    ("intake_cellrefs", "intake", "engine/intake/_cellrefs.py", [TI + "test_cellrefs.py", TI + "test_duty.py"]),
     # units: the shared registry and its engineers' spellings
     ("units_kinds", "units", "engine/units/_kinds.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
