@@ -118,7 +118,7 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_problems", "intake", "engine/intake/_problems.py", [TI + "test_problems.py", TI + "test_beyond_torsion.py"]),
     ("intake_allowable_rule", "intake", "engine/intake/_allowable_rule.py", [TI + "test_allowable_rule.py"]),
     ("intake_columns", "intake", "engine/intake/_columns.py", [TI + "test_schema.py", TI + "test_front_ends_agree.py"]),
-    ("intake_loads", "intake", "engine/intake/_loads.py", [TI + "test_front_ends_agree.py", TI + "test_beyond_torsion.py"]),
+    ("intake_loads", "intake", "engine/intake/_loads.py", [TI + "test_loads.py", TI + "test_beyond_torsion.py"]),
     ("intake_interface_inputs", "intake", "engine/intake/_interface_inputs.py",
      [TI + "test_interface_inputs.py", TI + "test_adhesive_names.py", TB + "test_sleeves_book.py",
       TE + "test_cells_sleeves.py", TI + "test_beyond_torsion.py", TI + "test_front_ends_agree.py"]),
