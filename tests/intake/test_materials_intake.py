@@ -27,7 +27,7 @@ def test_a_library_steel_gets_the_shafting_code_allowable():
     assert got.expansion_coefficient == pytest.approx(11.7e-6)  # ASM, plain carbon steel
     assert got.density == pytest.approx(0.282 * 0.45359237 / 0.0254 ** 3)  # 0.282 lb/in^3, NIST SP 811
     assert got.rule is AllowableRule.SHAFTING_CODE
-    assert got.keyway is False
+    assert got.keyway is False and got.origin == "library"
     assert math.isnan(got.factor_of_safety)
     assert got.problem is None and got.allowable_problem is None
     assert "93 MPa" in got.note and "not in the materials table" in got.note
@@ -75,3 +75,130 @@ def test_a_name_defined_twice_names_both_cells():
     assert got is None
     assert "'Steel A'" in problem and "more than once" in problem
     assert "(A3, A7)" in problem
+
+
+# The book's materials table read row by row: what each refusal or note names, and where.
+
+import sys  # noqa: E402
+from pathlib import Path  # noqa: E402
+
+sys.path.insert(0, str(Path(__file__).parent))
+from _membook import MemoryBook  # noqa: E402
+from twistshare.engine.intake import rate_tables  # noqa: E402
+from twistshare.engine.intake._problems import Severity  # noqa: E402
+
+MAT_HEAD = ["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Allowable shear [MPa]", "Yield strength [MPa]",
+            "Ultimate strength [MPa]", "Allowable rule", "Factor of safety", "Keyway"]
+PART_HEAD = ["Part", "Length [mm]", "Torque [N·m]", "Layer 1 material", "Layer 1 outer diameter [mm]",
+             "Layer 1 inner diameter [mm]"]
+
+
+def _book(*rows):
+    """A materials table (rows after the header, from sheet row 2) and one part per named row."""
+    names = [r[0] for r in rows if r[0]]
+    parts = [PART_HEAD] + [[f"P{i + 1}", 500, 100, n, 30, 0] for i, n in enumerate(dict.fromkeys(names))]
+    result = rate_tables(MemoryBook({"Materials": [MAT_HEAD, *rows], "Parts": parts}))
+    on_materials = {(p.cell, p.code): p for p in result.problems if p.sheet == "Materials"}
+    return result, on_materials
+
+
+def _row(name, g=None, e=None, nu=None, tau=100, sy=None, su=None, rule=None, fs=None, key=None):
+    return [name, g, e, nu, tau, sy, su, rule, fs, key]
+
+
+def test_g_is_derived_from_e_and_poisson_ratio_and_said_at_the_g_cell():
+    result, found = _book(_row("Alpha", e=200, nu=0.3))
+    p = found["B2", "input"]
+    assert p.severity is Severity.NOTE and p.material == "Alpha"
+    assert p.message.startswith(f"material 'Alpha': G = E/2(1+ν) = {200 / (2 * 1.3):.4g} GPa")
+    assert "isotropic material only" in p.message
+    assert result.materials.by_name[next(iter(result.materials.by_name))].shear_modulus == pytest.approx(
+        200e9 / 2.6, rel=1e-12)
+    assert result.rated.tolist() == [True]
+
+
+def test_poisson_ratio_one_half_is_the_isotropic_limit_and_above_it_is_refused():
+    result, found = _book(_row("Half", e=200, nu=0.5), _row("Over", e=200, nu=0.6))
+    assert f"= {200 / 3:.4g} GPa" in found["B2", "input"].message  # G = E/2(1 + 0.5) = E/3
+    p = found["A3", "material"]
+    assert p.severity is Severity.ERROR
+    assert p.message.startswith("material 'Over': Poisson ratio 0.6 is above 0.5")
+    assert p.message.endswith("give G")
+    assert result.rated.tolist() == [True, False]
+
+
+def test_no_shear_modulus_at_all_is_refused_at_the_name():
+    result, found = _book(_row("Gamma"))
+    p = found["A2", "material"]
+    assert p.message == ("material 'Gamma': no shear modulus: give G, or E and Poisson ratio, "
+                         "or name a built-in library material")
+    assert result.rated.tolist() == [False]
+
+
+def test_a_row_without_a_name_is_ignored_naming_its_row():
+    _, found = _book(_row("Alpha", g=80), _row(None, g=80))
+    p = found["A3", "input"]
+    assert p.severity is Severity.ERROR
+    assert p.message == "materials row 3: the material has no name; the row is ignored"
+
+
+def test_a_name_given_twice_names_the_first_cell_and_refuses_its_parts():
+    result, found = _book(_row("Alpha", g=80), _row("Beta", g=80), _row("alpha", g=70))
+    p = found["A4", "input"]
+    assert p.message == ("material 'alpha' is defined again (first at A2); parts using it are not rated "
+                         "until one definition is removed")
+    part = next(q for q in result.problems if q.sheet == "Parts" and q.part == "P1")
+    assert "defined more than once in the materials table (A2, A4)" in part.message
+    assert result.rated.tolist() == [False, True, False]  # P3 names 'alpha': the same material
+
+
+def test_a_keyway_word_that_is_not_yes_or_no_refuses_the_material():
+    result, found = _book(_row("Delta", g=80, key="maybe"))
+    assert found["J2", "input"].message == "material 'Delta': keyway: expected yes or no, got 'maybe'"
+    assert found["A2", "material"].message == "material 'Delta': keyway cell unreadable"
+    assert result.rated.tolist() == [False]
+
+
+def test_an_unknown_rule_word_is_refused_at_the_rule_cell():
+    result, found = _book(_row("Eps", g=80, tau=None, sy=300, rule="sometimes", fs=2))
+    p = found["H2", "rule-word"]
+    assert p.message.startswith("material 'Eps': allowable rule 'sometimes' is not one of: ")
+    assert "max shear" in p.message and "distortion energy" in p.message
+    assert p.values == ("sometimes",)
+    assert found["A2", "material"].message == "material 'Eps': unknown allowable rule 'sometimes'"
+    assert result.rated.tolist() == [False]
+
+
+def test_an_unusable_cell_is_quoted_in_the_material_s_problem():
+    result, found = _book(_row("Zeta", g="abc"))
+    assert ("B2", "unit") in found
+    p = found["A2", "material"]
+    assert p.message.startswith("material 'Zeta' has an unusable property: shear modulus G: 'abc'")
+    assert "material 'Zeta': shear" not in p.message  # the cell's own prefix is not repeated
+    assert result.rated.tolist() == [False]
+
+
+def test_one_strength_beside_a_library_name_is_not_paired_with_the_library_s_other():
+    result, found = _book(_row("AISI 1045 hot rolled", tau=None, sy=300))
+    p = found["A2", "no-allowable"]
+    assert "needs the ultimate strength" in p.message
+    assert p.message.endswith("(the row gives only the yield strength; the library's typical ultimate "
+                              "strength is not paired with it)")
+    result, found = _book(_row("AISI 1045 hot rolled", tau=None, su=600))
+    assert found["A2", "no-allowable"].message.endswith(
+        "(the row gives only the ultimate strength; the library's typical yield strength is not paired with it)")
+
+
+def test_a_rule_note_sits_on_the_rule_cell_and_an_input_note_on_its_own_cell():
+    # Tresca 0.5·Sy/FS = 0.5·300/2 = 75 MPa; the allowable typed (100 MPa) is not used
+    result, found = _book(_row("Theta", g=80, tau=100, sy=300, rule="max shear", fs=2))
+    p = found["E2", "input-ignored"]
+    assert "allowable shear given but rule" in p.message
+    (m,) = result.materials.by_name.values()
+    assert m.allowable_shear == pytest.approx(75e6, rel=1e-12)
+    assert m.origin == "book" and m.problem is None
+    # a steel without a rule: the code rule, stated on the (empty) rule cell
+    result, found = _book(_row("Shaft steel", g=80, tau=None, sy=300, su=500))
+    assert found["H2", "default-rule"].severity is Severity.NOTE
+    (m,) = result.materials.by_name.values()
+    assert m.allowable_shear == pytest.approx(min(0.30 * 300, 0.18 * 500) * 1e6, rel=1e-12)
