@@ -125,3 +125,21 @@ def test_library_fills_are_noted_at_the_blank_cell_in_the_handbook_units():
         assert "Shigley" in p.message
     # min(0.30 · 310, 0.18 · 570) = 93 MPa from the filled strengths (hand calculation)
     assert result.materials.by_name[next(iter(result.materials.by_name))].allowable_shear == pytest.approx(93e6)
+
+
+def test_the_published_table_names_are_the_ones_read():
+    from twistshare.engine.intake import TABLE_NAMES
+    materials_name, parts_name, layers_name = TABLE_NAMES
+    parts = [["Part", "Length [mm]", "Torque [N·m]"], ["P1", 500, 100]]
+    result = rate_tables(MemoryBook({materials_name: MATERIALS, parts_name: parts, layers_name: LAYERS}))
+    assert result.rated.tolist() == [True]
+    assert {result.materials_spot.sheet, result.parts_spot.sheet, result.layers_spot.sheet} == set(TABLE_NAMES)
+
+
+def test_a_book_without_parts_has_no_results_and_a_book_without_sizing_no_sizing():
+    result = rate_tables(MemoryBook({"Materials": MATERIALS, "Parts": PARTS[:1]}))
+    assert result.rating is None and result.rated is None
+    assert result.sizing is None and result.whirl is None
+    assert result.plastic is None and result.shear_yield is None
+    result = rate_tables(MemoryBook({"Materials": MATERIALS, "Parts": PARTS}))
+    assert result.sizing is None and result.rating is not None
