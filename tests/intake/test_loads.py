@@ -89,8 +89,8 @@ def test_an_axial_force_without_e_names_the_layer_its_material_and_the_force_cel
     assert error.tolist() == [False, True]
     assert (p.severity, p.sheet, p.cell, p.part, p.layer, p.code) == (Severity.ERROR, "Parts", "D3", "S2", 2,
                                                                       "missing")
-    assert "layer 2" in p.message and "S2" in p.message
-    assert "an axial force is given" in p.message
+    assert p.message.startswith("part S2, layer 2: an axial force is given, so the combined stress needs every "
+                                "layer's Young's modulus E")
     assert "its material 'Bronze X' gives none" in p.message
     assert p.message.endswith("the part is not rated")
 
@@ -129,7 +129,8 @@ def test_whirl_asked_by_a_support_word_is_noted_when_e_or_density_is_missing():
     (p,) = _whirl(1.0, 100.0, [200e9], [NAN])
     assert p.severity is Severity.NOTE and p.part == "S1"
     assert p.message.startswith("part S1: whirl is not checked")
-    assert "Young's modulus E" in p.message and "density" in p.message
+    assert "Young's modulus E" in p.message
+    assert p.message.endswith("density (both are needed for the first critical speed)")
     assert len(_whirl(1.0, 100.0, [NAN], [7850.0])) == 1
     assert _whirl(1.0, 100.0, [200e9], [7850.0]) == []  # both known: checked, nothing to say
     assert _whirl(1.0, NAN, [200e9], [NAN]) == []  # no speed: nothing to check
@@ -148,3 +149,52 @@ def test_a_part_refused_already_gets_no_whirl_note():
               "youngs_modulus": np.array([[NAN]]), "density": np.array([[NAN]])}
     findings, _ = _problems(inputs, [[True]], [["Steel"]])
     assert [p.code for p in findings] == ["missing"]
+
+
+def test_the_whirl_note_sits_on_the_speed_cell():
+    cells = CellRefs("Parts", [6])
+    cells.column(("speed",), 4)
+    inputs = {"speed": np.array([100.0]), "end_support": np.array([1.0]),
+              "youngs_modulus": np.array([[200e9]]), "density": np.array([[NAN]])}
+    findings, _ = _problems(inputs, [[True]], [["Steel"]], cells=cells)
+    (p,) = findings
+    assert (p.sheet, p.cell) == ("Parts", "E7")
+
+
+def test_an_axial_force_column_alone_is_read():
+    grid = SheetGrid("Parts", [["Part", "Torque [N·m]", "Axial force [N]"], ["P1", 5, 250]])
+    spot = locate_table(grid, PART_FIELDS, "part")
+    data = list(spot.data_rows)
+    loads = read_loads(grid, spot, data, ["P1"], lambda r: "part P1", [], set(), CellRefs("Parts", data))
+    assert loads.inputs["axial_force"].tolist() == [250.0]
+    assert "bending_moment" not in loads.inputs
+
+
+def test_an_unreadable_load_cell_makes_its_part_unratable_whichever_column():
+    loads, findings, _ = _read([["P1", 10, "abc", 1, None, None], ["P2", 10, 5, "xyz", None, None],
+                                ["P3", 10, 5, 1, None, None]])
+    assert loads.bad.tolist() == [True, True, False]
+    assert {p.cell for p in findings} == {"C2", "D3"}
+
+
+def test_the_layer_properties_reach_the_load_checks_from_the_materials_table():
+    import sys
+    from pathlib import Path
+    sys.path.insert(0, str(Path(__file__).parent))
+    from _membook import MemoryBook
+    from twistshare.engine.intake import rate_tables
+
+    mats = [["Material", "G [GPa]", "E [GPa]", "Poisson ratio", "Density [kg/m3]", "Allowable shear [MPa]",
+             "Factor of safety"],
+            ["Alpha", 80, 200, 0.3, 7850, 120, None], ["Bare", 80, None, None, None, 120, None]]
+    head = ["Part", "Length [mm]", "Torque [N·m]", "Speed [rpm]", "Supports", "Bending moment [N·m]",
+            "Layer 1 material", "Layer 1 outer diameter [mm]", "Layer 1 inner diameter [mm]"]
+    parts = [head, ["P1", 500, 100, 1000, "clamped", 5, "Alpha", 30, 0],
+             ["P2", 500, 100, 1000, "clamped", 5, "Bare", 30, 0],
+             ["P3", 500, 100, 1000, "clamped", None, "Bare", 30, 0]]
+    result = rate_tables(MemoryBook({"Materials": mats, "Parts": parts}))
+    codes = {(p.part, p.code) for p in result.problems}
+    assert ("P1", "missing") not in codes and ("P1", "whirl-not-checked") not in codes
+    assert ("P2", "missing") in codes  # a bending moment without E
+    assert ("P3", "whirl-not-checked") in codes  # a speed and supports without E or density
+    assert result.rated.tolist() == [True, False, True]
