@@ -87,12 +87,12 @@ def load_problems(inputs: dict[str, np.ndarray], present: np.ndarray, materials:
     for i in np.flatnonzero(loaded & no_e.any(axis=1) & ~error).tolist():
         j = int(np.flatnonzero(no_e[i])[0])
         key = "bending_moment" if not np.isnan(moment[i]) else "axial_force"
-        what = "bending moment" if key == "bending_moment" else "axial force"
+        what = "a bending moment" if key == "bending_moment" else "an axial force"
         mat = materials[i, j]
         whose = f"its material {mat!r} gives" if mat is not None else "it is given by its G alone and has"
         findings.append(Problem(
             Severity.ERROR, *at(key, i),
-            f"{where_text(ids[i], j + 1)}: a {what} is given, so the combined stress needs every layer's "
+            f"{where_text(ids[i], j + 1)}: {what} is given, so the combined stress needs every layer's "
             f"Young's modulus E, but {whose} none: add E to the materials table; the part is not rated",
             part=ids[i], layer=j + 1, code="missing"))
         error[i] = True

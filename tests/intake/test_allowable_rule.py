@@ -113,3 +113,71 @@ def test_decision_and_notes_are_frozen_and_doubts_are_not_assumptions():
 def test_a_nameless_material_is_not_named_in_its_notes():
     decision = allowable_of(None, AllowableRule.MAX_SHEAR, NAN, 300 * MPA, 200 * MPA, 2, False)
     assert [n.message for n in decision.notes] == ["the ultimate strength is below the yield strength: check both values"]
+
+
+# The notes' fields and codes (what a book writes beside which input) and their key words.
+
+def test_the_default_rule_note_names_the_rule_and_the_material():
+    decision = allowable_of("AISI 1045 hot rolled", None, NAN, 310 * MPA, 570 * MPA, NAN, False)
+    (note,) = decision.notes
+    assert (note.field, note.code) == ("rule", "default-rule")
+    assert note.message.startswith("material 'AISI 1045 hot rolled': no allowable shear and no rule given")
+    assert note.message.endswith("used the shafting code rule min(0.30·Sy, 0.18·Su) for steel shafting")
+
+
+def test_a_steel_without_a_rule_and_one_strength_missing_says_which_not_the_default():
+    decision = allowable_of("AISI 1045 hot rolled", None, NAN, 310 * MPA, NAN, NAN, False)
+    assert math.isnan(decision.allowable)
+    assert "ultimate strength" in decision.missing and "yield" not in decision.missing
+    assert decision.notes == ()  # no rule was applied, so none is stated as assumed
+
+
+def test_given_without_a_value_says_so():
+    decision = allowable_of("Steel X", AllowableRule.GIVEN, NAN, NAN, NAN, NAN, False)
+    assert decision.missing == "material 'Steel X': rule 'given' but no allowable shear stress"
+
+
+@pytest.mark.parametrize("fs, keyway, fields", [
+    (2.0, False, ["factor_of_safety"]),
+    (NAN, True, ["keyway"]),
+    (2.0, True, ["factor_of_safety", "keyway"]),
+    (NAN, False, []),
+])
+def test_given_directly_the_factor_of_safety_and_keyway_are_ignored_inputs(fs, keyway, fields):
+    decision = allowable_of("Steel X", AllowableRule.GIVEN, 50 * MPA, NAN, NAN, fs, keyway)
+    assert decision.allowable == 50 * MPA and decision.missing is None
+    assert [n.field for n in decision.notes] == fields
+    words = {"factor_of_safety": "the factor of safety is not used", "keyway": "the keyway is not used"}
+    for n in decision.notes:
+        assert n.code == "input-ignored" and not n.assumed
+        assert n.message.startswith("material 'Steel X': " + words[n.field])
+        assert "given directly" in n.message and "keyway allowance)" in n.message
+
+
+def test_a_theory_without_factor_of_safety_names_it():
+    decision = allowable_of("Steel X", AllowableRule.MAX_SHEAR, NAN, 300 * MPA, NAN, NAN, False)
+    assert decision.missing.startswith("material 'Steel X': rule ")
+    assert decision.missing.endswith("needs a factor of safety")
+
+
+def test_the_code_rule_names_both_missing_strengths():
+    decision = allowable_of("Steel X", AllowableRule.SHAFTING_CODE, NAN, NAN, NAN, NAN, False)
+    assert decision.missing.startswith("material 'Steel X': rule ")
+    assert decision.missing.endswith("needs the yield strength and the ultimate strength")
+
+
+def test_the_code_rule_warns_of_ultimate_below_yield_without_an_fs_note():
+    # Su < Sy is a doubt about the inputs; no FS was typed, so nothing is said about one.
+    decision = allowable_of("Steel X", AllowableRule.SHAFTING_CODE, NAN, 400 * MPA, 300 * MPA, NAN, False)
+    assert decision.allowable == pytest.approx(min(0.30 * 400, 0.18 * 300) * MPA, rel=1e-12)
+    assert [(n.field, n.code) for n in decision.notes] == [("ultimate_strength", "ultimate-below-yield")]
+    assert decision.notes[0].message.startswith("material 'Steel X': the ultimate strength is below")
+
+
+def test_a_rule_chosen_over_a_given_allowable_says_the_rule_wins():
+    decision = allowable_of("Steel X", AllowableRule.MAX_SHEAR, 80 * MPA, 300 * MPA, NAN, 2.0, False)
+    assert decision.allowable == pytest.approx(0.5 * 300 / 2 * MPA, rel=1e-12)  # Tresca, not the 80 given
+    (note,) = decision.notes
+    assert (note.field, note.code) == ("allowable_shear", "input-ignored")
+    assert note.message.startswith("material 'Steel X': allowable shear given but rule ")
+    assert note.message.endswith("chosen; the rule's value is used")

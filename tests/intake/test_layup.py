@@ -103,3 +103,68 @@ def test_symmetric_is_a_palindrome_of_twice_the_plies(values, repeat):
     plies = parse_layup(text)
     assert plies == plies[::-1]
     assert len(plies) == 2 * repeat * len(values)
+
+
+# The notation's less common spellings and every refusal's words (Jones; Daniel and Ishai; the
+# combining overline U+0304/U+0305 marks the unrepeated mid-plane ply of a symmetric list,
+# common practice). Expected angles are written out by hand from the notation.
+
+@pytest.mark.parametrize("text, angles", [
+    ("-+45", (-45.0, 45.0)),
+    ("∓30", (-30.0, 30.0)),
+    ("+-45", (45.0, -45.0)),
+    ("[0/45/90\u0305]s", (0.0, 45.0, 90.0, 45.0, 0.0)),
+    ("[0/45/90\u0304]s", (0.0, 45.0, 90.0, 45.0, 0.0)),
+    ("[(0/90)]", (0.0, 90.0)),
+    ("[0/90]ₛ", (0.0, 90.0, 90.0, 0.0)),
+    ("[0/90]t", (0.0, 90.0)),
+    ("[0/90]T", (0.0, 90.0)),
+    ("[-90/90]", (-90.0, 90.0)),
+])
+def test_other_spellings(text, angles):
+    assert parse_layup(text) == angles
+
+
+def test_minus_zero_is_zero():
+    assert str(parse_layup("[-0]")[0]) == "0.0"
+
+
+@pytest.mark.parametrize("text, words", [
+    ("[0]0", "a repeat count of at least 1"),
+    ("[0\u0305/45]s", "nothing after the overlined mid-plane ply"),
+    ("[(0/90\u0305)]s", "the mid-plane overline on the last ply, outside parentheses"),
+    ("[±-45]", "an unsigned angle after the pair sign"),
+    ("[±+-45]", "a ply angle (a number of degrees)"),  # one pair sign, not two
+    ("[±0]", "a non-zero angle after the pair sign (±0 is one angle)"),
+    ("[0/±45\u0305]s", "a single ply at the mid-plane, not a pair"),
+    ("[0/90\u03052]s", "one mid-plane ply (no count on the overlined ply)"),
+    ("[-90.5]", "a ply angle between -90 and 90 degrees"),
+    ("[90.5]", "a ply angle between -90 and 90 degrees"),
+])
+def test_refusals_say_what_was_expected(text, words):
+    with pytest.raises(LayupNotationError) as got:
+        parse_layup(text)
+    assert got.value.expected.startswith(words)
+    assert f"expected {words}" in str(got.value)
+    assert str(got.value).endswith("write a layup like '[0/±45/90]2s'")
+
+
+def test_a_refusal_quotes_six_characters_from_where_it_stopped():
+    with pytest.raises(LayupNotationError) as got:
+        parse_layup("[0/abcdefgh]")
+    assert got.value.position == 3  # the 'a', zero-based, as the test wrote it
+    assert "at character 4, found 'abcdef';" in str(got.value)
+    assert got.value.text == "[0/abcdefgh]"
+
+
+def test_an_overline_outside_a_symmetric_list_is_refused_at_the_start():
+    with pytest.raises(LayupNotationError) as got:
+        parse_layup("[0/90\u0305]")
+    assert got.value.position == 0
+    assert got.value.expected == "a mid-plane overline only in a symmetric list without a count"
+    assert "at character 1," in str(got.value)
+
+
+def test_not_text_is_a_type_error_naming_the_type():
+    with pytest.raises(TypeError, match=r"^layup must be text; got int 45$"):
+        parse_layup(45)
