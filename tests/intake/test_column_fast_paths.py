@@ -74,7 +74,7 @@ def test_first_seen_index_and_drop_key():
     assert same == ["x"] and again.tolist() == [0, 0]
 
 
-@pytest.mark.parametrize("rows", [[3, 4, 5, 6], [3, 5, 9], [7], []])
+@pytest.mark.parametrize("rows", [[3, 4, 5, 6], [3, 5, 9], [0, 3], [0, 1, 4], [7], []])
 def test_row_array_gives_the_rows(rows):
     got = row_array(rows)
     assert got.dtype == np.intp
