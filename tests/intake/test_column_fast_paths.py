@@ -166,3 +166,31 @@ def test_ragged_rows_read_as_padded():
     assert parts.ids == ["P1", "P2"]
     assert parts.inner_diameter[1, 0] == 0.0  # a blank bore on the innermost layer: a solid core
     assert parts.outer_diameter[1, 0] == pytest.approx(0.030)
+
+
+@pytest.mark.parametrize("ids, expect_ids, expect_positions", [
+    # an empty text (as a host passes an empty cell) continues the part above, like None
+    (["P1", "", "P2"], ["P1", "P2"], [0, 0, 1]),
+    # spaces around an id, no blank: the same part
+    (["P1", " P1 ", "P2"], ["P1", "P2"], [0, 0, 1]),
+    # ids typed as numbers read as their text
+    ([1001.0, 1001.0, 1002.0], ["1001", "1002"], [0, 0, 1]),
+])
+def test_part_ids_that_need_the_cell_by_cell_reading(ids, expect_ids, expect_positions):
+    grid, spot = _table([_layer(pid, STEEL, 40.0, 0.0) for pid in ids])
+    (keys, errors), got_ids, positions = part_rows(grid, spot)
+    assert got_ids == expect_ids
+    assert positions.tolist() == expect_positions
+    assert errors == [False] * len(ids)
+    assert part_keys(grid, spot)[1] == [False] * len(ids)
+
+
+def test_an_error_value_in_a_material_cell_stops_its_part_only():
+    # the error arrives as its text in a host's block (#N/A); the names around it are grouped
+    parts, problems = _parts([_layer("P1", STEEL, 40.0, 0.0), _layer("P1", "#N/A", 50.0, 40.0),
+                              _layer("P2", BRONZE, 30.0, 0.0)])
+    errors = [(p.part, p.layer, p.cell, p.code) for p in problems if p.code == "error-value"]
+    assert errors == [("P1", 2, "B3", "error-value")]
+    assert [p.code for p in problems if p.cell == "B3"] == ["error-value"]  # told once, not as a name too
+    assert parts.materials[0].tolist() == [STEEL, None]
+    assert parts.input_error.tolist() == [True, False]
