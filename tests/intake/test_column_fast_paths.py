@@ -156,6 +156,7 @@ def test_blank_material_is_found_on_its_cell():
                               _layer("P2", STEEL, 30.0, 0.0)])
     missing = [p for p in problems if p.code == "missing"]
     assert [(p.part, p.layer, p.cell) for p in missing] == [("P1", 2, "B3")]
+    assert parts.materials[:, 0].tolist() == [STEEL, STEEL] and parts.materials[0, 1] is None
     assert parts.input_error.tolist() == [True, False]
 
 
