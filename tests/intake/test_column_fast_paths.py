@@ -195,3 +195,15 @@ def test_an_error_value_in_a_material_cell_stops_its_part_only():
     assert [p.code for p in problems if p.cell == "B3"] == ["error-value"]  # told once, not as a name too
     assert parts.materials[0].tolist() == [STEEL, None]
     assert parts.input_error.tolist() == [True, False]
+
+
+def test_a_rectangular_grid_reads_every_column_and_nothing_past_it():
+    rows = [["a", 1.0, 2.0], ["b", 3.0, 4.0]]
+    grid = SheetGrid("S", rows, rectangular=True)
+    assert grid.cells(0, [0, 1]) == ["a", "b"]          # the first column
+    assert grid.cells(2, [0, 1]) == [2.0, 4.0]          # the last
+    assert grid.cells(3, [0, 1]) == [None, None]        # past the last: empty cells
+    assert grid.cells(1, [1]) == [3.0]
+    one = SheetGrid("S", [["x", 5.0]], rectangular=True)
+    assert one.cells(1, [0]) == [5.0]                   # a one-row range
+    assert SheetGrid("S", [], rectangular=True).cells(0, []) == []
