@@ -93,6 +93,12 @@ def _layer(part, material, outer, inner):
     (["P1", "P2", "P1", "P3"], ["P1", "P2", "P3"], [0, 1, 0, 2]),
     # spaces around an id and a blank (continuing the part above) are read cell by cell
     (["P1", " P1 ", "P2", None], ["P1", "P2"], [0, 0, 1, 1]),
+    # an empty text (as a host passes an empty cell) continues the part above, like None
+    (["P1", "", "P2"], ["P1", "P2"], [0, 0, 1]),
+    # spaces around an id, no blank: the same part
+    (["P1", " P1 ", "P2"], ["P1", "P2"], [0, 0, 1]),
+    # ids typed as numbers read as their text
+    ([1001.0, 1001.0, 1002.0], ["1001", "1002"], [0, 0, 1]),
 ])
 def test_part_rows_match_the_part_column(ids, expect_ids, expect_positions):
     grid, spot = _table([_layer(pid, STEEL, 40.0, 0.0) for pid in ids])
@@ -101,7 +107,8 @@ def test_part_rows_match_the_part_column(ids, expect_ids, expect_positions):
     assert positions.tolist() == expect_positions
     assert errors == [False] * len(ids)
     # the same as the cell-by-cell reading of the column
-    slow_keys, _ = part_keys(grid, spot)
+    slow_keys, slow_errors = part_keys(grid, spot)
+    assert slow_errors == [False] * len(ids)
     assert list(keys) == slow_keys
     assert part_positions(slow_keys)[0] == expect_ids
 
@@ -168,22 +175,6 @@ def test_ragged_rows_read_as_padded():
     assert parts.inner_diameter[1, 0] == 0.0  # a blank bore on the innermost layer: a solid core
     assert parts.outer_diameter[1, 0] == pytest.approx(0.030)
 
-
-@pytest.mark.parametrize("ids, expect_ids, expect_positions", [
-    # an empty text (as a host passes an empty cell) continues the part above, like None
-    (["P1", "", "P2"], ["P1", "P2"], [0, 0, 1]),
-    # spaces around an id, no blank: the same part
-    (["P1", " P1 ", "P2"], ["P1", "P2"], [0, 0, 1]),
-    # ids typed as numbers read as their text
-    ([1001.0, 1001.0, 1002.0], ["1001", "1002"], [0, 0, 1]),
-])
-def test_part_ids_that_need_the_cell_by_cell_reading(ids, expect_ids, expect_positions):
-    grid, spot = _table([_layer(pid, STEEL, 40.0, 0.0) for pid in ids])
-    (keys, errors), got_ids, positions = part_rows(grid, spot)
-    assert got_ids == expect_ids
-    assert positions.tolist() == expect_positions
-    assert errors == [False] * len(ids)
-    assert part_keys(grid, spot)[1] == [False] * len(ids)
 
 
 def test_an_error_value_in_a_material_cell_stops_its_part_only():
