@@ -22,8 +22,8 @@ from ._problems import Problem, Severity
 from ._schema import Column, Field
 from ._words import QUOTE_MAX, error_value_text, flag_from_value, quoted
 
-__all__ = ["NumericColumn", "drop_key", "first_seen_index", "read_numeric", "row_array", "read_text", "read_flag", "describe_kind", "quoted", "error_problem",
-           "example_unit"]
+__all__ = ["NumericColumn", "drop_key", "first_seen_index", "read_numeric", "row_array", "read_text", "read_flag",
+           "describe_kind", "quoted", "error_problem", "example_unit"]
 
 def _fmt(x: float) -> str:
     return f"{x:.6g}"
@@ -182,7 +182,7 @@ def row_array(rows: Sequence[int]) -> np.ndarray:
     converting each number."""
     if rows and rows[-1] - rows[0] + 1 == len(rows):
         return np.arange(rows[0], rows[-1] + 1, dtype=np.intp)
-    return np.asarray(rows, dtype=np.intp).reshape(-1)
+    return np.asarray(rows, dtype=np.intp)
 
 
 def drop_key(distinct: list, index: np.ndarray, key: Hashable, code: int) -> tuple[list, np.ndarray]:

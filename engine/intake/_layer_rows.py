@@ -73,7 +73,13 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
     plain = _plain_part_keys(grid, pcol.index, rows)
     if plain is not None:
         return plain[0], [False] * len(rows)
-    keys = read_text(grid, pcol.index, rows)
+    return _part_keys_cell_by_cell(grid, pcol.index, rows)
+
+
+def _part_keys_cell_by_cell(grid: SheetGrid, col: int, rows: list[int]) -> tuple[list[str | None], list[bool]]:
+    """`part_keys` for a Part column that is not plain: blanks continue the part above, error
+    values name none."""
+    keys = read_text(grid, col, rows)
     if None not in keys and not grid.errors and not may_hold_error_values(keys):
         return keys, [False] * len(rows)  # every row names its part
     out: list[str | None] = []
@@ -81,7 +87,7 @@ def part_keys(grid: SheetGrid, spot: TableSpot) -> tuple[list[str | None], list[
     above: str | None = None
     for r, key in zip(rows, keys):
         if (key is not None and key[:1] in "#Ee" and error_value_text(key)) or (grid.errors and grid.error_at(
-                r, pcol.index)):
+                r, col)):
             above = None
             out.append(None)
             errors.append(True)
@@ -115,7 +121,7 @@ def part_rows(grid: SheetGrid, spot: TableSpot
             counts = np.diff(np.array([*starts, len(keys)], np.intp))
             return (keys, [False] * len(keys)), heads, np.repeat(np.arange(len(heads), dtype=np.intp), counts)
         return (keys, [False] * len(keys)), *part_positions(keys)
-    keys = part_keys(grid, spot)
+    keys = _part_keys_cell_by_cell(grid, spot.column("part").index, rows)
     return keys, *part_positions(keys[0])
 
 
