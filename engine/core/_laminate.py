@@ -186,7 +186,8 @@ def _q_terms(e1: ArrayLike, e2: ArrayLike, g12: ArrayLike, nu12: ArrayLike):
         q11 = m1 / denominator
         q22 = m2 / denominator
         q12 = nu * q22
-    return q11, q22, q12, as_float(g12) + 0.0 * q11
+        q66 = as_float(g12) + 0.0 * q11  # broadcast to Q's shape (inf * 0 is NaN there: flagged anyway)
+    return q11, q22, q12, q66
 
 
 def _matrix(q11, q12, q16, q22, q26, q66) -> NDArray[np.float64]:

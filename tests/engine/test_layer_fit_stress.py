@@ -117,3 +117,12 @@ def test_an_absent_slot_with_numbers_left_in_it_is_not_rated():
     capacity, face = _call(DO3, DI3, G3, p, SY3, FS3, present=[True, True, False])
     assert math.isnan(capacity[0, 2]) and face[0, 2] == -1
     assert np.isfinite(capacity[0, :2]).all() and (face[0, :2] >= 0).all()
+
+
+def test_a_zero_strength_beside_an_absent_slot_still_has_no_face():
+    # both reasons for no capacity in one part: the absent slot and a present layer without a strength
+    p = [0.0, 40e6, 25e6]
+    capacity, face = _call(DO3, DI3, G3, p, [0.0, 250e6, 420e6], FS3, present=[True, True, False])
+    assert math.isnan(capacity[0, 0]) and face[0, 0] == -1
+    assert math.isnan(capacity[0, 2]) and face[0, 2] == -1
+    assert np.isfinite(capacity[0, 1]) and face[0, 1] in (0, 1)

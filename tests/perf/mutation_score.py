@@ -29,7 +29,8 @@ survivors of a target whose module is unchanged (after adding tests).
 
 Prints, per package, killed / total and the score, then every surviving mutant (file, line,
 the changed line), and last one JSON line with ``score_core``, ``score_intake``, ``score_units``,
-``score_bridge`` (each a fraction in [0, 1], or null when none of its targets was run) and
+``score_bridge`` (each a fraction in [0, 1], or null when none of its targets was run),
+``stale`` (targets whose module changed since their run), ``not_run`` (targets with no saved run) and
 ``survivors`` (a list of {"target", "file", "line", "diff"}). Mutants shown equivalent are listed
 with their reason in ``tests/perf/mutation_equivalents.md`` and counted as killed when the file
 names them (file, line number, the line's text before and after the change). Targets: >= 0.95 core and
@@ -66,7 +67,8 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("core_governing", "core", "engine/core/_governing.py", [TE + "test_governing.py"]),
     ("core_allowables", "core", "engine/core/_allowables.py", [TE + "test_allowables.py"]),
     ("core_combined", "core", "engine/core/_combined.py", [TE + "test_combined.py"]),
-    ("core_laminate", "core", "engine/core/_laminate.py", [TE + "test_laminate.py", TE + "test_materials_laminate.py"]),
+    ("core_laminate", "core", "engine/core/_laminate.py", [TE + "test_laminate_checks.py", TE + "test_laminate.py",
+                                                          TE + "test_materials_laminate.py"]),
     ("core_fits", "core", "engine/core/_fits.py", [TE + "test_fits.py"]),
     ("core_stack_fits", "core", "engine/core/_stack_fits.py", [TE + "test_stack_fits.py"]),
     ("core_layer_fit_stress", "core", "engine/core/_layer_fit_stress.py",
@@ -96,10 +98,11 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
      [TE + "test_criteria_list.py", TE + "test_criteria.py", TE + "test_rating.py", TE + "test_capacity.py",
       TE + "test_governing.py",
       TE + "test_core_api.py", TE + "test_beyond_torsion_criteria.py", TE + "test_interface_criteria.py"]),
-    ("core_rating", "core", "engine/core/_rating.py", [TE + "test_rating.py", TE + "test_core_api.py"]),
+    ("core_rating", "core", "engine/core/_rating.py", [TE + "test_rating_masks.py", TE + "test_rating.py",
+                                                      TE + "test_core_api.py"]),
     ("core_rating_flags", "core", "engine/core/_rating_flags.py", [TE + "test_rating.py", TE + "test_diagnoses.py",
                                                                      TE + "test_rating_flags.py"]),
-    ("core_diagnoses", "core", "engine/core/_diagnoses.py", [TE + "test_diagnoses.py"]),
+    ("core_diagnoses", "core", "engine/core/_diagnoses.py", [TE + "test_flag_bits.py", TE + "test_diagnoses.py"]),
     ("core_sleeve_diagnoses", "core", "engine/core/_sleeve_diagnoses.py",
      [TE + "test_sleeve_diagnoses.py", TE + "test_interfaces.py", TE + "test_diagnoses.py"]),
     ("core_duty", "core", "engine/core/_duty.py", [TE + "test_duty.py", TE + "test_core_api.py"]),
@@ -260,7 +263,7 @@ def _sha(text: str) -> str:
 def report() -> dict:
     equivalent = _equivalents()
     per_package: dict[str, list[int]] = {}
-    left = []
+    left, stale, seen = [], [], set()
     for path in sorted(RESULTS.glob("*.json")):
         r = json.loads(path.read_text())
         alive = [s for s in r["survivors"] if (s["file"], s["line"], s["diff"].strip()) not in equivalent]
@@ -269,10 +272,20 @@ def report() -> dict:
         tally[0] += killed_or_equivalent
         tally[1] += r["total"]
         scope = f" lines {r['lines'][0]}-{r['lines'][1]}" if r.get("lines") else ""
+        module = ROOT / r["module"]
+        if not module.exists() or r.get("source_sha") != _sha(module.read_text()):
+            stale.append(r["target"])
+            scope += "  STALE: the module changed since this run"
         print(f"{r['target']:<30} {killed_or_equivalent:>4}/{r['total']:<4} "
               f"{killed_or_equivalent / max(r['total'], 1):6.1%}  {r.get('date', '')}  ({r['module']}{scope})")
         left.extend(alive)
+        seen.add(r["target"])
+    not_run = [name for name, *_ in TARGETS if name not in seen]
     print()
+    if stale:
+        print(f"stale (re-run in full: their line numbers and mutants may have moved): {', '.join(stale)}")
+    if not_run:
+        print(f"not run yet: {', '.join(not_run)}")
     scores = {}
     for package in ("core", "intake", "units", "bridge"):
         k, n = per_package.get(package, (0, 0))
@@ -281,6 +294,7 @@ def report() -> dict:
     print("\nsurviving mutants:" if left else "\nno surviving mutants")
     for s in left:
         print(f"  {s['file']}:{s['line']} [{s['status']}] {s['diff']}")
+    scores["stale"], scores["not_run"] = stale, not_run
     scores["survivors"] = [{k: s[k] for k in ("target", "file", "line", "diff")} for s in left]
     return scores
 
@@ -299,8 +313,10 @@ def main() -> None:
     except ImportError:
         sys.exit("mutmut is not installed: pip install -e '.[mutation]'")
     if not args.report:
+        names = {name for name, *_ in TARGETS}
         for name, package, module, tests in TARGETS:
-            if args.only and not any(o in name for o in args.only):
+            # a value that is a target's whole name picks that target alone ("core_rating", not "core_rating_flags")
+            if args.only and not any(o == name or (o not in names and o in name) for o in args.only):
                 continue
             lines = tuple(int(x) for x in args.lines.split(":")) if args.lines else None
             run_target(name, package, module, tests, lines, again=args.again, jobs=args.jobs)
