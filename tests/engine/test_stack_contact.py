@@ -1,0 +1,210 @@
+"""Contact pressures of stacks of two to five Lamé cylinders against an independent solution of the
+contact problem, and the rules for absent slots, holes and unusable layers.
+
+Oracle (written here, not the module's tridiagonal form): the radial displacement of a thick-walled
+cylinder in plane stress under internal pressure p_i and external pressure p_o (Shigley's Mechanical
+Engineering Design, §3-16, pressurized cylinders, from memory):
+
+    u(r) = [(1 - nu) (p_i a^2 - p_o b^2) r / (b^2 - a^2) + (1 + nu) a^2 b^2 (p_i - p_o) / ((b^2 - a^2) r)] / E
+
+(a solid cylinder: u(r) = -(1 - nu) p_o r / E). At each interface k the outer member's bore and the
+inner member's surface close the radial interference delta_k / 2: gap_k = u_k(a_k) - u_{k-1}(b_{k-1})
+- delta_k / 2 is 0 where the interface is closed (p_k >= 0) and >= 0 where it is open (p_k = 0), the
+contact conditions of interfaces that carry compression only (a linear complementarity problem; its
+compliance matrix is positive definite, so the solution is unique). The oracle builds the matrix from
+unit pressures and tries every set of closed interfaces with numpy.linalg.solve (an independent
+numerical method). Stacks are random but seeded; materials span aluminium to steel (invented values).
+"""
+
+from __future__ import annotations
+
+import itertools
+import math
+
+import numpy as np
+import pytest
+from twistshare.engine.core import LayerStack, fit_pressure, rate_interfaces, stack_fit_pressures
+
+
+def _u(r, a, b, e, nu, p_in, p_out):
+    if a == 0.0:
+        return -(1 - nu) * p_out * r / e
+    w = b * b - a * a
+    return ((1 - nu) * (p_in * a * a - p_out * b * b) * r / w + (1 + nu) * a * a * b * b * (p_in - p_out) / (w * r)) / e
+
+
+def _gaps(do, di, e, nu, delta, p):
+    """gap_k for k = 1..L-1 under interface pressures p (p[k-1] at interface k)."""
+    n = len(do)
+    full = [0.0, *p, 0.0]  # full[k] is the pressure on layer k's bore, full[k+1] on its surface
+
+    def u(k, r):
+        return _u(r, di[k] / 2, do[k] / 2, e[k], nu[k], full[k] if k > 0 else 0.0, full[k + 1] if k + 1 < n else 0.0)
+    return np.array([u(k, di[k] / 2) - u(k - 1, do[k - 1] / 2) - delta[k] / 2 for k in range(1, n)])
+
+
+def oracle(do, di, e, nu, delta):
+    """(pressures, opened) at interfaces 1..L-1 by enumeration of the closed sets."""
+    matrix, rhs = _closed_system(do, di, e, nu, delta)
+    base, m = -rhs, len(rhs)
+    found = []
+    for closed in itertools.product((True, False), repeat=m):
+        idx = [k for k in range(m) if closed[k]]
+        p = np.zeros(m)
+        if idx:
+            p[idx] = np.linalg.solve(matrix[np.ix_(idx, idx)], -base[idx])
+        gap = base + matrix @ p
+        scale = max(abs(base).max(), 1e-300)
+        if all(p[k] >= -1e-6 for k in idx) and all(gap[k] >= -1e-9 * scale for k in range(m) if not closed[k]):
+            found.append((p, np.array([not c for c in closed])))
+    assert len(found) == 1, found  # uniqueness of the contact solution (a P-matrix)
+    return found[0]
+
+
+def _random_stacks(rng, n_layers, count):
+    do, di, e, nu, delta = (np.empty((count, n_layers)) for _ in range(5))
+    for i in range(count):
+        bore = rng.choice([0.0, rng.uniform(0.005, 0.02)])
+        walls = rng.uniform(0.003, 0.012, n_layers)
+        edges = bore + np.concatenate([[0.0], np.cumsum(2 * walls)])
+        di[i], do[i] = edges[:-1], edges[1:]
+        e[i] = rng.choice([71.7e9, 111e9, 190e9, 207e9], n_layers)
+        nu[i] = rng.uniform(0.26, 0.35, n_layers)
+        delta[i] = np.concatenate([[np.nan], rng.uniform(-40e-6, 60e-6, n_layers - 1)])  # clearances too
+    return do, di, e, nu, delta
+
+
+@pytest.mark.parametrize("n_layers", [2, 3, 4, 5])
+def test_random_stacks_against_the_contact_oracle(n_layers):
+    rng = np.random.default_rng(20261203 + n_layers)
+    do, di, e, nu, delta = _random_stacks(rng, n_layers, 60)
+    pressure, opened = stack_fit_pressures(do, di, np.ones_like(do, bool), e, nu, delta)
+    assert np.isnan(pressure[:, 0]).all() and not opened[:, 0].any()
+    some_open = 0
+    reclosed = 0
+    for i in range(len(do)):
+        p, is_open = oracle(do[i], di[i], e[i], nu[i], delta[i])
+        np.testing.assert_allclose(pressure[i, 1:], p, rtol=1e-9, atol=1e-3, err_msg=str(i))
+        assert opened[i, 1:].tolist() == is_open.tolist(), i
+        some_open += bool(is_open.any())
+        # an interface that pulls when all are closed but is closed in the answer: it had to close again
+        p_all = np.linalg.solve(*_closed_system(do[i], di[i], e[i], nu[i], delta[i]))
+        reclosed += bool(((p_all < 0) & ~is_open).any() and is_open.any())
+    assert some_open >= 5  # the contact path is exercised
+    if n_layers >= 4:
+        assert reclosed >= 1  # and so is closing again
+
+
+def _closed_system(do, di, e, nu, delta):
+    """The compliance matrix (gaps per unit pressure, from the displacements with no interference, so
+    nothing cancels) and the right-hand side delta / 2 of the all-closed system."""
+    m = len(do) - 1
+    zero = np.zeros(len(do))
+    matrix = np.column_stack([_gaps(do, di, e, nu, zero, np.eye(m)[j]) for j in range(m)])
+    return matrix, np.nan_to_num(np.asarray(delta, float))[1:] / 2
+
+
+def test_a_clearance_between_two_layers_opens():
+    # two layers with a diametral clearance: no pressure, the interface open
+    p, opened = stack_fit_pressures([[0.04, 0.06]], [[0.0, 0.04]], [[True, True]], [[207e9, 111e9]],
+                                    [[0.292, 0.34]], [[np.nan, -10e-6]])
+    assert p[0, 1] == 0.0 and opened[0, 1]
+
+
+def test_two_layers_match_the_two_cylinder_formula():
+    # Shigley's two-cylinder interference-fit pressure, through the module's own point function
+    p, _ = stack_fit_pressures([[0.04, 0.06]], [[0.01, 0.04]], [[True, True]], [[207e9, 111e9]],
+                               [[0.292, 0.34]], [[np.nan, 30e-6]])
+    assert p[0, 1] == pytest.approx(fit_pressure(30e-6, 0.04, 0.01, 0.06, 207e9, 0.292, 111e9, 0.34), rel=1e-12)
+
+
+def _batch(parts, n_slots):
+    """Rows of (do, di, e, nu, delta, present) padded to n_slots with numbers left in absent slots."""
+    filler = dict(do=0.2, di=0.19, e=200e9, nu=0.3, delta=25e-6)
+    arrays = {k: np.full((len(parts), n_slots), v) for k, v in filler.items()}
+    present = np.zeros((len(parts), n_slots), bool)
+    for i, (do, di, e, nu, delta, here) in enumerate(parts):
+        for k in range(len(do)):
+            arrays["do"][i, k], arrays["di"][i, k], arrays["e"][i, k], arrays["nu"][i, k] = do[k], di[k], e[k], nu[k]
+            arrays["delta"][i, k] = delta[k]
+        present[i, : len(do)] = True if here is None else here
+    return arrays["do"], arrays["di"], present, arrays["e"], arrays["nu"], arrays["delta"]
+
+
+THREE = ([0.03, 0.05, 0.062], [0.0, 0.03, 0.05], [207e9, 71.7e9, 190e9], [0.292, 0.33, 0.305], [np.nan, 40e-6, -40e-6])
+TWO = ([0.04, 0.06], [0.01, 0.04], [207e9, 111e9], [0.292, 0.34], [np.nan, 30e-6])
+
+
+@pytest.mark.parametrize("n_slots", [3, 4, 5])
+def test_absent_slots_holding_numbers_do_not_count(n_slots):
+    parts = [(*THREE, None), (*TWO, None)]
+    args = _batch(parts, n_slots)
+    p, opened = stack_fit_pressures(*args)
+    for i, (do, di, e, nu, delta, _) in enumerate(parts):
+        want, want_open = oracle(do, di, e, nu, delta)
+        np.testing.assert_allclose(p[i, 1:len(do)], want, rtol=1e-9, atol=1e-3)
+        assert opened[i, 1:len(do)].tolist() == want_open.tolist()
+        assert np.isnan(p[i, len(do):]).all() and not opened[i, len(do):].any()
+    assert opened[0, 2]  # the three-layer part's clearance opens: the contact path ran with absent slots
+
+
+def test_a_hole_makes_both_its_interfaces_absent():
+    # slots 0, 2, 3 present, 1 absent: interfaces 1 and 2 have a missing member; 3 is the pair 2-3 alone
+    do, di = [0.03, 0.04, 0.05, 0.062], [0.0, 0.03, 0.04, 0.05]
+    e, nu = [207e9, 207e9, 71.7e9, 190e9], [0.292, 0.292, 0.33, 0.305]
+    for last in (30e-6, -12e-6):  # a fit, and a clearance (the contact path)
+        delta = [np.nan, 20e-6, 35e-6, last]
+        parts = [(do, di, e, nu, delta, [True, False, True, True]), (*THREE, None)]
+        p, opened = stack_fit_pressures(*_batch(parts, 4))
+        assert np.isnan(p[0, :3]).all() and not opened[0, :3].any()
+        pair, pair_open = oracle(do[2:], di[2:], e[2:], nu[2:], [np.nan, last])
+        assert p[0, 3] == pytest.approx(pair[0], rel=1e-9, abs=1e-3) and opened[0, 3] == pair_open[0]
+        assert pair_open[0] == (last < 0)
+
+
+# one bad value per row, each in another slot; the last row is good. The rules: 0 < E < inf,
+# -1 < nu <= 0.5, 0 <= D_i < D_o (the module's stated ranges).
+BAD = [("e", 0, 0.0), ("nu", 1, -1.0), ("nu", 2, 0.6), ("e", 1, math.inf), ("di", 0, -0.001), ("di", 2, 0.07),
+       ("e", 2, -5e9), ("nu", 0, math.nan)]
+
+
+@pytest.mark.parametrize("pulling", [False, True])
+@pytest.mark.parametrize("full", [True, False])
+def test_unusable_layers_give_nan(full, pulling):
+    rows = []
+    for field, slot, value in BAD + [(None, None, None)]:
+        do, di, e, nu = (list(v) for v in THREE[:4])
+        delta = [np.nan, 40e-6, -40e-6 if pulling else 20e-6]
+        target = {"e": e, "nu": nu, "di": di}.get(field)
+        if target is not None:
+            target[slot] = value
+        rows.append((do, di, e, nu, delta, None))
+    args = list(_batch(rows, 3 if full else 4))
+    p, _ = stack_fit_pressures(*args)
+    for i in range(len(BAD)):
+        assert np.isnan(p[i]).all(), BAD[i]
+    want, _ = oracle(*(np.array(v, float) for v in (THREE[0], THREE[1], THREE[2], THREE[3])),
+                     [np.nan, 40e-6, -40e-6 if pulling else 20e-6])
+    np.testing.assert_allclose(p[-1, 1:3], want, rtol=1e-9, atol=1e-3)
+    assert want[1] == 0.0 if pulling else want[1] > 0.0  # the clearance opens: the contact path ran
+
+
+def test_edges_of_the_ranges_are_usable():
+    # nu = 0.5 (incompressible) and a bore of exactly 0 are inside the ranges, also on the contact path
+    do, di = [0.03, 0.05, 0.062], [0.0, 0.03, 0.05]
+    e, nu = [207e9, 3e9, 190e9], [0.292, 0.5, 0.305]
+    for last in (20e-6, -40e-6):
+        delta = [np.nan, 40e-6, last]
+        p, opened = stack_fit_pressures([do], [di], [[True] * 3], [e], [nu], [delta])
+        want, want_open = oracle(do, di, e, nu, delta)
+        np.testing.assert_allclose(p[0, 1:], want, rtol=1e-9, atol=1e-3)
+        assert opened[0, 1:].tolist() == want_open.tolist()
+        assert want_open[1] == (last < 0)  # the clearance opens: the contact path ran
+
+
+def test_the_interface_record_has_no_pressure_at_slot_0():
+    stack = LayerStack.from_arrays([THREE[0]] * 3, [THREE[1]] * 3, 79.3e9, 100e6)
+    got = rate_interfaces(stack, youngs_modulus=[THREE[2]], poisson_ratio=[THREE[3]],
+                          interference=[THREE[4]], fit_length=0.03, friction=0.12, yield_strength=300e6)
+    assert np.isnan(got.pressure[:, 0]).all()
+    assert np.isfinite(got.pressure[:, 1:]).all()
