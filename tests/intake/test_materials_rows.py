@@ -2,10 +2,10 @@
 cells each problem and note is told on, and what each resolved material carries.
 
 Outside checks: a one-ply laminate at 0° has the ply's own moduli, Gxy = G12, Ex = E1,
-νxy = ν12 (classical lamination theory, Jones, Mechanics of Composite Materials, ch. 2-4: the
+νxy = ν12 (classical lamination theory, Jones, Mechanics of Composite Materials, from memory: the
 transformed stiffness at 0° is the ply's); a [±45]s laminate has Gxy = (Q11 + Q22 − 2·Q12)/4
 with Q11 = E1/(1 − ν12·ν21), Q22 = E2/(1 − ν12·ν21), Q12 = ν12·E2/(1 − ν12·ν21), ν21 = ν12·E2/E1
-(same source; Q̄66 at 45°). G = E/2(1+ν) for an isotropic material (any strength of materials
+(same source, from memory; Q̄66 at 45°). G = E/2(1+ν) for an isotropic material (any strength of materials
 text). Unit factors from NIST SP 811 (GPa, MPa, g/cm³ → kg/m³). The library's values are its own
 cited figures, read through `find_material`. Cells are those of the sheet each test writes.
 """
@@ -15,7 +15,7 @@ from __future__ import annotations
 import math
 
 import pytest
-from twistshare.engine.core import AllowableRule, find_material
+from twistshare.engine.core import AllowableRule, find_material, ply_library
 from twistshare.engine.intake import MATERIAL_FIELDS, SheetGrid, locate_table, read_materials
 from twistshare.engine.intake._problems import Severity
 
@@ -72,8 +72,7 @@ def test_a_wound_row_s_own_moduli_are_replaced_with_a_warning(own, words):
 
 
 def test_a_ply_set_gives_its_density_unless_the_row_gives_one():
-    ply = next(p for n, p in __import__("twistshare.engine.core", fromlist=["ply_library"]).ply_library().items()
-               if n == "Glass/epoxy E-glass")
+    ply = ply_library()["Glass/epoxy E-glass"]  # the library's cited ply values
     mats, _ = _read([["Material", "Layup", "Ply set", "Density [kg/m³]"],
                      ["Wrap A", "[0]", "Glass/epoxy E-glass", None], ["Wrap B", "[0]", "Glass/epoxy E-glass", 1900]])
     assert mats.by_name["wrap a"].density == pytest.approx(ply.density)
