@@ -87,6 +87,7 @@ EXPANSION = {
 # -- strengths -----------------------------------------------------------------------------------
 
 # name: (Sy MPa, Su MPa, Sy kpsi, Su kpsi, rounding of the SI column in MPa, source); None: not given
+# (or, for a kpsi figure, not recalled)
 STRENGTHS = {
     "AISI 1020 hot rolled": (210, 380, 30, 55, 10, "Shigley table A-20, HR, ASTM minimum (from memory)"),
     "AISI 1045 hot rolled": (310, 570, 45, 82, 10, "Shigley table A-20, HR, ASTM minimum (from memory)"),
@@ -96,7 +97,8 @@ STRENGTHS = {
     "Stainless 316 annealed": (205, 515, 30, 75, 5, "ASTM A240 / A276 annealed, minimum (from memory)"),
     "Aluminium bronze C95400 as cast": (241, 586, 35, 85, 1, "CDA datasheet C95400 as cast, typical (from memory)"),
     "Phosphor bronze": (None, None, None, None, 1, "none: depends on the temper"),
-    "Brass C36000 half hard": (310, 385, 45, 56, 5, "CDA datasheet C36000 H02, typical (from memory)"),
+    "Brass C36000 half hard": (310, 385, None, None, 1,  # its ksi figures not recalled with confidence
+                               "CDA datasheet C36000 H02, typical (from memory)"),
     "Aluminium 6061-T6": (276, 310, 40, 45, 1, "ASM Handbook vol. 2, typical (from memory)"),
     "Aluminium 2024-T3": (345, 483, 50, 70, 1, "ASM Handbook vol. 2, typical (from memory)"),
     "Aluminium 7075-T6": (503, 572, 73, 83, 1, "ASM Handbook vol. 2, typical (from memory)"),
@@ -173,7 +175,7 @@ def test_strengths(name):
     assert _close(m.yield_strength, None if sy is None else sy * 1e6)
     assert _close(m.ultimate_strength, None if su is None else su * 1e6)
     for si, us in ((sy, sy_us), (su, su_us)):
-        if si is not None:
+        if si is not None and us is not None:
             assert abs(U.Quantity(us, "kpsi").m_as("MPa") - si) <= step / 2 + 1e-9
     if sy is not None:
         assert sy < su  # a yield below the ultimate (definition); will not catch a small slip
