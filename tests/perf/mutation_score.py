@@ -112,8 +112,9 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("core_arrays", "core", "engine/core/_arrays.py", [TE + "test_arrays.py", TE + "test_core_api.py"]),
     ("core_radius", "core", "engine/core/_radius.py", [TE + "test_radius.py", TE + "test_cells.py", "-k", "stress or radius"]),
     ("core_materials", "core", "engine/core/_materials.py",
-     [TE + "test_materials.py", TE + "test_materials_laminate.py"]),
-    ("core_material_library", "core", "engine/core/_material_library.py", [TE + "test_materials.py"]),
+     [TE + "test_materials.py", TE + "test_materials_laminate.py", TE + "test_material_rules.py"]),
+    ("core_material_library", "core", "engine/core/_material_library.py",
+     [TE + "test_materials.py", TE + "test_material_library_values.py"]),
     # the intake, below both front ends
     ("intake_words", "intake", "engine/intake/_words.py", [TI + "test_words.py", TI + "test_words_spellings.py",
                                                           TI + "test_sizing_input_book.py", "-k",
