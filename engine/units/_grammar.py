@@ -97,10 +97,7 @@ def _parse(text: str) -> tuple[_Parsed | None, UnitProblem | None]:
                 exp = int(exp_text) if exp_text else 1
                 if exp == 0 or abs(exp) > 4:
                     return _refuse(text, f"exponent {exp} is not expected in a unit")
-                side.append((name, exp))
-                if side is denominator and len(denominator) > 1:
-                    return _refuse(text, "more than one unit after '/'",
-                                   "write one unit after the slash, e.g. 'kg/m³'")
+                side.append((name, exp))  # at most one after '/': a second is refused below
             expect_name = False
         elif kind in ("mul", "space"):
             if expect_name:

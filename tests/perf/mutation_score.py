@@ -159,11 +159,11 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
     ("intake_table_checks", "intake", "engine/intake/_table_checks.py", [TI + "test_table_checks.py"]),
     ("intake_cellrefs", "intake", "engine/intake/_cellrefs.py", [TI + "test_cellrefs.py", TI + "test_duty.py"]),
     # units: the shared registry and its engineers' spellings
-    ("units_kinds", "units", "engine/units/_kinds.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
+    ("units_kinds", "units", "engine/units/_kinds.py", [TE + "test_units_refusals.py", TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
-    ("units_spellings", "units", "engine/units/_spellings.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
+    ("units_spellings", "units", "engine/units/_spellings.py", [TE + "test_units_refusals.py", TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
-    ("units_grammar", "units", "engine/units/_grammar.py", [TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
+    ("units_grammar", "units", "engine/units/_grammar.py", [TE + "test_units_refusals.py", TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
     ("units_factors", "units", "engine/units/_factors.py", [TE + "test_units_factors.py", TE + "test_units_spellings.py", TE + "test_units.py", TE + "test_units_temperature.py",
                                                   TE + "test_units_values.py"]),
@@ -179,9 +179,9 @@ TARGETS: list[tuple[str, str, str, list[str]]] = [
 # ``--again`` (without --fast) re-tests only the survivors against the full list, which gives the
 # same result as the full list alone at a fraction of the time.
 FAST_TESTS: dict[str, list[str]] = {
-    "units_kinds": [TE + "test_units_spellings.py"],
-    "units_spellings": [TE + "test_units_spellings.py"],
-    "units_grammar": [TE + "test_units_spellings.py"],
+    "units_kinds": [TE + "test_units_refusals.py", TE + "test_units_spellings.py"],
+    "units_spellings": [TE + "test_units_refusals.py", TE + "test_units_spellings.py"],
+    "units_grammar": [TE + "test_units_refusals.py", TE + "test_units_spellings.py"],
     "units_values": [TE + "test_units_values.py"],
     "core_sizing": [TE + "test_sizing.py", "-k", "not (alone_equals or never_needs or never_gives)"],
     "core_sizing_geometry": [TE + "test_sizing.py", "-k", "not (alone_equals or never_needs or never_gives)"],
