@@ -198,3 +198,18 @@ def test_the_moduli_record_cannot_be_changed():
     got = laminate_moduli(E1, E2, G12, NU12, 0.125e-3, np.radians([[45.0, -45.0]]))
     with pytest.raises(dataclasses.FrozenInstanceError):
         got.shear_modulus = np.zeros(1)
+
+
+def test_a_ply_set_of_the_user_s_own_carries_no_provenance_until_given():
+    # a finding quotes a ply set's source and note: one the user defines has none to quote
+    ply = PlySet("Own ply", e1=E1, e2=E2, g12=G12, nu12=NU12, thickness=0.125e-3, density=1600.0)
+    assert (ply.source, ply.note) == ("", "")
+
+
+def test_angles_and_ply_data_of_the_wrong_shape_are_refused_in_words():
+    with pytest.raises(ValueError) as caught:
+        laminate_moduli(E1, E2, G12, NU12, 0.125e-3, np.zeros((1, 2, 2)))
+    assert str(caught.value) == "angles must be (laminates, plies); got shape (1, 2, 2)"
+    with pytest.raises(ValueError) as caught:
+        laminate_moduli([E1, E1, E1], E2, G12, NU12, 0.125e-3, np.zeros((2, 2)))
+    assert str(caught.value) == "ply data do not broadcast against the angles of shape (2, 2)"
