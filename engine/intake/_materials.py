@@ -131,6 +131,21 @@ def _expansion(vals: dict[str, float], lib) -> float:
     return alpha
 
 
+def _library_shear_modulus_beside_own(name: str, lib, given: frozenset[str], vals: dict[str, float]) -> str:
+    """The warning for a row whose own E or Poisson ratio stands beside the library's G, or ""."""
+    own = [w for k, w in (("youngs_modulus", "E"), ("poisson_ratio", "Poisson ratio")) if k in given]
+    if not own:
+        return ""
+    g = f"G is the library's {float(lib.shear_modulus) / 1e9:.4g} GPa for {lib.name}"
+    if len(own) == 2:  # both given: the library material is orthotropic, E/2(1+ν) does not hold
+        return (f"material {name!r}: {g}, not E/2(1+ν) from the row's E and Poisson ratio, which holds "
+                "for an isotropic material only; give G to use your own")
+    missing = "Poisson ratio" if own[0] == "E" else "E"
+    shown = f" ({vals['youngs_modulus'] / 1e9:.4g} GPa)" if own[0] == "E" else f" ({vals['poisson_ratio']:.3g})"
+    return (f"material {name!r}: the row gives {own[0]}{shown} but no {missing}, so {g}, not one derived "
+            f"from the row's {own[0]}; give the {missing} too, or G, to use your own")
+
+
 def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) -> MaterialSet:
     """Resolve every row of the book's materials table."""
     out = MaterialSet(spot=spot)
@@ -204,6 +219,7 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
             problem = f"material {name!r} has an unusable property" + (f": {first}" if first else
                                                                         " (see the comments on its row)")
         given = frozenset(k for k in num if not math.isnan(vals[k]) or is_bad(k))
+        filled: tuple[str, ...] = ()
         if lib is not None:
             vals, filled = complete_from_library(vals, lib, given)
             for k in filled:
@@ -226,6 +242,11 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
             if math.isnan(vals.get("density", math.nan)):
                 vals["density"] = wound.density
             given = given | {"shear_modulus"}
+        elif "shear_modulus" in filled and problem is None:
+            mixed = _library_shear_modulus_beside_own(name, lib, given, vals)
+            if mixed:
+                findings.append(Problem(Severity.WARNING, grid.name, cells.get("shear_modulus", here), mixed,
+                                        code="library-g"))
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
         derive = math.isnan(g) and "shear_modulus" not in given and not (math.isnan(e) or math.isnan(nu))

@@ -124,6 +124,46 @@ def test_g_from_e_and_poisson_ratio_only_where_g_is_blank():
                                               "or name a built-in library material")
 
 
+
+@pytest.mark.parametrize("own, shown, missing", [(("E", 195), "E (195 GPa)", "Poisson ratio"),
+                                                 (("Poisson ratio", 0.28), "Poisson ratio (0.28)", "E")])
+def test_a_library_row_giving_half_the_elastic_pair_is_warned_that_g_is_the_library_s(own, shown, missing):
+    # the library's G stands beside the row's own E (or ν): the torque share then does not follow
+    # the row's modulus, so the row is told so on its G cell
+    header, value = own
+    mats, findings = _read([["Material", "G [GPa]", f"{header}" + (" [GPa]" if header == "E" else "")],
+                            ["AISI 1045 hot rolled", None, value]])
+    lib = find_material("AISI 1045 hot rolled")
+    m = mats.by_name["aisi 1045 hot rolled"]
+    assert m.problem is None and m.shear_modulus == lib.shear_modulus
+    (w,) = _of(findings, "library-g")
+    assert (w.severity, w.cell) == (Severity.WARNING, "B2")
+    assert w.message == (f"material 'AISI 1045 hot rolled': the row gives {shown} but no {missing}, so G is the "
+                         f"library's {lib.shear_modulus / 1e9:.4g} GPa for AISI 1045 hot rolled, not one derived "
+                         f"from the row's {header}; give the {missing} too, or G, to use your own")
+
+
+def test_a_library_row_with_its_own_e_and_poisson_ratio_or_g_is_not_warned():
+    mats, findings = _read([["Material", "G [GPa]", "E [GPa]", "Poisson ratio"],
+                            ["AISI 1045 hot rolled", None, 200, 0.25], ["AISI 1020 hot rolled", 78, 200, None],
+                            ["AISI 4140 quenched and tempered", None, None, None]])
+    assert not _of(findings, "library-g")
+    # G = E/2(1+ν) from the row's own pair (isotropic): 200/2.5 = 80 GPa
+    assert mats.by_name["aisi 1045 hot rolled"].shear_modulus == pytest.approx(80e9, rel=1e-12)
+
+
+def test_an_orthotropic_library_row_with_its_own_e_and_poisson_ratio_is_warned_g_is_not_derived():
+    name = "Carbon/epoxy tube 45 wound"
+    mats, findings = _read([["Material", "E [GPa]", "Poisson ratio"], [name, 20, 0.7]])
+    lib = find_material(name)
+    assert mats.by_name[name.lower()].shear_modulus == lib.shear_modulus  # not 20/(2·1.7) GPa
+    (w,) = _of(findings, "library-g")
+    assert w.cell == "A2"  # no G column: the name cell
+    assert w.message == (f"material {name!r}: G is the library's {lib.shear_modulus / 1e9:.4g} GPa for {name}, not "
+                         "E/2(1+ν) from the row's E and Poisson ratio, which holds for an isotropic material only; "
+                         "give G to use your own")
+
+
 def test_two_rows_with_bad_cells_each_quote_their_own_cell():
     mats, _ = _read([["Material", "G [GPa]", "Allowable shear [MPa]"], ["First", 80, "much"], ["Second", "soft", 100]])
     assert mats.by_name["first"].problem.startswith("material 'First' has an unusable property: allowable")

@@ -25,7 +25,8 @@ import passed as a survivor; here any failing status kills.
 
 Each target is one module and the few fast test files that concern it (the machine is shared:
 never the whole suite per mutant). Each mutant's run is stopped after ``3 x baseline x jobs + 10 s``.
-The per-target results are kept in ``out/mutation/<target>.json`` (git-ignored), so one target
+The per-target results are kept in ``tests/perf/mutation_results/<target>.json`` (committed: a
+run of everything takes an hour or more, and a session's machine does not outlast it), so one target
 can be rerun and the summary rebuilt with ``--report``; ``--again`` re-tests only the saved
 survivors of a target whose module is unchanged (after adding tests).
 
@@ -54,7 +55,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 from _mutant_runner import MutantRunner  # noqa: E402
 
 ROOT = Path(__file__).resolve().parents[2]
-RESULTS = ROOT / "out" / "mutation"
+RESULTS = ROOT / "tests" / "perf" / "mutation_results"
 EQUIVALENTS = ROOT / "tests" / "perf" / "mutation_equivalents.md"
 
 TE, TI, TB = "tests/engine/", "tests/intake/", "tests/bridge/"
