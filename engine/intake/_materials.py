@@ -244,9 +244,10 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
             given = given | {"shear_modulus"}
         elif "shear_modulus" in filled and problem is None:
             mixed = _library_shear_modulus_beside_own(name, lib, given, vals)
-            if mixed:
-                findings.append(Problem(Severity.WARNING, grid.name, cells.get("shear_modulus", here), mixed,
-                                        code="library-g"))
+            if mixed:  # both E and ν beside an orthotropic library G: the library's G is right, a note
+                both = "youngs_modulus" in given and "poisson_ratio" in given
+                findings.append(Problem(Severity.NOTE if both else Severity.WARNING, grid.name,
+                                        cells.get("shear_modulus", here), mixed, code="library-g"))
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
         derive = math.isnan(g) and "shear_modulus" not in given and not (math.isnan(e) or math.isnan(nu))
