@@ -332,3 +332,93 @@ class TestResidualOfAPartlyYieldedWire:
         with pytest.raises(ValueError) as error:
             residual_stress_profile([0.01], *self._args(), points_per_layer=1)
         assert str(error.value) == "points_per_layer must be at least 2; got 1"
+
+
+class TestContracts:
+    """What the functions promise beyond the closed forms: the defaults, the refusals word for
+    word, the Newton slope, a record that cannot be altered, the reverse-yield threshold."""
+
+    STACK = ([0.05, 0.07], [0.0, 0.05], [80e9, 40e9], [400e6, 30e6])
+
+    def test_the_newton_slope_is_the_elastic_cores_stiffness(self):
+        # dT/dtheta' = sum G_i (pi/2)(rho_i^4 - a_i^4): checked against a central difference of
+        # the torque itself (an independent numerical method), in the elastic range, with the
+        # sleeve partly yielded and with both layers partly yielded.
+        outer, inner, modulus, tau_y = (np.array([v]) for v in self.STACK)
+        a, b = inner / 2, outer / 2
+        theta_sleeve = 30e6 / (40e9 * 0.035)
+        for theta in (0.5 * theta_sleeve, 1.7 * theta_sleeve, 12.0 * theta_sleeve):
+            grid = np.array([[theta]])
+            _, slope = plastic_module._torque_and_tangent(grid, a, b, modulus, tau_y, tangent=True)
+            h = 1e-6 * theta
+            up = plastic_torque([theta + h], outer, inner, modulus, tau_y, [[True, True]])[0]
+            down = plastic_torque([theta - h], outer, inner, modulus, tau_y, [[True, True]])[0]
+            assert slope[0, 0] == pytest.approx((up - down) / (2 * h), rel=1e-6), theta
+            rho = np.clip(tau_y / (modulus * theta), a, b)
+            hand = float(np.sum(modulus * math.pi / 2 * (rho**4 - a**4)))
+            assert slope[0, 0] == pytest.approx(hand, rel=1e-12), theta
+
+    def test_the_reserve_record_cannot_be_altered(self):
+        import dataclasses
+        reserve = plastic_reserve(*_one(*self.STACK))
+        with pytest.raises(dataclasses.FrozenInstanceError):
+            reserve.reserve_ratio = np.array([2.0])
+
+    def test_a_part_not_rated_has_no_first_yield_layer(self):
+        # documented: -1 if not rated (a layer with no wall); the good part beside it is rated
+        reserve = plastic_reserve([[0.05, 0.07], [0.05, 0.07]], [[0.0, 0.05], [0.0, 0.07]],
+                                  [[80e9, 40e9]] * 2, [[400e6, 30e6]] * 2, [[True, True]] * 2)
+        assert reserve.first_yield_layer.tolist() == [1, -1]
+
+    def test_the_curve_defaults_to_fifty_points_to_four_times_first_yield(self):
+        layers = _one(*self.STACK)
+        theta_y = plastic_reserve(*layers).first_yield_twist_per_length[0]
+        theta, torque = torque_twist_curve(*layers)
+        assert theta.shape == torque.shape == (1, 50)
+        assert theta[0, -1] == pytest.approx(4.0 * theta_y, rel=1e-15)
+        assert theta[0, 1] == pytest.approx(4.0 * theta_y / 49, rel=1e-12)
+
+    def test_two_points_are_enough_and_one_is_refused_word_for_word(self):
+        layers = _one(*self.STACK)
+        theta_y = plastic_reserve(*layers).first_yield_twist_per_length[0]
+        theta, _ = torque_twist_curve(*layers, n_points=2, max_twist_ratio=1.0)
+        assert theta[0].tolist() == [0.0, pytest.approx(theta_y, rel=1e-15)]
+        with pytest.raises(ValueError) as error:
+            torque_twist_curve(*layers, n_points=1)
+        assert str(error.value) == "n_points must be at least 2; got 1"
+        with pytest.raises(ValueError) as error:
+            torque_twist_curve(*layers, max_twist_ratio=-0.5)
+        assert str(error.value) == "max_twist_ratio must be positive; got -0.5"
+
+    def test_the_axis_carries_no_residual_stress_after_full_plasticity(self):
+        # tau = G r theta' is 0 on the axis at every finite twist (common practice), so the
+        # limit at the fully plastic torque is 0 there too, not tau_y and not NaN; the surface
+        # is at -tau_y/3 (Beer & Johnston, as above)
+        layers = _one([0.05], [0.0], [80e9], [120e6])
+        t_p = fully_plastic_torque(layers[0], layers[1], layers[3], layers[4])
+        radius, stress, flags = residual_stress_profile(t_p, *layers, points_per_layer=5)
+        assert radius[0, 0, 0] == 0.0 and stress[0, 0, 0] == 0.0
+        assert stress[0, 0, -1] == pytest.approx(-40e6, rel=1e-12)
+        assert flags[0] == 0
+
+    def test_an_absent_slot_has_no_residual_profile(self):
+        padded = (np.array([[0.05, np.nan]]), np.array([[0.0, np.nan]]), np.array([[80e9, np.nan]]),
+                  np.array([[120e6, np.nan]]), np.array([[True, False]]))
+        radius, stress, _ = residual_stress_profile([1.2 * math.pi / 2 * 0.025**3 * 120e6], *padded)
+        assert np.isnan(stress[0, 1]).all() and np.isnan(radius[0, 1]).all()
+        assert np.isfinite(stress[0, 0]).all()
+
+    def test_reverse_yield_is_flagged_from_once_the_yield_not_twice(self):
+        # The sleeve's outer fibre, at tau_y when loaded, springs back by G_s r_o T / sum(GJ)
+        # (elastic unloading, Beer & Johnston, residual stresses). T is chosen so that the
+        # spring-back is 2.5 tau_y: the residual is -1.5 tau_y, past yield but under 2 tau_y.
+        layers = _one(*self.STACK)
+        sum_gj = math.pi / 2 * (80e9 * 0.025**4 + 40e9 * (0.035**4 - 0.025**4))
+        torque = 2.5 * 30e6 / (40e9 * 0.035) * sum_gj
+        _, stress, flags = residual_stress_profile([torque], *layers)
+        assert stress[0, 1, -1] == pytest.approx(30e6 - 2.5 * 30e6, rel=1e-9)
+        assert flags[0] & PlasticFlag.REVERSE_YIELD_ON_UNLOADING
+        # half that torque: the residual is tau_y - 1.25 tau_y, inside yield, no flag
+        _, stress, flags = residual_stress_profile([0.5 * torque], *layers)
+        assert stress[0, 1, -1] == pytest.approx(30e6 - 1.25 * 30e6, rel=1e-9)
+        assert not flags[0] & PlasticFlag.REVERSE_YIELD_ON_UNLOADING
