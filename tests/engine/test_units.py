@@ -478,8 +478,10 @@ class TestUnitSystem:
     """US customary units mark a US table; neutral units count as SI."""
 
     @pytest.mark.parametrize("unit", ["in", "lbf·in", "lbf-ft", "psi", "ksi", "Msi", "hp", "°/ft",
-                                      "lb/in³", "ft"])
+                                      "lb/in³", "ft", "lb", "oz", "slug", "gr"])
     def test_us(self, unit):
+        # the avoirdupois pound, ounce and grain and the slug are US customary (NIST SP 811,
+        # appendix B), each read alone as well as inside a product
         assert unit_system(unit) == "US"
 
     @pytest.mark.parametrize("unit", ["mm", "N·m", "Nm", "MPa", "kW", "rpm", "°", "", "kg/m³", "rad/s"])

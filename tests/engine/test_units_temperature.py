@@ -22,6 +22,16 @@ def test_temperature_to_kelvin_agrees_with_pint(text, pint_unit, value):
         expected, abs=1e-9)
 
 
+@pytest.mark.parametrize("text, pint_unit", [("°\nC", "degC"), ("deg \n\n F", "degF"), ("°\r\nF", "degF")])
+def test_a_line_break_inside_a_temperature_unit_reads_as_a_space(text, pint_unit):
+    # a header typed over two lines in a spreadsheet cell ("Assembly temperature [°" then "C]")
+    # reads as the one unit; factor and offset from pint's conversion of 0 and 1 degree
+    offset = UREG.Quantity(0.0, pint_unit).to("kelvin").magnitude
+    factor = UREG.Quantity(1.0, pint_unit).to("kelvin").magnitude - offset
+    assert si_offset(text, "temperature") == pytest.approx(offset, abs=1e-12)
+    assert si_factor(text, "temperature") == pytest.approx(factor, rel=1e-12)
+
+
 def test_other_kinds_have_no_offset():
     assert si_offset("mm", "length") == 0.0
 
