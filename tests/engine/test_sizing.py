@@ -559,3 +559,395 @@ def test_one_part_alone_equals_the_same_part_in_a_batch(cases, data):
                             Duty.from_arrays(torque=torque[row], length=1.0), dimension=dimension)
     for item in dataclasses.fields(alone):
         np.testing.assert_array_equal(getattr(batch, item.name)[row], getattr(alone, item.name)[0])
+
+
+# --- mutation testing (issue 9): boundaries, defaults, codes and messages -----------------
+
+def solid(outer=0.05, allowable=60e6, bore=0.0):
+    return LayerStack.from_layers([outer], [bore], [G_STEEL], [allowable])
+
+
+def solid_diameter(torque, allowable=60e6, target=1.0):
+    """d = (16 T RF / (pi tau_a))^(1/3) (Roark's Formulas for Stress and Strain, torsion of
+    circular sections)."""
+    return (16.0 * torque * target / (math.pi * allowable)) ** (1.0 / 3.0)
+
+
+def tube_capacity(outer, bore, allowable):
+    """T = tau_a J / r = pi (D^4 - d^4) tau_a / (16 D) (Roark's, torsion of circular sections)."""
+    return math.pi * (outer**4 - bore**4) * allowable / (16.0 * outer)
+
+
+def capacity_at(stack, value, **where):
+    """Governing capacity of ``stack`` with its sized dimension set to ``value``, by rate()."""
+    return float(rate(resized(stack, [value], **where), Duty.from_arrays(torque=1.0)).governing_capacity[0])
+
+
+class TestCodes:
+    """The int8 codes in results are the public API listed in DEVELOPERS.md (engine reference):
+    callers and books store them, so a value must not move."""
+
+    def test_sizing_status_codes(self):
+        one = solid()
+        codes = [
+            solve_dimension(one, Duty.from_arrays(torque=1_000.0)).status[0],
+            solve_dimension(one, Duty.from_arrays(torque=1.0), smallest=0.02, largest=0.06).status[0],
+            solve_dimension(one, Duty.from_arrays(torque=1e6), smallest=0.02, largest=0.06).status[0],
+            solve_dimension(TestNotMonotone().stack(), Duty.from_arrays(torque=3_000.0),
+                            smallest=0.0401, largest=0.064).status[0],
+            solve_dimension(LayerStack.from_layers([0.05], [0.0], [0.0], [60e6]),
+                            Duty.from_arrays(torque=10.0)).status[0],
+            solve_dimension(one, Duty.from_arrays(torque=1.0), layer=1).status[0],
+            solve_dimension(one, Duty.from_arrays(torque=10.0), target_reserve=0.0).status[0],
+        ]
+        # SOLVED=0, HOLDS_AT_LEAST=1, SHORT_AT_MOST=2, NOT_MONOTONE=3, NOT_RATED=4,
+        # NOT_APPLICABLE=5, BAD_INPUT=6 (DEVELOPERS.md)
+        assert [int(c) for c in codes] == [0, 1, 2, 3, 4, 5, 6]
+        assert [SizingStatus(int(c)).name for c in codes] == [
+            "SOLVED", "HOLDS_AT_LEAST", "SHORT_AT_MOST", "NOT_MONOTONE", "NOT_RATED",
+            "NOT_APPLICABLE", "BAD_INPUT"]
+
+    def test_stock_status_codes(self):
+        """FOUND=0, NONE_HOLDS=1, NOT_RATED=2, NOT_APPLICABLE=3, in the order the StockStatus
+        docstring gives them (int8 in StockResult.status)."""
+        stack = LayerStack.from_arrays([[0.05], [0.05], [0.05], [0.05]], 0.0,
+                                       [[G_STEEL], [G_STEEL], [0.0], [G_STEEL]], 60e6)
+        duty = Duty.from_arrays(torque=[1_000.0, 1e6, 10.0, 10.0])
+        chosen = round_up_to_stock(stack, duty, [np.nan] * 4, [0.04, 0.05], layer=[0, 0, 0, 1])
+        assert chosen.status.tolist() == [0, 1, 2, 3]
+        assert [StockStatus(int(c)).name for c in chosen.status] == [
+            "FOUND", "NONE_HOLDS", "NOT_RATED", "NOT_APPLICABLE"]
+
+    def test_plain_codes_name_the_dimension_and_the_outer_layers(self):
+        """SizedDimension WALL=2 and OuterLayers FIXED=1 (DEVELOPERS.md): a caller may pass
+        the plain number. The wall of a solid grown from its axis is d / 2 (Roark's)."""
+        by_code = solve_dimension(solid(), Duty.from_arrays(torque=1_000.0), dimension=2)
+        assert_on_safe_side(by_code.size[0], solid_diameter(1_000.0) / 2)
+        fixed = solve_dimension(TestTwoLayers().stack(), Duty.from_arrays(torque=1.0), layer=0,
+                                outer_layers=1)
+        assert fixed.status[0] == SizingStatus.NOT_APPLICABLE
+
+
+class TestSolverEdges:
+    def test_messages_word_for_word(self):
+        three = LayerStack.from_arrays(np.full((3, 1), 0.05), 0.0, G_STEEL, 60e6)
+        two = Duty.from_arrays(torque=[1.0, 2.0])
+        expected = "duty has 2 parts; expected 1 or 3 like the layer stack"
+        with pytest.raises(ValueError) as raised:
+            solve_dimension(three, two)
+        assert str(raised.value) == expected
+        with pytest.raises(ValueError) as raised:
+            round_up_to_stock(three, two, [0.05] * 3, [0.05])
+        assert str(raised.value) == expected
+        with pytest.raises(ValueError) as raised:
+            solve_dimension(three, Duty.from_arrays(torque=1.0), tol=-1.0)
+        assert str(raised.value) == "tol must be a positive finite number of metres; got -1.0"
+
+    def test_one_duty_for_every_part(self):
+        stack = LayerStack.from_arrays([[0.05], [0.05]], 0.0, G_STEEL, [[60e6], [120e6]])
+        result = solve_dimension(stack, Duty.from_arrays(torque=1_000.0))
+        for part, allowable in enumerate([60e6, 120e6]):
+            assert_on_safe_side(result.size[part], solid_diameter(1_000.0, allowable))
+
+    def test_least_end_meeting_the_demand_exactly_holds(self):
+        """A reserve factor equal to the target holds (>=): the demand is set to the
+        capacity rated at the least-material end itself."""
+        demand = capacity_at(solid(), 0.03)
+        result = solve_dimension(solid(), Duty.from_arrays(torque=demand), smallest=0.03, largest=0.06)
+        assert result.status[0] == SizingStatus.HOLDS_AT_LEAST and result.size[0] == 0.03
+        assert result.reserve_factor[0] == 1.0
+
+    def test_most_end_meeting_the_demand_exactly_holds(self):
+        """Every smaller size fails (capacity ~ d^3, Roark's), so the answer is the end itself."""
+        demand = capacity_at(solid(), 0.06)
+        result = solve_dimension(solid(), Duty.from_arrays(torque=demand), smallest=0.03, largest=0.06)
+        assert result.status[0] == SizingStatus.SOLVED and result.size[0] == 0.06
+        assert result.reserve_factor[0] == 1.0
+
+    def test_a_trial_meeting_the_demand_exactly_holds(self):
+        """The first trial is the midpoint (binary-exact numbers); the demand is the capacity
+        there, so it holds, every later trial lies below it and fails (capacity ~ d^3)."""
+        low, high = 0.03125, 0.0625
+        mid = 0.5 * (low + high)
+        demand = capacity_at(solid(), mid)
+        result = solve_dimension(solid(), Duty.from_arrays(torque=demand), smallest=low, largest=high)
+        assert result.status[0] == SizingStatus.SOLVED and result.size[0] == mid
+        assert result.reserve_factor[0] == 1.0
+
+    def test_iterations_follow_the_width_of_the_range(self):
+        """ceil(log2(width / tol)) halvings (the solver's documented count): 40 mm / 1 um."""
+        result = solve_dimension(solid(), Duty.from_arrays(torque=1_000.0), smallest=0.02, largest=0.06)
+        assert result.iterations[0] == math.ceil(math.log2(0.04 / TOL)) == 16
+        assert_on_safe_side(result.size[0], solid_diameter(1_000.0))
+
+    def test_a_range_narrower_than_tol_is_not_bisected(self):
+        exact = solid_diameter(1_000.0)
+        low, high = exact - 0.4 * TOL, exact + 0.1 * TOL
+        result = solve_dimension(solid(), Duty.from_arrays(torque=1_000.0), smallest=low, largest=high)
+        assert result.status[0] == SizingStatus.SOLVED
+        assert result.iterations[0] == 0 and result.size[0] == high
+
+    def test_a_very_fine_tolerance_stays_monotone(self):
+        """d^3 rises (Roark's): no trial may look like a fall however close the brackets get."""
+        result = solve_dimension(solid(), Duty.from_arrays(torque=1_000.0), tol=1e-13)
+        assert result.status[0] == SizingStatus.SOLVED
+        assert result.iterations[0] == math.ceil(math.log2((1.0 - 1e-13) / 1e-13))
+        assert_on_safe_side(result.size[0], solid_diameter(1_000.0), tol=1e-13)
+
+    @pytest.mark.parametrize(("torque", "status"), [(1_000.0, SizingStatus.HOLDS_AT_LEAST),
+                                                     (1e6, SizingStatus.SHORT_AT_MOST)])
+    def test_a_nearly_flat_range_is_not_a_fall(self, torque, status):
+        """From 50 mm to 50 mm + 10 pm the capacity rises by 6 parts in 10^10 (d^3): a rise."""
+        result = solve_dimension(solid(), Duty.from_arrays(torque=torque), smallest=0.05,
+                                 largest=0.05 + 1e-11, tol=1e-12)
+        assert result.status[0] == status
+
+    def test_a_trial_above_the_holding_end_is_a_fall(self):
+        """Core tau 256 MPa (G 80 GPa, 40 mm) in a soft sleeve (G 5 GPa, tau 20 MPa): the core's
+        capacity 2 tau_c sum(GJ) / (G_c d) governs up to D = tau_s G_c d / (tau_c G_s) = 50 mm,
+        then the sleeve's 2 tau_s sum(GJ) / (G_s D), falling to 59.8 mm (twist compatibility).
+        Range 40.1 to 59.9 mm at 3300 N m: the first trial, 50 mm, holds and rates well above
+        the holding end, though by less than double."""
+        c = math.pi / 32
+
+        def closed_form(outer):
+            sum_gj = c * (80e9 * 0.040**4 + 5e9 * (outer**4 - 0.040**4))
+            return min(2 * 256e6 * sum_gj / (80e9 * 0.040), 2 * 20e6 * sum_gj / (5e9 * outer))
+
+        assert closed_form(0.0401) < 3_300.0 < closed_form(0.0599) < closed_form(0.05) < 2 * closed_form(0.0599)
+        stack = LayerStack.from_layers([0.040, 0.045], [0.0, 0.040], [80e9, 5e9], [256e6, 20e6])
+        result = solve_dimension(stack, Duty.from_arrays(torque=3_300.0), smallest=0.0401, largest=0.0599)
+        assert result.status[0] == SizingStatus.NOT_MONOTONE
+        assert closed_form(result.size[0]) >= 3_300.0 * (1 - 1e-12)
+
+    def test_nothing_shown_gives_no_layer(self):
+        """-1 = no layer, NONE = no criterion where nothing is given (SizingResult docstring)."""
+        stack = LayerStack.from_arrays([[0.05], [0.05], [0.05]], 0.0, [[G_STEEL], [G_STEEL], [0.0]], 60e6)
+        result = solve_dimension(stack, Duty.from_arrays(torque=[10.0, 10.0, 10.0]), layer=[1, 0, 0],
+                                 target_reserve=[1.0, 0.0, 1.0])
+        assert result.status.tolist() == [SizingStatus.NOT_APPLICABLE, SizingStatus.BAD_INPUT,
+                                          SizingStatus.NOT_RATED]
+        assert result.governing_layer.tolist() == [-1, -1, -1]
+        assert result.governing_criterion.tolist() == [Criterion.NONE] * 3
+
+    def test_an_empty_range_is_bad_input(self):
+        """smallest == largest, and ranges upside down for the bore and the wall."""
+        duty = Duty.from_arrays(torque=10.0)
+        cases = [dict(smallest=0.05, largest=0.05),
+                 dict(dimension=SizedDimension.BORE, smallest=0.03, largest=0.02),
+                 dict(dimension=SizedDimension.WALL, smallest=0.01, largest=0.005)]
+        for changes in cases:
+            assert solve_dimension(solid(), duty, **changes).status[0] == SizingStatus.BAD_INPUT
+
+    def test_fixed_layer_out_of_range(self):
+        result = solve_dimension(solid(), Duty.from_arrays(torque=1.0), layer=3, outer_layers=OuterLayers.FIXED)
+        assert result.status[0] == SizingStatus.NOT_APPLICABLE
+
+
+class TestDefaultRange:
+    """Defaults (solve_dimension docstring): outer diameter up to the larger of 1 m and ten
+    times the present one; wall up to the wall of that same reach."""
+
+    def test_outer_diameter_reach_is_ten_times(self):
+        """200 mm now: the reach is 2 m. A torque needing 2.1 m is short, and what stops it is
+        the 2 m shaft, pi D^3 tau / 16 (Roark's)."""
+        torque = math.pi * 2.1**3 * 60e6 / 16
+        result = solve_dimension(solid(0.2), Duty.from_arrays(torque=torque))
+        assert result.status[0] == SizingStatus.SHORT_AT_MOST
+        assert result.reserve_factor[0] == pytest.approx(tube_capacity(2.0, 0.0, 60e6) / torque, rel=1e-12)
+        assert result.iterations[0] == 0
+
+    def test_wall_reach_is_the_same_diameter(self):
+        """A tube of bore 100 mm, 200 mm now: walls up to (2 m - 0.1 m) / 2, i.e. D = 2 m."""
+        torque = 1e9
+        result = solve_dimension(solid(0.2, bore=0.1), Duty.from_arrays(torque=torque),
+                                 dimension=SizedDimension.WALL)
+        assert result.status[0] == SizingStatus.SHORT_AT_MOST
+        assert result.reserve_factor[0] == pytest.approx(tube_capacity(2.0, 0.1, 60e6) / torque, rel=1e-12)
+
+
+class TestResizedRules:
+    def stack(self, core=(0.015625, 0.03125)):
+        """A bored core and a sleeve, binary-exact diameters."""
+        return LayerStack.from_layers([core[1], 0.0625], [core[0], core[1]], [G_STEEL, G_BRONZE], 1e8)
+
+    @pytest.mark.parametrize("dimension", [SizedDimension.OUTER_DIAMETER, SizedDimension.WALL])
+    def test_a_part_it_cannot_change_is_unchanged(self, dimension):
+        """FIXED outer layers: the core cannot change (resized docstring: returned unchanged)."""
+        stack = self.stack()
+        moved = resized(stack, [0.04], dimension=dimension, layer=0, outer_layers=OuterLayers.FIXED)
+        assert moved.outer_diameter.tolist() == stack.outer_diameter.tolist()
+        assert moved.inner_diameter.tolist() == stack.inner_diameter.tolist()
+
+    def test_fixed_outer_layers_stay_exactly(self):
+        """FIXED: the layers outside stay where they are (OuterLayers docstring), to the bit,
+        whatever the wall's round trip (Do - Di) / 2 does to the core's diameter."""
+        stack = LayerStack.from_layers([0.0428, 0.06], [0.0115, 0.0428], [G_STEEL, G_BRONZE], 1e8)
+        moved = resized(stack, [0.02], dimension=SizedDimension.WALL, layer=0, outer_layers=OuterLayers.FIXED)
+        assert moved.outer_diameter[0, 1] == 0.06 and moved.inner_diameter[0, 1] == 0.0428
+
+    def test_default_layer_is_the_outermost(self):
+        stack = LayerStack.from_layers([0.03, 0.04, 0.05], [0.01, 0.03, 0.04], 79e9, 1e8)
+        moved = resized(stack, [0.06])
+        assert moved.outer_diameter[0].tolist() == [0.03, 0.04, 0.06]
+
+
+class TestStockRules:
+    """round_up_to_stock's documented rules: round up from size - tol, bores down from
+    size + tol, skip sizes that leave no wall, re-rate each candidate."""
+
+    BINARY_TOL = 2.0**-20  # so that size -/+ tol is exact
+
+    @staticmethod
+    def lists(stock, per_part):
+        return np.array([stock]) if per_part else np.array(stock)
+
+    @pytest.mark.parametrize("per_part", [False, True])
+    def test_a_size_tol_below_is_tried(self, per_part):
+        """1000 N m needs 43.9 mm (Roark's); 46.875 mm is exactly size - tol."""
+        stock = self.lists([0.03125, 0.046875, 0.0625], per_part)
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=1_000.0), [0.046875 + self.BINARY_TOL],
+                                   stock, tol=self.BINARY_TOL)
+        assert solid_diameter(1_000.0) < 0.046875
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == 0.046875 and chosen.index[0] == 1
+
+    def test_the_size_itself_is_tried(self):
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=1_000.0), [0.045], [0.04, 0.045, 0.05])
+        assert chosen.size[0] == 0.045 and chosen.index[0] == 1
+
+    @pytest.mark.parametrize("per_part", [False, True])
+    def test_a_bore_tol_above_is_tried(self, per_part):
+        """D 50 mm, 1500 N m, tau 100 MPa: bores up to 39.5 mm hold (Roark's hollow shaft);
+        31.25 mm is exactly size + tol."""
+        stack = solid(0.05, 100e6, bore=0.01)
+        stock = self.lists([0.0, 0.015625, 0.03125, 0.046875], per_part)
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=1_500.0), [0.03125 - self.BINARY_TOL],
+                                   stock, dimension=SizedDimension.BORE, tol=self.BINARY_TOL)
+        assert tube_capacity(0.05, 0.03125, 100e6) >= 1_500.0
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == 0.03125
+
+    @pytest.mark.parametrize("per_part", [False, True])
+    def test_a_bore_equal_to_the_outer_diameter_is_skipped(self, per_part):
+        stack = solid(0.05, 100e6, bore=0.01)
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=1_500.0), [np.nan],
+                                   self.lists([0.0, 0.03, 0.05], per_part), dimension=SizedDimension.BORE)
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == 0.03
+
+    @pytest.mark.parametrize("per_part", [False, True])
+    def test_outer_diameters_at_or_below_the_bore_are_skipped(self, per_part):
+        """Tube bore 30 mm, 1000 N m, tau 60 MPa: D^4 - k D - d^4 = 0 (Roark's) gives 46.0 mm;
+        20 and 30 mm leave no wall."""
+        stack = solid(0.04, 60e6, bore=0.03)
+        stock = self.lists([0.02, 0.03, 0.035, 0.045, 0.05, 0.06], per_part)
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=1_000.0), [np.nan], stock)
+        k = 16.0 * 1_000.0 / (math.pi * 60e6)
+        exact = real_root_above([1.0, 0.0, 0.0, -k, -0.03**4], 0.03)
+        assert 0.045 < exact < 0.05
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == 0.05
+
+    def test_walls(self):
+        """The same tube by its wall: (46.0 - 30) / 2 = 8.0 mm, so 9 mm is the first that holds."""
+        stack = solid(0.04, 60e6, bore=0.03)
+        walls = [0.002, 0.004, 0.006, 0.008, 0.009, 0.012]
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=1_000.0), [np.nan], walls,
+                                   dimension=SizedDimension.WALL)
+        k = 16.0 * 1_000.0 / (math.pi * 60e6)
+        exact = (real_root_above([1.0, 0.0, 0.0, -k, -0.03**4], 0.03) - 0.03) / 2
+        assert 0.008 < exact < 0.009
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == 0.009 and chosen.index[0] == 4
+        assert chosen.reserve_factor[0] == pytest.approx(tube_capacity(0.048, 0.03, 60e6) / 1_000.0, rel=1e-12)
+
+    def test_a_solid_bore_is_a_stock_size(self):
+        """D 50 mm, tau 100 MPa, 2300 N m: solid 2454 N m holds, a 30 mm bore 2136 N m fails."""
+        stack = solid(0.05, 100e6, bore=0.01)
+        assert tube_capacity(0.05, 0.03, 100e6) < 2_300.0 < tube_capacity(0.05, 0.0, 100e6)
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=2_300.0), [np.nan], [0.0, 0.03, 0.04],
+                                   dimension=SizedDimension.BORE)
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == 0.0 and chosen.index[0] == 0
+
+    def test_a_negative_bore_is_no_stock_size(self):
+        """Not a size at all: skipped, not rated; nothing else holds at 2300 N m."""
+        stack = solid(0.05, 100e6, bore=0.01)
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=2_300.0), [np.nan], [-0.01, 0.03, 0.04],
+                                   dimension=SizedDimension.BORE)
+        assert chosen.status[0] == StockStatus.NONE_HOLDS
+
+    def test_first_and_last_stock_sizes(self):
+        """1000 N m needs 43.9 mm (Roark's): from nothing, 50 mm first of [50, 60];
+        of [10, 20, 50] the last."""
+        duty = Duty.from_arrays(torque=1_000.0)
+        first = round_up_to_stock(solid(), duty, [np.nan], [0.05, 0.06])
+        assert first.size[0] == 0.05 and first.index[0] == 0
+        last = round_up_to_stock(solid(), duty, [np.nan], [0.01, 0.02, 0.05])
+        assert last.status[0] == StockStatus.FOUND and last.size[0] == 0.05 and last.index[0] == 2
+
+    def test_nothing_at_or_beyond_the_size(self):
+        """A size beyond every stock size: none is tried, even one that would hold; nothing
+        chosen gives NaN, -1 and NONE (StockResult docstring)."""
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=1_000.0), [0.07], [0.05, 0.06])
+        assert chosen.status[0] == StockStatus.NONE_HOLDS and np.isnan(chosen.size[0])
+        assert chosen.index[0] == -1 and chosen.governing_layer[0] == -1
+        assert chosen.governing_criterion[0] == Criterion.NONE and np.isnan(chosen.reserve_factor[0])
+
+    def test_the_target_multiplies_the_torque(self):
+        """RF 2 at 1000 N m: d = (16 T RF / (pi tau_a))^(1/3) = 55.4 mm (Roark's)."""
+        assert 0.055 < solid_diameter(1_000.0, target=2.0) < 0.056
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=1_000.0), [np.nan],
+                                   [0.045, 0.05, 0.055, 0.056, 0.06], target_reserve=2.0)
+        assert chosen.size[0] == 0.056 and chosen.reserve_factor[0] >= 2.0
+
+    def test_no_target_is_not_applicable(self):
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=1_000.0), [np.nan], [0.05],
+                                   target_reserve=0.0)
+        assert chosen.status[0] == StockStatus.NOT_APPLICABLE
+
+    def test_a_stock_size_meeting_the_demand_exactly_holds(self):
+        demand = capacity_at(solid(), 0.05)
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=demand), [np.nan], [0.045, 0.05, 0.055])
+        assert chosen.size[0] == 0.05 and chosen.reserve_factor[0] == 1.0
+
+    def test_core_with_the_sleeve_moving(self):
+        """Stock core diameters x, the 5 mm bronze wall moving with it: each layer's capacity
+        2 tau sum(GJ) / (G D Kt) with sum(GJ) = (pi/32)(G_c x^4 + G_s((x + 10 mm)^4 - x^4))
+        (twist compatibility); the first stock x that holds is chosen."""
+        two = TestTwoLayers()
+        stack = two.stack(two.CORE + 0.01)
+        c = math.pi / 32
+
+        def closed_form(x):
+            sum_gj = c * (G_STEEL * x**4 + G_BRONZE * ((x + 0.01) ** 4 - x**4))
+            return min(2 * two.TAU_CORE * sum_gj / (G_STEEL * x),
+                       2 * two.TAU_SLEEVE * sum_gj / (G_BRONZE * two.KT * (x + 0.01)))
+
+        stock = [0.030, 0.035, 0.040, 0.045, 0.050, 0.055]
+        first = next(x for x in stock if closed_form(x) >= 1_500.0)
+        chosen = round_up_to_stock(stack, Duty.from_arrays(torque=1_500.0), [np.nan], stock, layer=0)
+        assert first != stock[0]
+        assert chosen.status[0] == StockStatus.FOUND and chosen.size[0] == first
+        assert chosen.reserve_factor[0] == pytest.approx(closed_form(first) / 1_500.0, rel=1e-12)
+
+    def test_results_are_frozen(self):
+        chosen = round_up_to_stock(solid(), Duty.from_arrays(torque=1.0), [np.nan], [0.05])
+        with pytest.raises(dataclasses.FrozenInstanceError):
+            chosen.size = np.zeros(1)  # type: ignore[misc]
+
+
+class TestRestoreRules:
+    def test_default_reach_is_four_times_the_original(self):
+        """Twist alone (allowables 10 GPa): the restored sum(GJ) must equal G_c J_0, so
+        D^4 = d^4 + (G_c / G_s)(D_0^4 - d^4) (phi = T L / (G J), any mechanics-of-materials
+        text). A 60 MPa sleeve on a core turned to 0.9 D_0 needs D = 4.6 D_0: beyond the
+        default reach of 4 D_0, within 5 D_0."""
+        duty = Duty.from_arrays(length=1.0, twist_limit_angle=math.radians(0.5))
+        exact = (0.045**4 + (G_STEEL / 60e6) * (0.05**4 - 0.045**4)) ** 0.25
+        assert 4 * 0.05 < exact < 5 * 0.05
+        short = restore_sleeve(0.05, 0.0, G_STEEL, 10e9, 0.045, 60e6, 10e9, duty=duty)
+        assert short.status[0, 0] == SizingStatus.SHORT_AT_MOST and np.isnan(short.sleeve_outer_diameter[0, 0])
+        wider = restore_sleeve(0.05, 0.0, G_STEEL, 10e9, 0.045, 60e6, 10e9, duty=duty, largest=5 * 0.05)
+        assert wider.status[0, 0] == SizingStatus.SOLVED
+        assert exact * (1 - 1e-9) <= wider.sleeve_outer_diameter[0, 0] <= exact + TOL + EPS
+
+    def test_results_are_frozen(self):
+        result = restore_sleeve(0.05, 0.0, G_STEEL, 100e6, 0.044, G_STEEL, 100e6)
+        with pytest.raises(dataclasses.FrozenInstanceError):
+            result.status = np.zeros((1, 1))  # type: ignore[misc]
