@@ -22,7 +22,6 @@ from ._sizing_geometry import (
     OuterLayers,
     SizedDimension,
     _apply,
-    _current,
     _default_range,
     _range_usable,
     resized,
@@ -224,11 +223,11 @@ def solve_dimension(
     usable = _range_usable(stack, slot, dimension, low, high)
     with np.errstate(invalid="ignore"):
         usable &= np.isfinite(target) & (target > 0.0) & np.isfinite(torque)
-    current = _current(stack, slot, dimension)
     ok = applicable & usable
 
     def rating_at(value: NDArray[np.float64]) -> Rating:
-        return rate(_apply(stack, slot, np.where(ok, value, current), dimension, outer_layers),
+        # Parts not sized are rated with no size (not rated): none of their results is shown.
+        return rate(_apply(stack, slot, np.where(ok, value, np.nan), dimension, outer_layers),
                     duty, inputs=inputs)
 
     # Least- and most-material ends: a larger bore has less material.

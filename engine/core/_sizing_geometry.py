@@ -80,19 +80,6 @@ def sizing_slot(
     return slot, applicable
 
 
-def _current(
-    stack: LayerStack, slot: NDArray[np.intp], dimension: SizedDimension
-) -> NDArray[np.float64]:
-    rows = np.arange(stack.n_parts)
-    outer = stack.outer_diameter[rows, slot]
-    inner = stack.inner_diameter[rows, slot]
-    if dimension == SizedDimension.BORE:
-        return inner
-    if dimension == SizedDimension.WALL:
-        return 0.5 * (outer - inner)
-    return outer
-
-
 def _apply(
     stack: LayerStack,
     slot: NDArray[np.intp],
@@ -150,9 +137,15 @@ def resized(
         are returned unchanged.
     """
     slot, applicable = sizing_slot(stack, dimension, layer, outer_layers)
-    current = _current(stack, slot, dimension)
     target = np.broadcast_to(as_float(value), (stack.n_parts,))
-    return _apply(stack, slot, np.where(applicable, target, current), dimension, outer_layers)
+    out = _apply(stack, slot, target, dimension, outer_layers)
+    if applicable.all():
+        return out
+    # The parts it cannot change keep their own numbers (set again from a wall, a diameter
+    # need not come back to the last bit: D_i + 2 (D_o - D_i)/2 rounds).
+    keep = ~applicable[:, np.newaxis]
+    return dataclasses.replace(out, outer_diameter=np.where(keep, stack.outer_diameter, out.outer_diameter),
+                               inner_diameter=np.where(keep, stack.inner_diameter, out.inner_diameter))
 
 
 def _default_range(

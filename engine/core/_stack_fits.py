@@ -320,5 +320,7 @@ def _solve_with_contact_by_layer(
             active = (active & ~release) | reclose
         p = np.where(active, p, 0.0)
         pressure[1:] = np.where(exists, p, np.nan)
-        opened[1:] = exists & ~active
+        # Open means a gap: an interface left with no interference to take up just touches,
+        # at zero pressure either way (nothing would pull it apart).
+        opened[1:] = exists & ~active & (untaken < 0)
     return pressure, opened

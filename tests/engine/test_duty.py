@@ -36,6 +36,10 @@ def test_fields_are_read_only():
     duty = Duty.from_arrays([1.0, 2.0])
     with pytest.raises(ValueError):
         duty.torque[0] = 5.0
+    # and the record itself: a field cannot be swapped for another array
+    import dataclasses
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        duty.torque = np.array([5.0, 6.0])
 
 
 @pytest.mark.parametrize("rows, expected", [(0, [10.0]), (2, [30.0]), (-1, [30.0]), (-2, [20.0]),

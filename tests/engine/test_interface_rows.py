@@ -361,6 +361,7 @@ def test_an_unfitted_interface_of_a_fitted_part_has_no_interference():
     result = _rate([part])
     p1, p2 = _pressures(part, [0.0, 35e-6])
     assert np.isnan(result.interference[0, 1]) and np.isnan(result.interference[0, 0])
+    assert np.isnan(result.pressure[0, 0])  # slot 0 is never an interface
     assert result.interference[0, 2] == pytest.approx(35e-6, rel=1e-15)
     assert result.pressure[0, 1] == pytest.approx(p1, rel=1e-9)
     assert result.slip_limit[0] == pytest.approx(_slip_capacity(part, 2, p2), rel=1e-9)

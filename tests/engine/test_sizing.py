@@ -785,6 +785,10 @@ class TestResizedRules:
         stack = LayerStack.from_layers([0.0428, 0.06], [0.0115, 0.0428], [G_STEEL, G_BRONZE], 1e8)
         moved = resized(stack, [0.02], dimension=SizedDimension.WALL, layer=0, outer_layers=OuterLayers.FIXED)
         assert moved.outer_diameter[0, 1] == 0.06 and moved.inner_diameter[0, 1] == 0.0428
+        # and the core, which FIXED does not let it change, is returned unchanged (resized's
+        # docstring), not 0.04279999999999999 from D_i + 2 (D_o - D_i)/2
+        assert moved.outer_diameter[0].tolist() == [0.0428, 0.06]
+        assert moved.inner_diameter[0].tolist() == [0.0115, 0.0428]
 
     def test_default_layer_is_the_outermost(self):
         stack = LayerStack.from_layers([0.03, 0.04, 0.05], [0.01, 0.03, 0.04], 79e9, 1e8)

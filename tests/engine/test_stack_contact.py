@@ -208,3 +208,65 @@ def test_the_interface_record_has_no_pressure_at_slot_0():
                           interference=[THREE[4]], fit_length=0.03, friction=0.12, yield_strength=300e6)
     assert np.isnan(got.pressure[:, 0]).all()
     assert np.isfinite(got.pressure[:, 1:]).all()
+
+
+@pytest.mark.parametrize("field, slot, value", [*BAD, ("nu", 1, -1.5)])
+def test_one_unusable_layer_beside_a_good_part_gives_nan_for_its_part_only(field, slot, value):
+    # a batch of two full parts, the second with one value out of range: the batch as a whole
+    # is not all good, yet no other bad row is there to give that away
+    do, di, e, nu = (list(v) for v in THREE[:4])
+    {"e": e, "nu": nu, "di": di}[field][slot] = value
+    delta = [np.nan, 40e-6, 20e-6]
+    p, _ = stack_fit_pressures(*_batch([(*THREE[:4], delta, None), (do, di, e, nu, delta, None)], 3))
+    assert np.isnan(p[1]).all()
+    want, _ = oracle(*(np.array(v, float) for v in THREE[:4]), delta)
+    np.testing.assert_allclose(p[0, 1:], want, rtol=1e-9)
+
+
+def test_any_positive_modulus_is_usable_on_the_contact_path():
+    # 0 < E is the whole rule: E = 0.5 Pa as for steel. The outer clearance opens, leaving the
+    # inner fit alone; same material, solid core: p = E delta (D_o^2 - d^2)/(2 d D_o^2)
+    # (Shigley's Mechanical Engineering Design, interference fits, same-material form).
+    # A two-layer part beside it leaves a slot absent, so the batch is checked part by part.
+    three = ([0.03, 0.05, 0.062], [0.0, 0.03, 0.05], [0.5] * 3, [0.3] * 3, [np.nan, 40e-6, -40e-6])
+    p, opened = stack_fit_pressures(*_batch([(*three, None), (*TWO, None)], 3))
+    expected = 0.5 * 40e-6 * (0.05**2 - 0.03**2) / (2 * 0.03 * 0.05**2)
+    assert p[0, 1] == pytest.approx(expected, rel=1e-12)
+    assert p[0, 2] == 0.0 and opened[0, 2] and not opened[0, 1]
+    assert p[1, 1] == pytest.approx(fit_pressure(30e-6, 0.04, 0.01, 0.06, 207e9, 0.292, 111e9, 0.34), rel=1e-12)
+
+
+@pytest.mark.parametrize("last", [20e-6, -40e-6])  # the first pass, and the contact path
+def test_a_missing_innermost_slot_leaves_the_stack_above_it_alone(last):
+    # slot 0 absent (its numbers left in): the tube and three sleeves above it are rated alone
+    do, di = [0.02, 0.03, 0.05, 0.062, 0.075], [0.0, 0.02, 0.03, 0.05, 0.062]
+    e, nu = [207e9, 207e9, 71.7e9, 190e9, 200e9], [0.292, 0.292, 0.33, 0.305, 0.29]
+    delta = [np.nan, 15e-6, 40e-6, 30e-6, last]
+    parts = [(do, di, e, nu, delta, [False, True, True, True, True]), (*THREE, None)]
+    p, opened = stack_fit_pressures(*_batch(parts, 5))
+    want, want_open = oracle(*(np.array(v[1:], float) for v in (do, di, e, nu)), [np.nan, 40e-6, 30e-6, last])
+    assert np.isnan(p[0, :2]).all()
+    np.testing.assert_allclose(p[0, 2:], want, rtol=1e-9, atol=1e-3)
+    assert opened[0, 2:].tolist() == want_open.tolist()
+
+
+def test_two_pairs_on_either_side_of_a_hole_are_two_separate_fits():
+    # slots 0-1 and 3-4 present, 2 absent: each pair is Shigley's two-cylinder fit alone
+    do, di = [0.03, 0.05, 0.06, 0.07, 0.09], [0.0, 0.03, 0.05, 0.06, 0.07]
+    e, nu = [207e9, 111e9, 200e9, 190e9, 71.7e9], [0.292, 0.34, 0.3, 0.305, 0.33]
+    delta = [np.nan, 30e-6, 10e-6, 10e-6, 45e-6]
+    parts = [(do, di, e, nu, delta, [True, True, False, True, True]), (*TWO, None)]
+    p, _ = stack_fit_pressures(*_batch(parts, 5))
+    assert p[0, 1] == pytest.approx(fit_pressure(30e-6, 0.03, 0.0, 0.05, 207e9, 0.292, 111e9, 0.34), rel=1e-12)
+    assert p[0, 4] == pytest.approx(fit_pressure(45e-6, 0.07, 0.06, 0.09, 190e9, 0.305, 71.7e9, 0.33), rel=1e-12)
+    assert np.isnan(p[0, [0, 2, 3]]).all()
+
+
+def test_a_touching_sleeve_outside_an_open_clearance_is_not_opened():
+    # a clearance at the inner interface leaves the middle layer free; the outer sleeve just
+    # touches it (no interference): nothing pulls it apart, so it is closed at zero pressure,
+    # not opened (opened means it would otherwise be in radial tension)
+    p, opened = stack_fit_pressures([[0.03, 0.05, 0.062]], [[0.0, 0.03, 0.05]], [[True] * 3],
+                                    [[207e9, 71.7e9, 190e9]], [[0.292, 0.33, 0.305]], [[np.nan, -20e-6, np.nan]])
+    assert p[0, 1:].tolist() == [0.0, 0.0]
+    assert opened[0].tolist() == [False, True, False]
