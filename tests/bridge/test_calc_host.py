@@ -429,6 +429,22 @@ def test_a_book_without_formulas_is_copied_without_libreoffice(tmp_path, monkeyp
         calc_host.recalculate(tmp_path / "plain.xlsx", tmp_path / "plain.xlsx")
 
 
+def test_libreoffice_without_its_python_scripting_is_refused_by_name(tmp_path, monkeypatch):
+    # a soffice with no pythonscript.py beside it (Debian's libreoffice-calc without
+    # libreoffice-script-provider-python): every cell function would fail at its first call
+    program = tmp_path / "program"
+    program.mkdir()
+    soffice = program / "soffice"
+    soffice.write_text("#!/bin/sh\n")
+    monkeypatch.setenv(_office.SOFFICE_ENV, str(soffice))
+    with pytest.raises(calc_host.LibreOfficeMissing) as error:
+        _office.find_office()
+    assert str(error.value) == (f"LibreOffice's Python scripting was not found beside {soffice} (no pythonscript.py); "
+                                "install it (Debian, Ubuntu: libreoffice-script-provider-python)")
+    (program / "pythonscript.py").write_text("")  # with it, the search goes on to the uno Python
+    assert _office._has_python_scripting(str(soffice))
+
+
 def test_missing_libreoffice_is_one_clear_line(tmp_path, monkeypatch, capsys):
     monkeypatch.setenv("PATH", str(tmp_path))
     monkeypatch.delenv(_office.SOFFICE_ENV, raising=False)

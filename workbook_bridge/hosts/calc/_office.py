@@ -127,9 +127,18 @@ def _surely_has_uno(python: str, soffice: str) -> bool:
     return python == "/usr/bin/python3" and Path("/usr/lib/python3/dist-packages/uno.py").is_file()
 
 
+def _has_python_scripting(soffice: str) -> bool:
+    """LibreOffice's Python script provider (``pythonscript.py``) is installed beside soffice."""
+    program = Path(os.path.realpath(soffice)).parent
+    return any((folder / "pythonscript.py").is_file() for folder in (program, program.parent / "Resources"))
+
+
 def find_office() -> Office:
-    """LibreOffice and its UNO Python; raises LibreOfficeMissing."""
+    """LibreOffice, its Python scripting and its UNO Python; raises LibreOfficeMissing."""
     soffice = find_soffice()
+    if not _has_python_scripting(soffice):
+        raise LibreOfficeMissing(f"LibreOffice's Python scripting was not found beside {soffice} (no "
+                                 "pythonscript.py); install it (Debian, Ubuntu: libreoffice-script-provider-python)")
     for python in _python_candidates(soffice):
         if _surely_has_uno(python, soffice):
             return Office(soffice, python)
