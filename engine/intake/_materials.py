@@ -131,19 +131,21 @@ def _expansion(vals: dict[str, float], lib) -> float:
     return alpha
 
 
-def _library_shear_modulus_beside_own(name: str, lib, given: frozenset[str], vals: dict[str, float]) -> str:
-    """The warning for a row whose own E or Poisson ratio stands beside the library's G, or ""."""
+def _library_shear_modulus_beside_own(name: str, lib, given: frozenset[str],
+                                      vals: dict[str, float]) -> tuple[Severity, str] | None:
+    """What to say of a row whose own E or Poisson ratio stands beside the library's G, or None."""
     own = [w for k, w in (("youngs_modulus", "E"), ("poisson_ratio", "Poisson ratio")) if k in given]
     if not own:
-        return ""
+        return None
     g = f"G is the library's {float(lib.shear_modulus) / 1e9:.4g} GPa for {lib.name}"
-    if len(own) == 2:  # both given: the library material is orthotropic, E/2(1+ν) does not hold
-        return (f"material {name!r}: {g}, not E/2(1+ν) from the row's E and Poisson ratio, which holds "
-                "for an isotropic material only; give G to use your own")
+    if len(own) == 2:  # both given: the library material is orthotropic, E/2(1+ν) does not hold,
+        # so the library's G is the right one: a note (it does not stop a cell function)
+        return Severity.NOTE, (f"material {name!r}: {g}, not E/2(1+ν) from the row's E and Poisson ratio, "
+                               "which holds for an isotropic material only; give G to use your own")
     missing = "Poisson ratio" if own[0] == "E" else "E"
     shown = f" ({vals['youngs_modulus'] / 1e9:.4g} GPa)" if own[0] == "E" else f" ({vals['poisson_ratio']:.3g})"
-    return (f"material {name!r}: the row gives {own[0]}{shown} but no {missing}, so {g}, not one derived "
-            f"from the row's {own[0]}; give the {missing} too, or G, to use your own")
+    return Severity.WARNING, (f"material {name!r}: the row gives {own[0]}{shown} but no {missing}, so {g}, "
+                              f"not one derived from the row's {own[0]}; give the {missing} too, or G, to use your own")
 
 
 def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) -> MaterialSet:
@@ -243,11 +245,10 @@ def read_materials(grid: SheetGrid, spot: TableSpot, findings: list[Problem]) ->
                 vals["density"] = wound.density
             given = given | {"shear_modulus"}
         elif "shear_modulus" in filled and problem is None:
-            mixed = _library_shear_modulus_beside_own(name, lib, given, vals)
-            if mixed:  # both E and ν beside an orthotropic library G: the library's G is right, a note
-                both = "youngs_modulus" in given and "poisson_ratio" in given
-                findings.append(Problem(Severity.NOTE if both else Severity.WARNING, grid.name,
-                                        cells.get("shear_modulus", here), mixed, code="library-g"))
+            said = _library_shear_modulus_beside_own(name, lib, given, vals)
+            if said is not None:
+                findings.append(Problem(said[0], grid.name, cells.get("shear_modulus", here), said[1],
+                                        code="library-g"))
         g = vals.get("shear_modulus", math.nan)
         e, nu = vals.get("youngs_modulus", math.nan), vals.get("poisson_ratio", math.nan)
         derive = math.isnan(g) and "shear_modulus" not in given and not (math.isnan(e) or math.isnan(nu))

@@ -8,9 +8,9 @@ Sources of the hand calculations:
   displacement u(r) = r/E [(1 - nu) A + (1 + nu) B / r^2] with A = (p_i a^2 - p_o b^2)/(b^2 - a^2)
   and B = a^2 b^2 (p_i - p_o)/(b^2 - a^2); u = -(1 - nu) p_o r / E for a solid member. Each
   interface closes half its diametral interference: u_outer(R) - u_inner(R) = delta/2. The
-  pressures of a whole stack are found here by solving those compatibility equations with
-  numpy's dense solver (an independent numerical method: the engine uses its own tridiagonal
-  elimination).
+  pressures of a whole stack come from the tests' own contact oracle (`_lame_oracle.py`: those
+  compatibility equations solved with numpy's dense solver, an independent numerical method;
+  the engine uses its own tridiagonal elimination).
 - Slip torque (pi/2) mu p d^2 L and average bond shear torque (pi/2) tau L d^2 (a cylinder of
   diameter d and length L carrying shear on its surface: T = tau pi d L d/2).
 - Torque shares G J / sum(G J) with J = pi (d_o^4 - d_i^4)/32 (twist compatibility, Roark's
@@ -26,6 +26,7 @@ import math
 
 import numpy as np
 import pytest
+from _lame_oracle import oracle
 from twistshare.engine.core import InterfaceFlag, LayerStack, LoadPath, rate_interfaces
 
 NAN = np.nan
@@ -120,34 +121,14 @@ def _row(name):
 
 # ---- hand calculations -------------------------------------------------------------------
 
-def _u(r, a, b, e, nu, p_in, p_out):
-    """Lamé radial displacement in plane stress (Shigley; Timoshenko)."""
-    if a == 0.0:
-        return -(1 - nu) * p_out * r / e
-    big_a = (p_in * a**2 - p_out * b**2) / (b**2 - a**2)
-    big_b = a**2 * b**2 * (p_in - p_out) / (b**2 - a**2)
-    return r / e * ((1 - nu) * big_a + (1 + nu) * big_b / r**2)
-
-
 def _pressures(part, deltas):
-    """Contact pressures of every interface from the compatibility equations, solved densely."""
+    """Contact pressures of every interface by the shared oracle (`_lame_oracle.py`); every
+    case here keeps all its interfaces closed."""
     n = part["n"]
-    radius = [d / 2 for d in part["outer"][:n]]
-    inner = [0.0] + radius[:-1]
-
-    def gaps(p):  # u_outer(R_k) - u_inner(R_k) for k = 1..n-1, pressures p[0..n-2]
-        pressure = [0.0] + list(p) + [0.0]  # pressure[j]: at the inner face of member j
-        out = []
-        for k in range(1, n):
-            r = radius[k - 1]
-            outside = _u(r, inner[k], radius[k], part["e"][k], part["nu"][k], pressure[k], pressure[k + 1])
-            inside = _u(r, inner[k - 1], radius[k - 1], part["e"][k - 1], part["nu"][k - 1],
-                        pressure[k - 1], pressure[k])
-            out.append(outside - inside)
-        return np.array(out)
-
-    matrix = np.column_stack([gaps(np.eye(n - 1)[j]) for j in range(n - 1)])
-    return np.linalg.solve(matrix, np.array(deltas) / 2)
+    columns = (np.array(part[key][:n], float) for key in ("outer", "inner", "e", "nu"))
+    p, opened = oracle(*columns, [np.nan, *deltas])
+    assert not opened.any()
+    return p
 
 
 def _shares(part):

@@ -1,7 +1,7 @@
 """Contact pressures of stacks of two to five Lamé cylinders against an independent solution of the
 contact problem, and the rules for absent slots, holes and unusable layers.
 
-Oracle (written here, not the module's tridiagonal form): the radial displacement of a thick-walled
+Oracle (`_lame_oracle.py`, written in the tests, not the module's tridiagonal form): the radial displacement of a thick-walled
 cylinder in plane stress under internal pressure p_i and external pressure p_o (Shigley's Mechanical
 Engineering Design, §3-16, pressurized cylinders, from memory):
 
@@ -18,47 +18,13 @@ numerical method). Stacks are random but seeded; materials span aluminium to ste
 
 from __future__ import annotations
 
-import itertools
 import math
 
 import numpy as np
 import pytest
+from _lame_oracle import closed_system as _closed_system
+from _lame_oracle import oracle
 from twistshare.engine.core import LayerStack, fit_pressure, rate_interfaces, stack_fit_pressures
-
-
-def _u(r, a, b, e, nu, p_in, p_out):
-    if a == 0.0:
-        return -(1 - nu) * p_out * r / e
-    w = b * b - a * a
-    return ((1 - nu) * (p_in * a * a - p_out * b * b) * r / w + (1 + nu) * a * a * b * b * (p_in - p_out) / (w * r)) / e
-
-
-def _gaps(do, di, e, nu, delta, p):
-    """gap_k for k = 1..L-1 under interface pressures p (p[k-1] at interface k)."""
-    n = len(do)
-    full = [0.0, *p, 0.0]  # full[k] is the pressure on layer k's bore, full[k+1] on its surface
-
-    def u(k, r):
-        return _u(r, di[k] / 2, do[k] / 2, e[k], nu[k], full[k] if k > 0 else 0.0, full[k + 1] if k + 1 < n else 0.0)
-    return np.array([u(k, di[k] / 2) - u(k - 1, do[k - 1] / 2) - delta[k] / 2 for k in range(1, n)])
-
-
-def oracle(do, di, e, nu, delta):
-    """(pressures, opened) at interfaces 1..L-1 by enumeration of the closed sets."""
-    matrix, rhs = _closed_system(do, di, e, nu, delta)
-    base, m = -rhs, len(rhs)
-    found = []
-    for closed in itertools.product((True, False), repeat=m):
-        idx = [k for k in range(m) if closed[k]]
-        p = np.zeros(m)
-        if idx:
-            p[idx] = np.linalg.solve(matrix[np.ix_(idx, idx)], -base[idx])
-        gap = base + matrix @ p
-        scale = max(abs(base).max(), 1e-300)
-        if all(p[k] >= -1e-6 for k in idx) and all(gap[k] >= -1e-9 * scale for k in range(m) if not closed[k]):
-            found.append((p, np.array([not c for c in closed])))
-    assert len(found) == 1, found  # uniqueness of the contact solution (a P-matrix)
-    return found[0]
 
 
 def _random_stacks(rng, n_layers, count):
@@ -94,14 +60,6 @@ def test_random_stacks_against_the_contact_oracle(n_layers):
     if n_layers >= 4:
         assert reclosed >= 1  # and so is closing again
 
-
-def _closed_system(do, di, e, nu, delta):
-    """The compliance matrix (gaps per unit pressure, from the displacements with no interference, so
-    nothing cancels) and the right-hand side delta / 2 of the all-closed system."""
-    m = len(do) - 1
-    zero = np.zeros(len(do))
-    matrix = np.column_stack([_gaps(do, di, e, nu, zero, np.eye(m)[j]) for j in range(m)])
-    return matrix, np.nan_to_num(np.asarray(delta, float))[1:] / 2
 
 
 def test_a_clearance_between_two_layers_opens():

@@ -66,9 +66,16 @@ def find_soffice() -> str:
                              f"(Debian, Ubuntu: libreoffice-calc) or set {SOFFICE_ENV} to its soffice")
 
 
-def _python_candidates(soffice: str) -> list[str]:
+def _program_folders(soffice: str) -> tuple[Path, Path]:
+    """Where LibreOffice keeps its own programs and Python parts: ``program/`` beside soffice,
+    and ``Resources/`` beside it on macOS."""
     program = Path(os.path.realpath(soffice)).parent
-    out = [program / "python.exe", program / "python", program.parent / "Resources" / "python"]
+    return program, program.parent / "Resources"
+
+
+def _python_candidates(soffice: str) -> list[str]:
+    program, resources = _program_folders(soffice)
+    out = [program / "python.exe", program / "python", resources / "python"]
     names = [str(p) for p in out if p.is_file()]
     if os.name != "nt":
         names += [p for p in ("/usr/bin/python3", shutil.which("python3")) if p]
@@ -121,16 +128,16 @@ def _clean_env(extra: dict[str, str] | None = None, *, office_python: str | None
 
 def _surely_has_uno(python: str, soffice: str) -> bool:
     """The uno module lies beside this Python (LibreOffice's own, or Debian's python3-uno): no probe needed."""
-    program = Path(os.path.realpath(soffice)).parent
-    if Path(python).parent in (program, program.parent / "Resources"):
+    folders = _program_folders(soffice)
+    program = folders[0]
+    if Path(python).parent in folders:
         return (Path(python).parent / "uno.py").is_file() or (program / "uno.py").is_file()
     return python == "/usr/bin/python3" and Path("/usr/lib/python3/dist-packages/uno.py").is_file()
 
 
 def _has_python_scripting(soffice: str) -> bool:
     """LibreOffice's Python script provider (``pythonscript.py``) is installed beside soffice."""
-    program = Path(os.path.realpath(soffice)).parent
-    return any((folder / "pythonscript.py").is_file() for folder in (program, program.parent / "Resources"))
+    return any((folder / "pythonscript.py").is_file() for folder in _program_folders(soffice))
 
 
 def find_office() -> Office:
