@@ -1,19 +1,9 @@
 """Contact pressures of stacks of two to five Lamé cylinders against an independent solution of the
 contact problem, and the rules for absent slots, holes and unusable layers.
 
-Oracle (`_lame_oracle.py`, written in the tests, not the module's tridiagonal form): the radial displacement of a thick-walled
-cylinder in plane stress under internal pressure p_i and external pressure p_o (Shigley's Mechanical
-Engineering Design, §3-16, pressurized cylinders, from memory):
-
-    u(r) = [(1 - nu) (p_i a^2 - p_o b^2) r / (b^2 - a^2) + (1 + nu) a^2 b^2 (p_i - p_o) / ((b^2 - a^2) r)] / E
-
-(a solid cylinder: u(r) = -(1 - nu) p_o r / E). At each interface k the outer member's bore and the
-inner member's surface close the radial interference delta_k / 2: gap_k = u_k(a_k) - u_{k-1}(b_{k-1})
-- delta_k / 2 is 0 where the interface is closed (p_k >= 0) and >= 0 where it is open (p_k = 0), the
-contact conditions of interfaces that carry compression only (a linear complementarity problem; its
-compliance matrix is positive definite, so the solution is unique). The oracle builds the matrix from
-unit pressures and tries every set of closed interfaces with numpy.linalg.solve (an independent
-numerical method). Stacks are random but seeded; materials span aluminium to steel (invented values).
+Oracle: `_lame_oracle.py` (Lamé displacements in plane stress, Shigley; every set of closed
+interfaces tried with numpy.linalg.solve, an independent numerical method), not the module's
+tridiagonal form. Stacks are random but seeded; materials span aluminium to steel (invented values).
 """
 
 from __future__ import annotations
