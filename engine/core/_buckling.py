@@ -316,29 +316,23 @@ def torsional_buckling(
         outside = np.fmax.reduce(np.where(mask, do, np.nan), axis=1) / 2.0
         radius_to_wall = (bore + outside) / (2.0 * (outside - bore))
         checked = valid & (bore > 0) & (radius_to_wall >= thin_wall_ratio)
-
-        plane = np.where(mask, modulus / (1.0 - nu * nu), 0.0)
-        thickness = np.where(mask, (do - di) / 2.0, 0.0)
-        centre = np.where(mask, (do + di) / 4.0, 0.0) - bore[:, np.newaxis]
-        membrane = (plane * thickness).sum(axis=1)
-        neutral = (plane * thickness * centre).sum(axis=1) / membrane
-        offset = centre - neutral[:, np.newaxis]
-        bending = (plane * (thickness**3 / 12.0 + thickness * offset * offset)).sum(axis=1)
-        wall = np.sqrt(12.0 * bending / membrane)
-        nu_eq = (np.where(mask, nu, 0.0) * plane * thickness).sum(axis=1) / membrane
-        e_eq = membrane / wall * (1.0 - nu_eq * nu_eq)
-        radius = bore + neutral
-
-        z = span * span * np.sqrt(1.0 - nu_eq * nu_eq) / (radius * wall)
-        stress = np.asarray(tube_buckling_stress(e_eq, nu_eq, radius, wall, span, knock_down))
-        torque = 2.0 * np.pi * radius * radius * wall * stress
+        # Only thin walls are checked: the equivalent wall is worked out for those parts
+        # alone (in a machine catalogue most sections are stocky, and these few lines
+        # would otherwise cost the whole rating's time again). Element by element, the same.
+        rows = np.flatnonzero(checked)
+        wall_results = _equivalent_wall_buckling(
+            *(value[rows] for value in (do, di, modulus, nu, mask, bore, span)), knock_down)
+        results = [radius_to_wall]
+        for value in wall_results:  # e_eq, nu_eq, wall, radius, z, stress, torque
+            spread = np.full(n_parts, np.nan)
+            spread[rows] = value
+            results.append(spread)
+        e_eq, nu_eq, wall, radius, z, stress, torque = results[1:]
         flag_where(part_flags, valid & ~checked, LoadFlag.NOT_THIN_WALLED)
         flag_where(part_flags, checked & (z < SHORT_TUBE_Z), LoadFlag.SHORT_TUBE)
-        torque = np.where(checked, torque, np.inf)
+        torque[~checked] = np.inf
         capacity = torque / fs
-        results = [radius_to_wall, e_eq, nu_eq, wall, radius, z, stress, torque, capacity]
-        for array in results[1:7]:
-            array[~checked] = np.nan
+        results += [capacity]
         for array in results:
             array[~valid] = np.nan
 
@@ -356,3 +350,28 @@ def torsional_buckling(
         part_flags=part_flags,
         valid=valid,
     )
+
+
+def _equivalent_wall_buckling(
+    do: NDArray[np.float64], di: NDArray[np.float64], modulus: NDArray[np.float64],
+    nu: NDArray[np.float64], mask: NDArray[np.bool_], bore: NDArray[np.float64],
+    span: NDArray[np.float64], knock_down: float,
+) -> tuple[NDArray[np.float64], ...]:
+    """The equivalent wall of each part's layers and its buckling (the module's notes):
+    ``E_eq, nu_eq, t_eq``, the neutral surface's radius, Batdorf's Z, the design buckling
+    stress and the critical torque ``2 pi r^2 t tau``, one value per part."""
+    plane = np.where(mask, modulus / (1.0 - nu * nu), 0.0)
+    thickness = np.where(mask, (do - di) / 2.0, 0.0)
+    centre = np.where(mask, (do + di) / 4.0, 0.0) - bore[:, np.newaxis]
+    membrane = (plane * thickness).sum(axis=1)
+    neutral = (plane * thickness * centre).sum(axis=1) / membrane
+    offset = centre - neutral[:, np.newaxis]
+    bending = (plane * (thickness**3 / 12.0 + thickness * offset * offset)).sum(axis=1)
+    wall = np.sqrt(12.0 * bending / membrane)
+    nu_eq = (np.where(mask, nu, 0.0) * plane * thickness).sum(axis=1) / membrane
+    e_eq = membrane / wall * (1.0 - nu_eq * nu_eq)
+    radius = bore + neutral
+    z = span * span * np.sqrt(1.0 - nu_eq * nu_eq) / (radius * wall)
+    stress = np.asarray(tube_buckling_stress(e_eq, nu_eq, radius, wall, span, knock_down))
+    torque = 2.0 * np.pi * radius * radius * wall * stress
+    return e_eq, nu_eq, wall, radius, z, stress, torque

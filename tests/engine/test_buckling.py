@@ -249,3 +249,58 @@ class TestOneLayerWallAndEdges:
         got = self._check()
         with pytest.raises(AttributeError):
             got.capacity = None  # type: ignore[misc]
+
+
+class TestMixedBatch:
+    """Only thin walls are worked out (the others' results are set, not computed): in a batch
+    mixing thin, thick, solid and bad parts every field of each part is what the part gives
+    alone, and a part not checked has NaN for the wall's figures and +inf torque (the
+    module's rule; Roark's thin-shell formulas apply to thin walls only, common practice)."""
+
+    PARTS = [  # outer, inner per layer; E of layer 0; length
+        ([0.100, 0.104], [0.098, 0.100], E, 3.0),     # thin two-layer wall: checked
+        ([0.100, 0.140], [0.060, 0.100], E, 3.0),     # thick: not thin-walled
+        ([0.050, 0.054], [0.000, 0.050], E, 3.0),     # solid core: not checked
+        ([0.200, 0.203], [0.198, 0.200], np.nan, 3.0),  # E missing: an error
+        ([0.300, 0.302], [0.298, 0.300], E, 0.05),    # thin and short: checked, noted
+        ([0.100, 0.104], [0.098, 0.100], E, -1.0),    # bad length: an error
+    ]
+    FIELDS = ("radius_to_wall", "modulus", "poisson_ratio", "wall", "radius", "batdorf_z",
+              "critical_stress", "critical_torque", "capacity", "part_flags", "valid")
+
+    def _rate(self, parts):
+        return torsional_buckling([p[0] for p in parts], [p[1] for p in parts],
+                                  [[p[2], 70e9] for p in parts], [[NU, 0.33]],
+                                  [p[3] for p in parts], 1.5)
+
+    def test_each_part_as_alone(self):
+        together = self._rate(self.PARTS)
+        for i, part in enumerate(self.PARTS):
+            alone = self._rate([part])
+            for name in self.FIELDS:
+                np.testing.assert_array_equal(getattr(together, name)[i], getattr(alone, name)[0],
+                                              err_msg=f"part {i}, {name}")
+
+    def test_what_is_not_checked(self):
+        result = self._rate(self.PARTS)
+        checked = np.array([True, False, False, False, True, False])
+        valid = np.array([True, True, True, False, True, False])
+        np.testing.assert_array_equal(result.valid, valid)
+        for name in ("modulus", "poisson_ratio", "wall", "radius", "batdorf_z", "critical_stress"):
+            values = getattr(result, name)
+            assert np.isfinite(values[checked]).all(), name
+            assert np.isnan(values[~checked]).all(), name
+        torque = result.critical_torque
+        assert np.isfinite(torque[checked]).all()
+        np.testing.assert_array_equal(torque[~checked & valid], np.inf)
+        assert np.isnan(torque[~valid]).all() and np.isnan(result.capacity[~valid]).all()
+        np.testing.assert_array_equal(result.capacity[valid], torque[valid] / 1.5)
+        assert result.part_flags[1] & LoadFlag.NOT_THIN_WALLED
+        assert result.part_flags[2] & LoadFlag.NOT_THIN_WALLED
+        assert result.part_flags[4] & LoadFlag.SHORT_TUBE
+        assert not result.part_flags[0] & (LoadFlag.SHORT_TUBE | LoadFlag.NOT_THIN_WALLED)
+
+    def test_no_thin_wall_at_all(self):
+        result = self._rate([self.PARTS[1], self.PARTS[2]])
+        np.testing.assert_array_equal(result.capacity, np.inf)
+        assert np.isnan(result.wall).all()
