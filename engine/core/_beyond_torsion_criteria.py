@@ -40,7 +40,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from ._bending import section_bending
-from ._buckling import torsional_buckling
+from ._buckling import thin_walled, torsional_buckling
 from ._combined import combined_capacity
 from ._criteria import AllowableRule
 from ._whirl import EndSupport, WhirlCheck, whirl_check
@@ -177,18 +177,25 @@ def buckling_capacity(section: Section) -> NDArray[np.float64]:
     if not checkable.any():
         return _no_limit_parts(section)
     stack = section.stack
+    # Only thin hollow walls are checked: the rest are +inf whatever their inputs, so the
+    # check runs on those parts alone (most of a machine catalogue is stocky).
+    rows = np.flatnonzero(checkable & thin_walled(stack.outer_diameter, stack.inner_diameter,
+                                                  used))
+    capacity = np.full(section.sum_gj.shape, np.inf)
     safety = section.input("factor_of_safety", per_layer=True)
     with np.errstate(all="ignore"):
         if safety is None:
-            part_safety = np.ones(section.sum_gj.shape)
+            part_safety = np.ones(rows.size)
         else:
-            part_safety = np.fmax.reduce(np.where(used, safety, np.nan), axis=1)
+            part_safety = np.fmax.reduce(np.where(used[rows], safety[rows], np.nan), axis=1)
             part_safety = np.where(np.isnan(part_safety), 1.0, part_safety)
-        result = torsional_buckling(stack.outer_diameter, stack.inner_diameter,
-                                    np.where(used, modulus, 1.0), np.where(used, poisson, 0.3),
-                                    section.duty.length, part_safety, present=used)
-    capacity = np.asarray(result.capacity, dtype=float).copy()
-    capacity[~checkable] = np.inf
-    capacity[np.isnan(capacity) & ~np.isnan(section.sum_gj)] = np.inf
+        if rows.size:
+            result = torsional_buckling(
+                stack.outer_diameter[rows], stack.inner_diameter[rows],
+                np.where(used[rows], modulus[rows], 1.0), np.where(used[rows], poisson[rows], 0.3),
+                np.broadcast_to(section.duty.length, capacity.shape)[rows], part_safety,
+                present=used[rows])
+            found = np.asarray(result.capacity, dtype=float)
+            capacity[rows] = np.where(np.isnan(found), np.inf, found)
     capacity[np.isnan(section.sum_gj)] = np.nan
     return capacity

@@ -67,6 +67,7 @@ __all__ = [
     "moderate_tube_buckling_stress",
     "tube_buckling_stress",
     "tube_buckling_capacity",
+    "thin_walled",
     "TorsionalBuckling",
     "torsional_buckling",
 ]
@@ -312,9 +313,7 @@ def torsional_buckling(
         part_flags = gather_layer_flags(part_flags, layer_flags)
         valid = (part_flags & int(LOAD_ERRORS)) == 0
 
-        bore = np.where(mask[:, 0], di[:, 0], np.nan) / 2.0
-        outside = np.fmax.reduce(np.where(mask, do, np.nan), axis=1) / 2.0
-        radius_to_wall = (bore + outside) / (2.0 * (outside - bore))
+        bore, radius_to_wall = _bore_and_wall_ratio(do, di, mask)
         checked = valid & (bore > 0) & (radius_to_wall >= thin_wall_ratio)
         # Only thin walls are checked: the equivalent wall is worked out for those parts
         # alone (in a machine catalogue most sections are stocky, and these few lines
@@ -350,6 +349,40 @@ def torsional_buckling(
         part_flags=part_flags,
         valid=valid,
     )
+
+
+def _bore_and_wall_ratio(
+    do: NDArray[np.float64], di: NDArray[np.float64], mask: NDArray[np.bool_]
+) -> tuple[NDArray[np.float64], NDArray[np.float64]]:
+    """Per part: the bore's radius (NaN without slot 0) and the whole wall's mean radius over
+    its thickness (0.5 for a solid section)."""
+    with np.errstate(all="ignore"):
+        bore = np.where(mask[:, 0], di[:, 0], np.nan) / 2.0
+        outside = np.fmax.reduce(np.where(mask, do, np.nan), axis=1) / 2.0
+        return bore, (bore + outside) / (2.0 * (outside - bore))
+
+
+def thin_walled(
+    outer_diameter: ArrayLike, inner_diameter: ArrayLike, present: ArrayLike,
+    thin_wall_ratio: float = THIN_WALL_RATIO,
+) -> NDArray[np.bool_]:
+    """Per part: is the section hollow and thin enough for :func:`torsional_buckling` to check
+    it (its inputs aside)? Elsewhere that capacity is +inf or, for bad inputs, NaN.
+
+    Parameters
+    ----------
+    outer_diameter, inner_diameter : (P, L) array_like, m
+    present : (P, L) array_like of bool
+    thin_wall_ratio : float, 1
+
+    Returns
+    -------
+    (P,) ndarray of bool
+    """
+    (do, di), mask = layer_arrays(outer_diameter, inner_diameter, present=present)
+    bore, radius_to_wall = _bore_and_wall_ratio(do, di, mask)
+    with np.errstate(invalid="ignore"):
+        return (bore > 0) & (radius_to_wall >= thin_wall_ratio)
 
 
 def _equivalent_wall_buckling(

@@ -12,7 +12,7 @@ import math
 
 import numpy as np
 import pytest
-from twistshare.engine.core import AllowableRule, Criterion, Duty, EndSupport, LayerStack, rate
+from twistshare.engine.core import AllowableRule, Criterion, Duty, EndSupport, LayerStack, rate, thin_walled
 
 NEW = (Criterion.COMBINED_STRESS, Criterion.WHIRL, Criterion.TORSIONAL_BUCKLING)
 
@@ -136,6 +136,33 @@ class TestPartsThatCannotBeCheckedBesideOnesThatCan:
         cap = rate(_two(do, di), Duty.from_arrays([100.0, 100.0], [3.0, np.nan]), inputs=inputs).criterion_capacity[
             Criterion.TORSIONAL_BUCKLING]
         assert np.isfinite(cap[0]) and cap[1] == np.inf
+
+    def test_buckling_in_a_batch_of_thin_thick_and_solid_parts(self):
+        """Thin walls (mean radius / wall >= 10, common practice) get the closed forms, each
+        with its own span and factor of safety; thick and solid parts +inf beside them, even
+        with an E the check would refuse."""
+        parts = [  # outer, inner, span, E, FS
+            (0.204, 0.200, 3.0, 200e9, 2.0),   # r/t = 50.5: checked
+            (0.100, 0.060, 3.0, 200e9, 1.0),   # r/t = 2: thick
+            (0.300, 0.296, 0.8, 70e9, 1.5),    # r/t = 74.5: checked, a short span
+            (0.050, 0.000, 3.0, 200e9, 1.0),   # solid
+            (0.100, 0.060, 3.0, -5.0, 1.0),    # thick, E out of range: not checked either
+            (0.110, 0.100, 1.0, 200e9, 1.0),   # r/t = 10.5: checked
+        ]
+        stack = LayerStack.from_arrays([[p[0]] for p in parts], [[p[1]] for p in parts],
+                                       [[80e9]] * 6, [[100e6]] * 6, 1.0)
+        inputs = {"youngs_modulus": np.array([[p[3]] for p in parts]),
+                  "poisson_ratio": np.full((6, 1), 0.3),
+                  "factor_of_safety": np.array([[p[4]] for p in parts])}
+        cap = rate(stack, Duty.from_arrays([100.0] * 6, [p[2] for p in parts]),
+                   inputs=inputs).criterion_capacity[Criterion.TORSIONAL_BUCKLING]
+        for i, (do, di, span, e, fs) in enumerate(parts):
+            if i in (0, 2, 5):
+                assert cap[i] == pytest.approx(_buckling_expected(do, di, span, e, 0.3, fs), rel=1e-9)
+            else:
+                assert cap[i] == np.inf, i
+        assert thin_walled([[p[0]] for p in parts], [[p[1]] for p in parts],
+                           np.ones((6, 1), bool)).tolist() == [True, False, True, False, False, True]
 
     def test_the_end_support_changes_the_whirl_gate(self):
         # omega_1 = beta^2 sqrt(EI / m) / L^2: beta^2 = pi^2 pinned-pinned, 3.516 fixed-free
