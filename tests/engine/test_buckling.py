@@ -13,6 +13,7 @@ from twistshare.engine.core import (
     LoadFlag,
     long_tube_buckling_stress,
     moderate_tube_buckling_stress,
+    thin_walled,
     torsional_buckling,
     tube_buckling_capacity,
 )
@@ -304,3 +305,41 @@ class TestMixedBatch:
         result = self._rate([self.PARTS[1], self.PARTS[2]])
         np.testing.assert_array_equal(result.capacity, np.inf)
         assert np.isnan(result.wall).all()
+
+
+class TestThinWalledScreen:
+    """`thin_walled`: hollow, and mean radius over wall at least the limit (10 by default,
+    common practice), the same screen `torsional_buckling` checks with."""
+
+    @staticmethod
+    def _screen(outer, inner, **kw):
+        return thin_walled([outer], [inner], [[True] * len(outer)], **kw)
+
+    def test_hollow_thin_walls_pass_and_the_limit_is_inclusive(self):
+        t = 0.002
+        for r_over_t, expected in ((10.5, True), (9.5, False), (60.0, True)):
+            r = r_over_t * t
+            assert self._screen([2 * r + t], [2 * r - t]).tolist() == [expected]
+        outer, inner = [0.104], [0.096]
+        ratio = float(torsional_buckling([outer], [inner], [E], [NU], 1.0, 1.0).radius_to_wall[0])
+        assert self._screen(outer, inner, thin_wall_ratio=ratio).tolist() == [True]
+        assert self._screen(outer, inner, thin_wall_ratio=ratio * (1 + 1e-12)).tolist() == [False]
+
+    def test_solid_and_thick_sections_fail(self):
+        assert self._screen([0.100], [0.0]).tolist() == [False]
+        assert self._screen([0.100], [0.0], thin_wall_ratio=0.0).tolist() == [False]  # no bore
+        assert self._screen([0.100], [0.060]).tolist() == [False]  # r/t = 2, hollow
+
+    def test_agrees_with_the_buckling_flag_part_by_part(self):
+        rng = np.random.default_rng(3)
+        core = rng.uniform(0.02, 0.5, 400)
+        bore = np.where(rng.random(400) < 0.2, 0.0, core * rng.uniform(0.5, 0.995, 400))
+        sleeve = core + 2 * rng.uniform(0.0002, 0.01, 400)
+        outer, inner = np.stack([core, sleeve], 1), np.stack([bore, core], 1)
+        present = np.ones((400, 2), bool)
+        present[::7, 1] = False
+        screen = thin_walled(outer, inner, present)
+        result = torsional_buckling(outer, inner, [[E, 70e9]], [[NU, 0.33]], 2.0, 1.0, present=present)
+        not_thin = (result.part_flags & int(LoadFlag.NOT_THIN_WALLED)) != 0
+        np.testing.assert_array_equal(screen, ~not_thin)
+        assert 20 < screen.sum() < 380  # both kinds in the sample
