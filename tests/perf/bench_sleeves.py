@@ -17,7 +17,11 @@ Two more figures, for information beside that ratio (same run, same parts):
 book takes (the criteria list rates the interfaces, and E and nu given switch on the torsional
 buckling check too); ``io_floor_1m_ratio``, ``rate()`` followed by a pass that only reads the
 interface inputs and writes arrays of the interface results' size, over ``rate()`` alone: what
-any implementation that returns those results pays here for memory alone.
+any implementation that returns those results pays here for memory alone;
+``formulas_floor_1m_ratio``, ``rate()`` followed by the same results worked out from the formulas
+alone, with none of the checks (``_interfaces_floor.py``; checked to agree with
+``rate_interfaces`` on the parts whose interfaces stay closed), over ``rate()`` alone: what a
+numpy implementation pays for the arithmetic itself.
 """
 
 from __future__ import annotations
@@ -28,6 +32,7 @@ import sys
 import time
 
 import numpy as np
+from _interfaces_floor import agrees, formulas_floor
 from bench_engine import random_parts
 from twistshare.engine.core import rate, rate_interfaces, torque_twist_curve
 
@@ -139,6 +144,17 @@ def main(argv: list[str] | None = None) -> int:
         floor_best, floor_runs = _best(floor, args.repeats)
     criteria_best, criteria_runs = _best(lambda: rate(stack, duty, inputs=inputs), args.repeats)
 
+    check = rate_interfaces(stack, share=share, sum_stiffness=sum_gj, **inputs)
+    if not agrees(formulas_floor(stack, share, sum_gj, inputs), check):
+        raise SystemExit("the formulas floor does not agree with rate_interfaces: fix the floor")
+    del check
+
+    def formulas():
+        rated = rate(stack, duty)
+        return rated, formulas_floor(stack, rated.share, rated.sum_gj, inputs)
+
+    formulas_best, formulas_runs = _best(formulas, args.repeats)
+
     print(f"torque-twist curve, {args.curve_parts:,} parts x 50 points: "
           f"{', '.join(f'{r:.3f}' for r in curve_runs)} s (best scaled to 10^5: {curve_100k:.3f} s)")
     print(f"rate(), {args.parts:,} parts:               {', '.join(f'{r:.3f}' for r in rate_runs)} s")
@@ -147,6 +163,8 @@ def main(argv: list[str] | None = None) -> int:
     print(f"(rate + interfaces) / rate:           {ratio:.2f} (target <= 1.5)")
     print(f"rate() + memory floor of interfaces:  {', '.join(f'{r:.3f}' for r in floor_runs)} s "
           f"(ratio {floor_best / rate_best:.2f})")
+    print(f"rate() + the formulas alone (no check): {', '.join(f'{r:.3f}' for r in formulas_runs)} s "
+          f"(ratio {formulas_best / rate_best:.2f})")
     print(f"rate(inputs=...), the book's path:    {', '.join(f'{r:.3f}' for r in criteria_runs)} s "
           f"(ratio {criteria_best / rate_best:.2f})")
     print(json.dumps({
@@ -158,6 +176,7 @@ def main(argv: list[str] | None = None) -> int:
         "rate_plus_interfaces_s": round(both_best, 4),
         "interfaces_1m_ratio": round(ratio, 3),
         "io_floor_1m_ratio": round(floor_best / rate_best, 3),
+        "formulas_floor_1m_ratio": round(formulas_best / rate_best, 3),
         "criteria_path_1m_ratio": round(criteria_best / rate_best, 3),
     }))
     return 0
