@@ -358,7 +358,11 @@ def _bore_and_wall_ratio(
     its thickness (0.5 for a solid section)."""
     with np.errstate(all="ignore"):
         bore = np.where(mask[:, 0], di[:, 0], np.nan) / 2.0
-        outside = np.fmax.reduce(np.where(mask, do, np.nan), axis=1) / 2.0
+        # Column by column: a reduction along the few slots of each row is slow.
+        outside = np.where(mask[:, 0], do[:, 0], np.nan)
+        for slot in range(1, do.shape[1]):
+            np.fmax(outside, np.where(mask[:, slot], do[:, slot], np.nan), out=outside)
+        outside /= 2.0
         return bore, (bore + outside) / (2.0 * (outside - bore))
 
 

@@ -343,3 +343,13 @@ class TestThinWalledScreen:
         not_thin = (result.part_flags & int(LoadFlag.NOT_THIN_WALLED)) != 0
         np.testing.assert_array_equal(screen, ~not_thin)
         assert 20 < screen.sum() < 380  # both kinds in the sample
+
+    def test_the_whole_wall_counts_not_the_core_alone(self):
+        """Mean radius over wall of the compound wall, by hand: bore radius a, outside b,
+        (a + b) / (2 (b - a)). A thin core under a thick sleeve is thick as a whole."""
+        result = torsional_buckling([[0.100, 0.104]], [[0.096, 0.100]], [[E, E]], [[NU, NU]], 2.0, 1.0)
+        assert result.radius_to_wall[0] == pytest.approx((0.048 + 0.052) / (2 * 0.004), rel=1e-12)
+        assert self._screen([0.100, 0.104], [0.096, 0.100]).tolist() == [True]
+        # core 100/98 alone: r/t 49.5; with a sleeve to 120: (0.049 + 0.06) / 0.022 = 4.95
+        assert self._screen([0.100, 0.120], [0.098, 0.100]).tolist() == [False]
+        assert self._screen([0.100, 0.120, 0.122], [0.098, 0.100, 0.120]).tolist() == [False]
