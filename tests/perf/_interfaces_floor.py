@@ -18,6 +18,7 @@ from __future__ import annotations
 from types import SimpleNamespace
 
 import numpy as np
+from twistshare.engine.core import REFERENCE_TEMPERATURE
 
 _TWO_OVER_ROOT3 = 2.0 / np.sqrt(3.0)
 
@@ -29,14 +30,15 @@ def _buffers(n: int, count: int) -> list[np.ndarray]:
 def formulas_floor(stack, share: np.ndarray, sum_gj: np.ndarray, inputs: dict,
                    block: int = 1 << 16) -> SimpleNamespace:
     """The interface results of ``stack`` (all layers present, torque through the core,
-    scalar ``friction`` and ``factor_of_safety``) by the formulas alone."""
+    scalar ``friction`` and ``factor_of_safety``, assembled at the reference temperature) by
+    the formulas alone."""
     do_all, di_all, g_all = stack.outer_diameter, stack.inner_diameter, stack.shear_modulus
     n_parts, n_layers = do_all.shape
     e_all, nu_all = inputs["youngs_modulus"], inputs["poisson_ratio"]
     sy_all, alpha_all = inputs["yield_strength"], inputs["expansion_coefficient"]
     delta0_all, fit_len_all = inputs["interference"], inputs["fit_length"]
     tau_all, bond_len_all = inputs["bond_allowable"], inputs["bond_length"]
-    heat_all = inputs["operating_temperature"] - 293.15
+    heat_all = inputs["operating_temperature"] - REFERENCE_TEMPERATURE
     grip_factor = float(inputs["friction"]) * np.pi / 2.0
     limit_factor = 1.0 / float(inputs["factor_of_safety"]) ** 2
 

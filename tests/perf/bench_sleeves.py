@@ -130,6 +130,8 @@ def main(argv: list[str] | None = None) -> int:
 
     check = rate_interfaces(stack, share=share, sum_stiffness=sum_gj, **inputs)
     assert np.isfinite(check.slip_limit).all() and np.isfinite(check.bond_limit).all()
+    if not agrees(formulas_floor(stack, share, sum_gj, inputs), check):
+        raise SystemExit("the formulas floor does not agree with rate_interfaces: fix the floor")
     del rating, check
     alone_best, alone_runs = _best(
         lambda: rate_interfaces(stack, share=share, sum_stiffness=sum_gj, **inputs), args.repeats)
@@ -143,11 +145,6 @@ def main(argv: list[str] | None = None) -> int:
     with np.errstate(invalid="ignore"):  # the floor writes sums into integer arrays
         floor_best, floor_runs = _best(floor, args.repeats)
     criteria_best, criteria_runs = _best(lambda: rate(stack, duty, inputs=inputs), args.repeats)
-
-    check = rate_interfaces(stack, share=share, sum_stiffness=sum_gj, **inputs)
-    if not agrees(formulas_floor(stack, share, sum_gj, inputs), check):
-        raise SystemExit("the formulas floor does not agree with rate_interfaces: fix the floor")
-    del check
 
     def formulas():
         rated = rate(stack, duty)
