@@ -20,7 +20,7 @@ from pathlib import Path
 
 import numpy as np
 import pytest
-from twistshare.engine.cells import TWS_BENDING_STRESS, TWS_COMBINED_STRESS, TWS_CRITICAL_SPEED
+from twistshare.engine.cells import TWS_BENDING_STRESS, TWS_BUCKLING_TORQUE, TWS_COMBINED_STRESS, TWS_CRITICAL_SPEED
 from twistshare.engine.core import Criterion
 from twistshare.engine.intake import Severity, rate_tables
 from twistshare.engine.intake._grid import SheetGrid
@@ -231,3 +231,24 @@ def test_bearing_span_sets_the_whirl_span():
     book = rate_tables(_Book({"Materials": MATERIALS, "Parts": [head] + rows}))
     got = np.asarray(book.whirl.critical_speed) * 30 / math.pi
     assert got == pytest.approx([_critical_rpm(1.5), _critical_rpm(3.0)], rel=1e-9)
+
+
+class TestBucklingBothFrontEnds:
+    """Torsional buckling of a thin tube typed into the tables and into TWS_BUCKLING_TORQUE: the
+    same number, against Roark's long-tube form (Timoshenko and Gere; knock-down 0.67, NASA
+    SP-8007; both from memory); a thick tube is not checked by either."""
+
+    def test_thin_tube_same_in_table_and_cell_and_by_hand(self):
+        outer, inner = 0.200, 0.196  # 6 m long: the long-tube form governs
+        book = _rate([["MPD-T-941", 6000, 500, None, None, None, None, "MPD test tube steel", 200, 196],
+                      ["MPD-T-942", 6000, 500, None, None, None, None, "MPD test tube steel", 50, 40]])
+        assert book.rated.all()
+        table = book.rating.criterion_capacity[Criterion.TORSIONAL_BUCKLING]
+        cell = TWS_BUCKLING_TORQUE([LAYERS[0], ["MPD test tube steel", 200, 196]], "6 m", materials=MATERIALS)
+        r, t = (outer + inner) / 4, (outer - inner) / 2
+        tau = 0.67 * E / (3 * math.sqrt(2) * (1 - 0.3**2) ** 0.75) * (t / r) ** 1.5
+        assert table[0] == pytest.approx(2 * math.pi * r * r * t * tau, rel=1e-9)
+        assert cell == pytest.approx(table[0], rel=1e-12)
+        assert table[1] == math.inf
+        thick = TWS_BUCKLING_TORQUE(LAYERS, "6 m", materials=MATERIALS)
+        assert isinstance(thick, str) and "not thin-walled" in thick
