@@ -83,7 +83,7 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
     if checked:
         rows.append([Styled("Checked beyond torsion", "header"), Styled("Parts", "header")])
         for text, count in checked:
-            rows.append([text, count])
+            rows.append([Styled(text, "wrap"), Styled(count, "top")])  # a long text wraps
         rows.append([])
     margins_block = margins_chart = profile_chart = None
     page_break = None
@@ -97,9 +97,12 @@ def summary_rows(book, display: Display, profile_part: str | None = None) -> tup
             gl = int(r.governing_layer[i])
             mat = parts.materials[i][gl] if gl >= 0 else None
             mg = _f(r.margin[i] * 100)
-            rows.append([parts.ids[i], Styled(mg, "fail+fixed1" if mg is not None and mg < 0 else "fixed1"),
-                         Styled(_f(r.governing_capacity[i] / tf), "fixed1"), Styled(_f(parts.torque[i] / tf), "fixed1"),
-                         governs_text(r.governing_criterion[i], gl, mat)])
+            # Top-aligned: a long "governs" text wraps, and the row's numbers stay on its first line.
+            rows.append([Styled(parts.ids[i], "top"),
+                         Styled(mg, "fail+fixed1+top" if mg is not None and mg < 0 else "fixed1+top"),
+                         Styled(_f(r.governing_capacity[i] / tf), "fixed1+top"),
+                         Styled(_f(parts.torque[i] / tf), "fixed1+top"),
+                         Styled(governs_text(r.governing_criterion[i], gl, mat), "wrap")])
         margins_block = (start, len(rows) - 1)
         rows.append([])
         # the chart of these margins below them, across the five columns
